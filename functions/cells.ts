@@ -1,0 +1,196 @@
+/**
+ * The one policy for what comes out of a cell and what goes back into one.
+ * Every adapter reads its arguments through these readers, and every adapter
+ * a host sees is wrapped by `guard`, so:
+ *
+ * - In a range of values, empty cells, empty strings and zeros are "no
+ *   specimen" (desktop hosts pass empty cells as 0, web hosts as null);
+ *   text or TRUE/FALSE -> #VALUE! naming the position; a negative -> #NUM!.
+ * - A second range that pairs with the first (censoring flags, element
+ *   sizes) must have the same rows and columns, else #VALUE!.
+ * - A scalar outside its domain -> #NUM! with a message; only #VALUE! and
+ *   #N/A messages reach the user in every host, so use #VALUE! where the
+ *   message matters most.
+ * - Nothing throws out of a guarded adapter, and a number going back to a
+ *   cell is never NaN or Infinity.
+ */
+import { InputError } from "../src/errors";
+
+export type ErrorCode = "#VALUE!" | "#NUM!" | "#N/A";
+
+export class CellError extends Error {
+  readonly code: ErrorCode;
+  constructor(code: ErrorCode, message: string) {
+    super(message);
+    this.name = "CellError";
+    this.code = code;
+  }
+}
+
+/** What a guarded adapter returns instead of throwing. */
+export interface CellFailure {
+  readonly cellError: ErrorCode;
+  readonly message: string;
+}
+
+export function isCellFailure(x: unknown): x is CellFailure {
+  return typeof x === "object" && x !== null && "cellError" in x;
+}
+
+export type CellValue = number | string | boolean | null | undefined;
+export type Range = CellValue[][];
+
+function isBlank(v: unknown): boolean {
+  return v === null || v === undefined || v === 0 || (typeof v === "string" && v.trim() === "");
+}
+
+function describePosition(name: string, row: number, col: number, cols: number): string {
+  return cols > 1 ? `${name}, row ${row + 1} column ${col + 1}` : `${name}, row ${row + 1}`;
+}
+
+/** A range argument as a 2-D array; a host may pass a single value for a one-cell range. */
+export function asRange(value: unknown, name: string): Range {
+  if (Array.isArray(value)) {
+    if (value.length === 0 || !value.every(Array.isArray)) throw new CellError("#VALUE!", `${name} must be a range of cells`);
+    return value as Range;
+  }
+  return [[value as CellValue]];
+}
+
+export interface RangeNumbers {
+  values: number[];
+  /** Flat index (row-major) in the range of each value kept. */
+  indices: number[];
+  rows: number;
+  cols: number;
+}
+
+/**
+ * The numbers in a range under the blank rule: blanks and zeros skipped;
+ * text, booleans and negatives rejected with the cell's position.
+ */
+export function readPositiveNumbers(value: unknown, name: string): RangeNumbers {
+  const range = asRange(value, name);
+  const rows = range.length;
+  const cols = range[0].length;
+  const values: number[] = [];
+  const indices: number[] = [];
+  for (let r = 0; r < rows; r++) {
+    if (range[r].length !== cols) throw new CellError("#VALUE!", `${name} must be a rectangular range`);
+    for (let c = 0; c < cols; c++) {
+      const v = range[r][c];
+      if (isBlank(v)) continue;
+      if (typeof v !== "number") throw new CellError("#VALUE!", `${describePosition(name, r, c, cols)} is not a number`);
+      if (!Number.isFinite(v)) throw new CellError("#NUM!", `${describePosition(name, r, c, cols)} is not a finite number`);
+      if (v < 0) throw new CellError("#NUM!", `${describePosition(name, r, c, cols)} is negative`);
+      values.push(v);
+      indices.push(r * cols + c);
+    }
+  }
+  return { values, indices, rows, cols };
+}
+
+/** Censoring flags: TRUE, 1, "C" or "CENSORED" mark a censored specimen; FALSE, 0, blank, "F" a failure. */
+export function readFlags(value: unknown, name: string, like: RangeNumbers, likeName: string): boolean[] {
+  const range = asRange(value, name);
+  if (range.length !== like.rows || range[0].length !== like.cols) {
+    throw new CellError(
+      "#VALUE!",
+      `${name} (${range.length} x ${range[0].length}) must have the same rows and columns as ${likeName} (${like.rows} x ${like.cols})`,
+    );
+  }
+  return like.indices.map((index) => {
+    const r = Math.floor(index / like.cols);
+    const c = index % like.cols;
+    const v = range[r][c];
+    if (v === true || v === 1) return true;
+    if (v === false || isBlank(v)) return false;
+    if (typeof v === "string") {
+      const word = v.trim().toUpperCase();
+      if (word === "TRUE" || word === "C" || word === "CENSORED") return true;
+      if (word === "FALSE" || word === "F" || word === "FAILURE") return false;
+    }
+    throw new CellError("#VALUE!", `${describePosition(name, r, c, like.cols)} must be TRUE/1 (censored) or FALSE/0/blank (failed)`);
+  });
+}
+
+export interface CellSample {
+  strengths: number[];
+  censored?: boolean[];
+}
+
+/** A strength column and its optional censoring column, under the blank rule. */
+export function readSample(strengths: unknown, censored: unknown): CellSample {
+  const numbers = readPositiveNumbers(strengths, "strengths");
+  if (numbers.values.length < 2) {
+    throw new CellError("#NUM!", `strengths: a fit needs at least two specimens (found ${numbers.values.length})`);
+  }
+  if (censored === null || censored === undefined) return { strengths: numbers.values };
+  return { strengths: numbers.values, censored: readFlags(censored, "censored", numbers, "strengths") };
+}
+
+/** A required number; hosts coerce typed parameters, so only blanks and odd types arrive here. */
+export function readNumber(value: unknown, name: string): number {
+  if (typeof value === "number") {
+    if (!Number.isFinite(value)) throw new CellError("#NUM!", `${name} is not a finite number`);
+    return value;
+  }
+  if (value === null || value === undefined || value === "") throw new CellError("#VALUE!", `${name} is required`);
+  throw new CellError("#VALUE!", `${name} must be a number`);
+}
+
+/** An optional number: a missing or blank argument gives the default. */
+export function readOptionalNumber(value: unknown, name: string, fallback: number): number {
+  return value === null || value === undefined || value === "" ? fallback : readNumber(value, name);
+}
+
+/** An optional keyword, matched case-insensitively against the allowed words. */
+export function readChoice<T extends string>(value: unknown, name: string, allowed: readonly T[], fallback: T): T {
+  if (value === null || value === undefined || value === "") return fallback;
+  if (typeof value !== "string") throw new CellError("#VALUE!", `${name} must be one of ${allowed.map((a) => `"${a}"`).join(", ")}`);
+  const word = value.trim().toUpperCase();
+  const match = allowed.find((a) => a.toUpperCase() === word);
+  if (!match) throw new CellError("#VALUE!", `${name} "${value}" is not one of ${allowed.map((a) => `"${a}"`).join(", ")}`);
+  return match;
+}
+
+/** Turn any error into a CellFailure; nothing escapes to the host. */
+export function toFailure(error: unknown): CellFailure {
+  if (error instanceof CellError) return { cellError: error.code, message: error.message };
+  if (error instanceof InputError) return { cellError: error.kind === "num" ? "#NUM!" : "#VALUE!", message: error.message };
+  const text = error instanceof Error ? error.message : String(error);
+  return { cellError: "#VALUE!", message: `internal error: ${text}` };
+}
+
+export type CellResult = number | string | boolean | CellValue[][] | CellFailure;
+
+/** Check a result before it reaches a cell: no NaN, no Infinity, anywhere in a spill. */
+export function checkResult(result: unknown): CellResult {
+  if (typeof result === "number") {
+    return Number.isFinite(result) ? result : { cellError: "#NUM!", message: "the result is outside the range of double-precision numbers" };
+  }
+  if (typeof result === "string" || typeof result === "boolean") return result;
+  if (Array.isArray(result)) {
+    for (const row of result) {
+      for (const v of row as unknown[]) {
+        if (typeof v === "number" && !Number.isFinite(v)) {
+          return { cellError: "#NUM!", message: "a result is outside the range of double-precision numbers" };
+        }
+      }
+    }
+    return result as CellValue[][];
+  }
+  if (isCellFailure(result)) return result;
+  return { cellError: "#VALUE!", message: "internal error: the function produced no value" };
+}
+
+/** Wrap an adapter so it returns a CellFailure instead of throwing. */
+export function guard<A extends unknown[]>(adapter: (...args: A) => unknown): (...args: A) => CellResult {
+  return (...args: A) => {
+    try {
+      return checkResult(adapter(...args));
+    } catch (error) {
+      return toFailure(error);
+    }
+  };
+}

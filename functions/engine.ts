@@ -1,0 +1,149 @@
+/**
+ * The same guarded adapters registered in HyperFormula, an embedded formula
+ * engine, so workbooks evaluate with no spreadsheet application. Argument
+ * kinds come from functions.json (one description of every function), and
+ * spill sizes from spill-shapes.ts.
+ *
+ * A throw inside a HyperFormula plugin aborts the whole evaluation, so every
+ * path here returns a value or a CellError; the adapters are guarded too.
+ */
+import {
+  ArraySize,
+  CellError,
+  EmptyValue,
+  ErrorType,
+  FunctionArgumentType,
+  FunctionPlugin,
+  HyperFormula,
+  SimpleRangeValue,
+  type FunctionArgument,
+  type ImplementedFunctions,
+} from "hyperformula";
+import { isCellFailure, type CellResult } from "./cells";
+import type { FunctionMetadata } from "./metadata";
+import { guarded } from "./registry";
+import { spillShapes, type SpillShape } from "./spill-shapes";
+
+export const NAMESPACE = "BRITTLE";
+export const LICENSE_KEY = "gpl-v3";
+
+const ERROR_TYPES = { "#VALUE!": ErrorType.VALUE, "#NUM!": ErrorType.NUM, "#N/A": ErrorType.NA } as const;
+
+function toEngineValue(result: CellResult): unknown {
+  if (isCellFailure(result)) return new CellError(ERROR_TYPES[result.cellError], result.message);
+  if (Array.isArray(result)) {
+    return SimpleRangeValue.onlyValues(result.map((row) => row.map((v) => (v === null || v === undefined ? EmptyValue : v))) as never);
+  }
+  return result;
+}
+
+/** A HyperFormula range or scalar as the plain values a host would pass; the first error cell wins. */
+function fromEngineValue(value: unknown): unknown {
+  if (value instanceof SimpleRangeValue) {
+    const rows: unknown[][] = [];
+    for (const row of value.data) {
+      const out: unknown[] = [];
+      for (const v of row) {
+        if (v instanceof CellError) throw v;
+        out.push(plainScalar(v));
+      }
+      rows.push(out);
+    }
+    return rows;
+  }
+  if (value instanceof CellError) throw value;
+  return plainScalar(value);
+}
+
+function plainScalar(v: unknown): unknown {
+  if (v === EmptyValue || v === undefined) return null;
+  // Dates, percentages and currencies arrive as number objects carrying a format.
+  if (typeof v === "object" && v !== null && "val" in v) return (v as { val: unknown }).val;
+  return v;
+}
+
+function argumentFor(p: FunctionMetadata["parameters"][number]): FunctionArgument {
+  const argumentType =
+    p.dimensionality === "matrix"
+      ? FunctionArgumentType.RANGE
+      : p.type === "number"
+        ? FunctionArgumentType.NUMBER
+        : p.type === "string"
+          ? FunctionArgumentType.STRING
+          : p.type === "boolean"
+            ? FunctionArgumentType.BOOLEAN
+            : FunctionArgumentType.SCALAR;
+  return p.optional ? { argumentType, optionalArg: true } : { argumentType };
+}
+
+/** Builds the plugin class for the functions described in the metadata. */
+export function createPlugin(metadata: FunctionMetadata[]) {
+  const implemented: ImplementedFunctions = {};
+  class BrittlePlugin extends FunctionPlugin {}
+  const proto = BrittlePlugin.prototype as unknown as Record<string, unknown>;
+
+  for (const fn of metadata) {
+    const engineName = `${NAMESPACE}.${fn.id}`;
+    const adapter = guarded[fn.id];
+    const method = `call_${fn.id}`;
+    const spill: SpillShape | undefined = spillShapes[fn.id];
+    implemented[engineName] = {
+      method,
+      parameters: fn.parameters.map(argumentFor),
+      vectorizationForbidden: true,
+      ...(spill ? { sizeOfResultArrayMethod: `size_${fn.id}` } : {}),
+    };
+    proto[method] = function (this: FunctionPlugin, ast: any, state: any) {
+      return this.runFunction(ast.args, state, this.metadata(engineName), (...args: unknown[]) => {
+        try {
+          return toEngineValue(adapter(...args.map(fromEngineValue)));
+        } catch (error) {
+          if (error instanceof CellError) return error;
+          return new CellError(ErrorType.VALUE, `internal error: ${String(error)}`);
+        }
+      });
+    };
+    if (spill) {
+      proto[`size_${fn.id}`] = function (this: any, ast: any, state: any) {
+        return spillSize(spill, (k) => (ast.args[k] ? this.arraySizeForAst(ast.args[k], state) : undefined));
+      };
+    }
+  }
+  (BrittlePlugin as unknown as { implementedFunctions: ImplementedFunctions }).implementedFunctions = implemented;
+  return BrittlePlugin;
+}
+
+function spillSize(shape: SpillShape, sizeOf: (k: number) => ArraySize | undefined): ArraySize {
+  const { rows, cols } = shape;
+  if (typeof rows === "number") return new ArraySize(cols, rows);
+  const k = "cellsOf" in rows ? rows.cellsOf : rows.rowsOf;
+  const size = sizeOf(k);
+  if (!size || size.isScalar()) return new ArraySize(cols, 1);
+  return new ArraySize(cols, "cellsOf" in rows ? size.width * size.height : size.height);
+}
+
+let registered = false;
+
+/** Registers the plugin once per process: HyperFormula's function registry is global. */
+export function registerFunctions(metadata: FunctionMetadata[]): void {
+  if (registered) return;
+  const plugin = createPlugin(metadata);
+  const names = Object.keys((plugin as unknown as { implementedFunctions: object }).implementedFunctions);
+  HyperFormula.registerFunctionPlugin(plugin as never, { enGB: Object.fromEntries(names.map((n) => [n, n])) });
+  registered = true;
+}
+
+/** Saved workbooks spell add-in calls as _xldudf_BRITTLE_NAME( ; the engine reads BRITTLE.NAME( . */
+export function normaliseFormula(formula: string): string {
+  return formula.replace(/_xldudf_BRITTLE_([A-Za-z0-9]+)\s*\(/gi, (_, name: string) => `${NAMESPACE}.${name.toUpperCase()}(`);
+}
+
+export function createEngine(sheets: Record<string, unknown[][]>, metadata: FunctionMetadata[]): HyperFormula {
+  registerFunctions(metadata);
+  return HyperFormula.buildFromSheets(sheets as never, {
+    licenseKey: LICENSE_KEY,
+    useArrayArithmetic: false,
+    smartRounding: false,
+    precisionRounding: 0,
+  });
+}

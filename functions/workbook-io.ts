@@ -1,0 +1,137 @@
+/**
+ * Reading and writing workbooks for headless evaluation: .xlsx through
+ * exceljs and .csv. A workbook becomes a set of sheets of plain cell contents
+ * (numbers, text, booleans, null, and formulas as "=..." text), which is what
+ * the formula engine takes; writing keeps each formula and stores its
+ * computed value beside it.
+ */
+import { readFile } from "node:fs/promises";
+import ExcelJS from "exceljs";
+import { normaliseFormula } from "./engine";
+
+export type Contents = number | string | boolean | null;
+
+export interface LoadedWorkbook {
+  kind: "xlsx" | "csv";
+  sheets: Record<string, Contents[][]>;
+  /** The exceljs workbook an .xlsx came from, kept so --out preserves its formatting. */
+  source?: ExcelJS.Workbook;
+}
+
+export class WorkbookError extends Error {}
+
+export async function loadWorkbook(path: string): Promise<LoadedWorkbook> {
+  const lower = path.toLowerCase();
+  if (lower.endsWith(".csv")) return { kind: "csv", sheets: { [sheetNameFor(path)]: parseCsv(await readText(path)) } };
+  if (lower.endsWith(".xlsx")) return loadXlsx(path);
+  throw new WorkbookError(`${path}: unsupported file type (use .xlsx or .csv)`);
+}
+
+async function readText(path: string): Promise<string> {
+  try {
+    return await readFile(path, "utf8");
+  } catch (error) {
+    throw new WorkbookError(`cannot read ${path}: ${(error as NodeJS.ErrnoException).code ?? String(error)}`);
+  }
+}
+
+function sheetNameFor(path: string): string {
+  const base = path.replace(/^.*[\\/]/, "").replace(/\.[^.]*$/, "");
+  return base.replace(/[^A-Za-z0-9 _-]/g, "_").slice(0, 31) || "Sheet1";
+}
+
+async function loadXlsx(path: string): Promise<LoadedWorkbook> {
+  const workbook = new ExcelJS.Workbook();
+  try {
+    await workbook.xlsx.load(await readFile(path));
+  } catch (error) {
+    const reason = (error as NodeJS.ErrnoException).code ?? (error as Error).message ?? String(error);
+    throw new WorkbookError(`cannot read ${path} as an .xlsx workbook: ${String(reason).split("\n")[0]}`);
+  }
+  const sheets: Record<string, Contents[][]> = {};
+  workbook.eachSheet((ws) => {
+    const grid: Contents[][] = [];
+    ws.eachRow({ includeEmpty: false }, (row, r) => {
+      row.eachCell({ includeEmpty: false }, (cell, c) => {
+        while (grid.length < r) grid.push([]);
+        const line = grid[r - 1];
+        while (line.length < c) line.push(null);
+        line[c - 1] = cellContents(cell);
+      });
+    });
+    sheets[ws.name] = grid;
+  });
+  if (Object.keys(sheets).length === 0) throw new WorkbookError(`${path} has no worksheets`);
+  return { kind: "xlsx", sheets, source: workbook };
+}
+
+function cellContents(cell: ExcelJS.Cell): Contents {
+  const v = cell.value as unknown;
+  if (v === null || v === undefined) return null;
+  if (typeof v === "number" || typeof v === "boolean") return v;
+  // Text that merely starts with "=" stays text: the engine reads a leading apostrophe as "this is text".
+  if (typeof v === "string") return v.startsWith("=") ? `'${v}` : v;
+  if (v instanceof Date) return excelSerial(v);
+  if (typeof v === "object") {
+    const o = v as Record<string, unknown>;
+    if ("formula" in o || "sharedFormula" in o) return `=${normaliseFormula(cell.formula)}`;
+    if ("richText" in o) return (o.richText as { text: string }[]).map((t) => t.text).join("");
+    if ("text" in o) return String(o.text);
+    if ("error" in o) return String(o.error);
+  }
+  return String(v);
+}
+
+function excelSerial(d: Date): number {
+  return d.getTime() / 86400000 + 25569;
+}
+
+/** RFC 4180 CSV: quoted fields, doubled quotes, CRLF or LF. Numbers and TRUE/FALSE become values. */
+export function parseCsv(text: string): Contents[][] {
+  const rows: Contents[][] = [];
+  let row: Contents[] = [];
+  let field = "";
+  let quoted = false;
+  let wasQuoted = false;
+  const endField = () => {
+    row.push(wasQuoted ? field : csvValue(field));
+    field = "";
+    wasQuoted = false;
+  };
+  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  for (let i = 0; i < body.length; i++) {
+    const ch = body[i];
+    if (quoted) {
+      if (ch === '"' && body[i + 1] === '"') {
+        field += '"';
+        i++;
+      } else if (ch === '"') quoted = false;
+      else field += ch;
+    } else if (ch === '"' && field === "") {
+      quoted = true;
+      wasQuoted = true;
+    } else if (ch === ",") endField();
+    else if (ch === "\n" || ch === "\r") {
+      if (ch === "\r" && body[i + 1] === "\n") i++;
+      endField();
+      rows.push(row);
+      row = [];
+    } else field += ch;
+  }
+  if (quoted) throw new WorkbookError("malformed CSV: a quoted field is not closed");
+  if (field !== "" || row.length > 0) {
+    endField();
+    rows.push(row);
+  }
+  return rows.map((r) => (r.every((v) => v === null) ? [] : r));
+}
+
+function csvValue(text: string): Contents {
+  const t = text.trim();
+  if (t === "") return null;
+  if (t.startsWith("=")) return normaliseFormula(t);
+  if (/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t)) return Number(t);
+  if (/^true$/i.test(t)) return true;
+  if (/^false$/i.test(t)) return false;
+  return text;
+}

@@ -1,0 +1,119 @@
+/**
+ * Maximum-likelihood estimate of the Weibull modulus and characteristic
+ * strength, for complete and right-censored samples (ASTM C1239 section 7;
+ * ISO 20501 methods A and B).
+ *
+ * With r failures among N specimens the modulus m solves
+ *
+ *   g(m) = sum_all(x^m ln x) / sum_all(x^m) - (1/r) sum_failures(ln x) - 1/m = 0
+ *
+ * and sigma_theta = (sum_all s^m / r)^(1/m). g increases monotonically with m
+ * (g'(m) is a weighted variance of ln x plus 1/m^2), so the root is unique.
+ *
+ * Strengths are divided by their maximum first: every x lies in (0, 1], the
+ * largest term of sum x^m is exactly 1, and nothing overflows or underflows
+ * whatever the units or the modulus.
+ */
+import { InputError, require } from "../errors";
+import { CompensatedSum } from "../numeric/sum";
+import { checkSample, type StrengthSample } from "./sample";
+import type { WeibullParameters } from "./distribution";
+
+export interface MaximumLikelihoodFit extends WeibullParameters {
+  /** Specimens in the sample (failures plus censored). */
+  specimens: number;
+  failures: number;
+  converged: boolean;
+  iterations: number;
+  /** |g(m)| at the returned modulus, in units of 1/m. */
+  residual: number;
+}
+
+const MAX_ITERATIONS = 200;
+
+export function fitMaximumLikelihood(sample: StrengthSample): MaximumLikelihoodFit {
+  const { strengths, censored, failures } = checkSample(sample);
+  const n = strengths.length;
+  let max = 0;
+  for (let i = 0; i < n; i++) max = Math.max(max, strengths[i]);
+
+  const logX = new Float64Array(n);
+  const meanLogFailures = new CompensatedSum();
+  for (let i = 0; i < n; i++) {
+    logX[i] = Math.log(strengths[i] / max);
+    if (!censored[i]) meanLogFailures.add(logX[i]);
+  }
+  const failureLogMean = meanLogFailures.value / failures;
+  // g(infinity) = -failureLogMean: when every failure sits at the maximum, no finite m fits.
+  require(failureLogMean < 0, "all failure strengths are equal to the largest strength: the modulus is unbounded");
+
+  const moments = (m: number) => {
+    const s0 = new CompensatedSum();
+    const s1 = new CompensatedSum();
+    const s2 = new CompensatedSum();
+    for (let i = 0; i < n; i++) {
+      const w = Math.exp(m * logX[i]);
+      s0.add(w);
+      s1.add(w * logX[i]);
+      s2.add(w * logX[i] * logX[i]);
+    }
+    const mean = s1.value / s0.value;
+    return { sum: s0.value, mean, variance: Math.max(s2.value / s0.value - mean * mean, 0) };
+  };
+  const g = (m: number) => moments(m).mean - failureLogMean - 1 / m;
+
+  // Safeguarded Newton: keep a bracket [lo, hi] with g(lo) < 0 < g(hi).
+  let lo = 0;
+  let hi = Infinity;
+  let m = startingModulus(logX, censored, failures);
+  let converged = false;
+  let iterations = 0;
+  let residual = Infinity;
+  for (iterations = 1; iterations <= MAX_ITERATIONS; iterations++) {
+    const { mean, variance } = moments(m);
+    const value = mean - failureLogMean - 1 / m;
+    residual = Math.abs(value) * m;
+    if (value === 0) {
+      converged = true;
+      break;
+    }
+    if (value < 0) lo = Math.max(lo, m);
+    else hi = Math.min(hi, m);
+    const slope = variance + 1 / (m * m);
+    let next = m - value / slope;
+    if (!(next > lo && next < hi)) next = Number.isFinite(hi) ? 0.5 * (lo + hi) : 2 * Math.max(m, lo);
+    const step = Math.abs(next - m);
+    m = next;
+    if (step <= 2 * Number.EPSILON * m) {
+      converged = true;
+      break;
+    }
+    if (Number.isFinite(hi) && hi - lo <= 2 * Number.EPSILON * hi) {
+      m = 0.5 * (lo + hi);
+      converged = true;
+      break;
+    }
+  }
+  if (!Number.isFinite(m) || m <= 0) throw new InputError("num", "the likelihood equation has no finite solution for these data");
+  residual = Math.abs(g(m)) * m;
+
+  const { sum } = moments(m);
+  const scale = max * Math.exp(Math.log(sum / failures) / m);
+  require(Number.isFinite(scale) && scale > 0, "the characteristic strength is outside the range of double-precision numbers");
+  return { shape: m, scale, specimens: n, failures, converged, iterations: Math.min(iterations, MAX_ITERATIONS), residual };
+}
+
+/**
+ * Moment estimate from the spread of ln s among the failures: ln s follows a
+ * Gumbel law with standard deviation pi / (m sqrt 6), so m0 = 1.2825 / sd.
+ */
+function startingModulus(logX: Float64Array, censored: Uint8Array, failures: number): number {
+  let mean = 0;
+  for (let i = 0; i < logX.length; i++) if (!censored[i]) mean += logX[i];
+  mean /= failures;
+  let ss = 0;
+  for (let i = 0; i < logX.length; i++) if (!censored[i]) ss += (logX[i] - mean) ** 2;
+  const sd = Math.sqrt(ss / Math.max(failures - 1, 1));
+  const m0 = Math.PI / Math.sqrt(6) / sd;
+  return Number.isFinite(m0) && m0 > 0 ? Math.min(Math.max(m0, 1e-3), 1e6) : 1;
+}
