@@ -1,0 +1,20 @@
+import { defineConfig } from "vite";
+import { resolve } from "node:path";
+
+// The task pane and help pages; office.js and functions.json are added by scripts/build.mjs.
+export default defineConfig({
+  root: "taskpane",
+  base: "./",
+  publicDir: "assets-public",
+  build: {
+    outDir: resolve(import.meta.dirname, "dist"),
+    emptyOutDir: true,
+    target: "es2020",
+    rollupOptions: {
+      input: {
+        taskpane: resolve(import.meta.dirname, "taskpane/taskpane.html"),
+        help: resolve(import.meta.dirname, "taskpane/help.html"),
+      },
+    },
+  },
+});
