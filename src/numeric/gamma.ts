@@ -38,5 +38,7 @@ export function gamma(x: number): number {
   let series = COEFFICIENTS[0];
   for (let i = 1; i < COEFFICIENTS.length; i++) series += COEFFICIENTS[i] / (z + i);
   const t = z + G + 0.5;
-  return Math.sqrt(2 * Math.PI) * Math.pow(t, z + 0.5) * Math.exp(-t) * series;
+  // t^(z+1/2) overflows above x ~ 143 although Gamma(x) does not until 171.6: split the power.
+  const half = Math.pow(t, 0.5 * (z + 0.5));
+  return Math.sqrt(2 * Math.PI) * half * (half * Math.exp(-t)) * series;
 }

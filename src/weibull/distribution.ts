@@ -35,8 +35,10 @@ function checkParameters({ shape, scale }: WeibullParameters, sizeRatio: number)
 export function cumulativeHazard({ stress, shape, scale, sizeRatio = 1 }: AtStress): number {
   checkParameters({ shape, scale }, sizeRatio);
   require(Number.isFinite(stress) && stress >= 0, `stress must be zero or positive (got ${stress})`);
-  // Through logarithms so (s/th)^m cannot overflow before k scales it down.
   if (stress === 0) return 0;
+  const hazard = sizeRatio * Math.pow(stress / scale, shape);
+  if (hazard > 0 && Number.isFinite(hazard)) return hazard;
+  // (s/th)^m overflowed or underflowed before k could bring it back: go through logarithms.
   return Math.exp(Math.log(sizeRatio) + shape * Math.log(stress / scale));
 }
 
