@@ -59,8 +59,8 @@ function parseCalc(args: string[]): CalcOptions {
 
 export async function calc(options: CalcOptions, io: Io): Promise<FormulaResult[]> {
   if (options.out) {
-    if (!options.out.toLowerCase().endsWith(".xlsx")) throw new UsageError("--out writes an .xlsx file: give it a name ending in .xlsx");
     if (resolve(options.out) === resolve(options.file)) throw new UsageError("--out must differ from the input: brittle never writes over its input");
+    if (!options.out.toLowerCase().endsWith(".xlsx")) throw new UsageError("--out writes an .xlsx file: give it a name ending in .xlsx");
     if (existsSync(options.out) && !options.force) throw new UsageError(`${options.out} exists: choose another name or add --force`);
   }
   const workbook = await loadWorkbook(options.file);

@@ -96,7 +96,9 @@ export function createPlugin(metadata: FunctionMetadata[]) {
     proto[method] = function (this: FunctionPlugin, ast: any, state: any) {
       return this.runFunction(ast.args, state, this.metadata(engineName), (...args: unknown[]) => {
         try {
-          return toEngineValue(adapter(...args.map(fromEngineValue)));
+          // An empty argument (",,") means "not given", as a spreadsheet host passes null.
+          const plain = args.map((a, k) => (ast.args[k]?.type === "EMPTY" ? null : fromEngineValue(a)));
+          return toEngineValue(adapter(...plain));
         } catch (error) {
           if (error instanceof CellError) return error;
           return new CellError(ErrorType.VALUE, `internal error: ${String(error)}`);
@@ -140,7 +142,13 @@ export function normaliseFormula(formula: string): string {
 
 export function createEngine(sheets: Record<string, unknown[][]>, metadata: FunctionMetadata[]): HyperFormula {
   registerFunctions(metadata);
-  return HyperFormula.buildFromSheets(sheets as never, {
+  const normalised = Object.fromEntries(
+    Object.entries(sheets).map(([name, rows]) => [
+      name,
+      rows.map((row) => row.map((v) => (typeof v === "string" && v.startsWith("=") ? normaliseFormula(v) : v))),
+    ]),
+  );
+  return HyperFormula.buildFromSheets(normalised as never, {
     licenseKey: LICENSE_KEY,
     useArrayArithmetic: false,
     smartRounding: false,

@@ -1,16 +1,21 @@
 /**
  * Every cell function the add-in registers, by the name users type after
- * "BRITTLE.". Each family file exports only adapters; add a family with one
- * import and one spread. Hosts register `guarded`, never the raw adapters.
+ * "BRITTLE.", grouped in families as the README lists them. Each family file
+ * exports only adapters; add a family with one import and one entry below.
+ * Hosts register `guarded`, never the raw adapters.
  */
 import { guard, type CellResult } from "./cells";
 import * as strength from "./strength";
+import * as time from "./time";
 
 type Adapter = (...args: any[]) => unknown;
 
-export const adapters: Record<string, Adapter> = {
-  ...strength,
-};
+export const families: { title: string; adapters: Record<string, Adapter> }[] = [
+  { title: "Fitting strength data and designing with the fit", adapters: strength },
+  { title: "Slow crack growth, lifetime and proof testing", adapters: time },
+];
+
+export const adapters: Record<string, Adapter> = Object.assign({}, ...families.map((f) => f.adapters));
 
 export const guarded: Record<string, (...args: any[]) => CellResult> = Object.fromEntries(
   Object.entries(adapters).map(([name, fn]) => [name, guard(fn)]),

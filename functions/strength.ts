@@ -34,7 +34,7 @@ function fitCells(strengths: unknown, censored: unknown, method: unknown) {
 /**
  * Weibull modulus m of a set of fracture strengths. Default: maximum likelihood with the unbiasing factor of
  * ASTM C1239 / ISO 20501 (see README for its definition). Blank cells and zeros are skipped.
- * Example: =BRITTLE.MODULUS(B2:B31) returns about 10 for a typical alumina bend-test series.
+ * Example: =BRITTLE.MODULUS(B2:B31) gives the modulus of the bend strengths in B2:B31.
  * @customfunction
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
  * @param [censored] Optional flags, same shape as strengths: TRUE or 1 where the specimen did not fail from the population being fitted (censored), FALSE, 0 or blank where it did.
