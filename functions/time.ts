@@ -155,7 +155,8 @@ export function SCGSTATICNBOUNDS(stresses: any[][], lifetimes: any[][], confiden
  * Constant stress that a part can carry for a lifetime with the same failure probability as a strength measured at
  * a constant stress rate: strength * (strength / ((n+1) * stressRate * lifetime))^(1/n). Feed it a design strength
  * at the test rate (DESIGNSTRESS on a fit of rate tests in the service environment) to get a lifetime design stress.
- * Assumes the crack grows well beyond its initial size (the usual closed form).
+ * Assumes the crack grows well beyond its initial size (the usual closed form). n must come from tests in the service
+ * environment and temperature; extrapolating far beyond the test times is the user's judgement.
  * Example: =BRITTLE.LIFETIMESTRESS(300, 10, 20, 3.15E8) is about 114.8.
  * @customfunction
  * @param strength Strength at the test stress rate (stress unit, > 0).
@@ -238,6 +239,7 @@ export function SCGBFROMFIT(D: number, n: number, inertStrength: number, test?: 
  * probability, from the inert-strength Weibull parameters and the crack-growth n and B. Solves
  * B s^(n-2) + lifetime s^n = B si^(n-2), si the inert design strength (DESIGNSTRESS). For Weibull parameters measured
  * at a stress rate in the service environment use LIFETIMESTRESS(DESIGNSTRESS(...), rate, n, lifetime) instead.
+ * Power-law crack growth only: not for R-curve materials; n and B must match the service environment.
  * Example: =BRITTLE.LIFEDESIGNSTRESS(0.9999, 3.15E8, 10, 450, 20, 2, 25) is about 31.06.
  * @customfunction
  * @param survival Required survival probability over the lifetime, strictly between 0 and 1 (e.g. 0.9999).

@@ -24,6 +24,14 @@
  * relations here, which need no B, use that approximation. The relations that
  * take B keep the exact form. Requires n > 2 throughout: B is undefined at
  * n = 2, and measured exponents of ceramics and glasses are well above that.
+ *
+ * Limits of the model: the power law describes one region of the v-K curve.
+ * n and A change with environment (water, humidity, temperature); an n
+ * fitted over a narrow range of rates or times may not hold far outside it:
+ * a threshold below which cracks stop growing makes long-life predictions
+ * conservative, a v-K curve that flattens at low K makes them unconservative.
+ * Materials with a rising crack-growth resistance (R-curve: Y-TZP, some
+ * silicon nitrides) do not follow it.
  */
 import { require, requirePositive } from "../errors";
 
