@@ -10,7 +10,7 @@
 import { describe, expect, it } from "vitest";
 import { InputError } from "../src/errors";
 import { fitStaticFatigue, fitStressRate } from "../src/design/crack-growth-fit";
-import { studentQuantile, studentUpperTail } from "../src/design/crack-growth-student-t";
+import { studentQuantile, studentUpperTail } from "../src/numeric/student-t";
 import fixture from "./fixtures/crack_growth.json";
 
 function relative(actual: number, expected: number): number {

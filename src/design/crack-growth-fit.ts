@@ -20,7 +20,7 @@
  */
 import { InputError, require } from "../errors";
 import { CompensatedSum } from "../numeric/sum";
-import { studentQuantile } from "./crack-growth-student-t";
+import { studentQuantile } from "../numeric/student-t";
 
 /** ASTM C1368 asks for at least four rates spanning three decades or more [memory of the standard's wording]. */
 export const MINIMUM_DECADES = 3;

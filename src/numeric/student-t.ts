@@ -9,8 +9,8 @@
  * Checked against scipy.stats.t.ppf (test/fixtures/generate_crack_growth.py).
  */
 import { require } from "../errors";
-import { logGamma } from "../numeric/gamma";
-import { bracketIncreasing, findRoot } from "../numeric/roots";
+import { logGamma } from "./gamma";
+import { bracketIncreasing, findRoot } from "./roots";
 
 /** Upper-tail probability P(T > t) for t >= 0 with `df` degrees of freedom. */
 export function studentUpperTail(t: number, df: number): number {
