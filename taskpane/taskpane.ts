@@ -1,25 +1,200 @@
 /**
  * Task pane entry. With the shared runtime this page also hosts the custom
- * functions, so it registers them first; outside a spreadsheet host
- * (a plain browser) Office.onReady resolves with host null and the page runs
- * standalone.
+ * functions, so it registers them first; outside a spreadsheet host (a plain
+ * browser) Office.onReady resolves with host null and the form runs
+ * standalone, with CSV and print exports instead of a report sheet.
  */
 import { registerInHost } from "../functions/office";
-
-const status = document.getElementById("status");
-
-function show(text: string): void {
-  if (status) status.textContent = text;
-}
+import { adapters } from "../functions/registry";
+import { runDesignCheck, type DesignCheckResult } from "./app/check";
+import { cautionsFor, generalCautions, type Caution } from "./app/cautions";
+import { DEMO_DESIGN } from "./app/demo-data";
+import { byId, FieldError, showStepError } from "./app/dom";
+import { readSelection } from "./app/host-selection";
+import type { DesignCheckInput } from "./app/inputs";
+import { renderCautions } from "./app/render-cautions";
+import { renderIncomplete, renderLegend, renderResult } from "./app/render-result";
+import { resultRows, type ResultRow } from "./app/result-table";
+import { designCheckCsv } from "./export/csv";
+import { downloadText } from "./export/download";
+import { printReport } from "./export/print";
+import { drawProbabilityPlot } from "./plot/probability-plot";
+import { plotData } from "./plot/plot-data";
+import { planReportSheet } from "./report/sheet-plan";
+import { writeReportSheet } from "./report/sheet-writer";
+import { fillStrengths, MATERIAL_FIELDS, readMaterial, setupMaterial } from "./steps/material";
+import { PART_FIELDS, readPart, setupPart } from "./steps/part";
+import { readRequirement, REQUIREMENT_FIELDS, setupRequirement } from "./steps/requirement";
+import { readSpecimen, setupSpecimen, SPECIMEN_FIELDS } from "./steps/specimen";
 
 registerInHost();
 
+interface Step {
+  name: string;
+  section: string;
+  error: string;
+  fields: string[];
+}
+const STEPS: Step[] = [
+  { name: "1, material data", section: "step-material", error: "material-error", fields: MATERIAL_FIELDS },
+  { name: "2, test specimen", section: "step-specimen", error: "specimen-error", fields: SPECIMEN_FIELDS },
+  { name: "3, part", section: "step-part", error: "part-error", fields: PART_FIELDS },
+  { name: "4, requirement", section: "step-requirement", error: "requirement-error", fields: REQUIREMENT_FIELDS },
+];
+
+/** Steps the user has typed in: only those show field errors, so an untouched form is not a wall of red. */
+const touched = new Set<string>();
+let current: { result: DesignCheckResult; rows: ResultRow[]; cautions: Caution[] } | null = null;
+
+function show(text: string): void {
+  byId("status").textContent = text;
+}
+
+function collect(): DesignCheckInput | null {
+  const readers = [readMaterial, readSpecimen, () => ({ part: readPart() }), readRequirement];
+  const parts: object[] = [];
+  let firstProblem: string | null = null;
+  STEPS.forEach((step, i) => {
+    try {
+      parts.push(readers[i]());
+      showStepError(step.error, null, step.fields);
+    } catch (error) {
+      if (!(error instanceof FieldError)) throw error;
+      showStepError(step.error, touched.has(step.section) ? error : null, step.fields);
+      firstProblem ??= `Complete step ${step.name}: ${error.message}`;
+    }
+  });
+  if (firstProblem) {
+    renderIncomplete(firstProblem);
+    return null;
+  }
+  return Object.assign({}, ...parts) as DesignCheckInput;
+}
+
+function update(): void {
+  current = null;
+  setActions(false);
+  const input = collect();
+  if (!input) {
+    renderCautions(generalCautions());
+    return;
+  }
+  let result: DesignCheckResult;
+  try {
+    result = runDesignCheck(input);
+  } catch (error) {
+    renderIncomplete(`The check could not be computed: ${error instanceof Error ? error.message : String(error)}.`);
+    renderCautions(generalCautions());
+    return;
+  }
+  const rows = resultRows(result);
+  const cautions = cautionsFor(result);
+  renderResult(result, rows);
+  renderCautions(cautions);
+  const data = plotData(result);
+  drawProbabilityPlot(byId("plot"), data, input.stressUnit);
+  renderLegend(data);
+  byId("plot-figure").hidden = false;
+  current = { result, rows, cautions };
+  setActions(true);
+}
+
+function setActions(enabled: boolean): void {
+  for (const id of ["write-sheet", "export-csv", "print-report"]) byId<HTMLButtonElement>(id).disabled = !enabled;
+}
+
+let pending: ReturnType<typeof setTimeout> | undefined;
+function scheduleUpdate(): void {
+  clearTimeout(pending);
+  pending = setTimeout(update, 150);
+}
+
+function fillDemoDesign(): void {
+  const fill = (id: string, value: string) => {
+    const input = byId<HTMLInputElement>(id);
+    if (input.value.trim() === "") input.value = value;
+  };
+  fill("specimen-size", DEMO_DESIGN.specimenSize);
+  fill("part-size", DEMO_DESIGN.partSize);
+  fill("applied-stress", DEMO_DESIGN.appliedStress);
+  fill("survival", DEMO_DESIGN.survival);
+  fill("lot-size", DEMO_DESIGN.lotSize);
+}
+
+function info(text: string): void {
+  byId("action-info").textContent = text;
+}
+
+function wireForm(): void {
+  setupMaterial(scheduleUpdate);
+  setupSpecimen(scheduleUpdate);
+  setupPart();
+  setupRequirement(scheduleUpdate);
+  const form = byId<HTMLFormElement>("check-form");
+  form.addEventListener("input", (event) => {
+    const section = (event.target as HTMLElement).closest("section.step");
+    if (section) touched.add(section.id);
+    scheduleUpdate();
+  });
+  form.addEventListener("submit", (event) => event.preventDefault());
+  byId("load-demo").addEventListener("click", fillDemoDesign);
+
+  byId("export-csv").addEventListener("click", () => {
+    if (!current) return;
+    downloadText("design-check.csv", designCheckCsv(current.result, current.rows, current.cautions), "text/csv;charset=utf-8");
+    info("CSV saved as design-check.csv.");
+  });
+  byId("print-report").addEventListener("click", () => {
+    if (current) printReport(current.result);
+  });
+  renderCautions(generalCautions());
+  update();
+}
+
+function wireHost(): void {
+  const useSelection = byId<HTMLButtonElement>("use-selection");
+  const writeSheet = byId<HTMLButtonElement>("write-sheet");
+  useSelection.hidden = false;
+  writeSheet.hidden = false;
+  useSelection.addEventListener("click", async () => {
+    try {
+      const selection = await Excel.run((context) => readSelection(context));
+      fillStrengths(selection.text, selection.source);
+      byId("selection-info").textContent = selection.description;
+      touched.add("step-material");
+      update();
+    } catch (error) {
+      byId("selection-info").textContent = `Could not read the selection: ${error instanceof Error ? error.message : String(error)}`;
+    }
+  });
+  writeSheet.addEventListener("click", async () => {
+    if (!current) return;
+    const plan = planReportSheet(current.result, { functions: new Set(Object.keys(adapters)), cautions: current.cautions, written: new Date() });
+    writeSheet.disabled = true;
+    try {
+      const { sheetName } = await Excel.run((context) => writeReportSheet(context, plan));
+      info(`Written to the new sheet "${sheetName}"; its results recompute with the data.`);
+    } catch (error) {
+      info(`Nothing was written: ${error instanceof Error ? error.message : String(error)}`);
+    } finally {
+      writeSheet.disabled = current === null;
+    }
+  });
+}
+
+wireForm();
+
 if (typeof Office !== "undefined") {
-  Office.onReady((info) => {
-    show(info.host ? `Ready in ${String(info.host)}: BRITTLE functions are registered.` : "Ready (standalone: no spreadsheet host).");
+  Office.onReady((hostInfo) => {
+    if (hostInfo.host === Office.HostType.Excel) {
+      wireHost();
+      show("Ready in the spreadsheet: BRITTLE functions are registered.");
+    } else {
+      show("Standalone: paste data, then export the check as CSV or print it.");
+    }
     document.body.dataset.ready = "true";
   });
 } else {
-  show("Ready (standalone: office.js not loaded).");
+  show("Standalone (office.js not loaded): paste data, then export the check as CSV or print it.");
   document.body.dataset.ready = "true";
 }

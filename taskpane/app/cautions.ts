@@ -1,0 +1,192 @@
+/**
+ * The caution notes shown next to the result (METHODS.md section 7), with
+ * stronger wording where this check gives reason: a poor fit, a small
+ * sample, a long extrapolation below the data or across sizes, or no
+ * confidence bound to design on.
+ *
+ * Thresholds are judgement, stated so a reviewer can disagree with them:
+ * at least 30 specimens is what ASTM C1239 recommends for design data
+ * (from memory); fewer than 10 gives a modulus uncertain by tens of percent;
+ * an observed significance level below 0.05 rejects the fit at the 5 % level;
+ * one decade of extrapolation is ordinary in design, three or more is far
+ * beyond anything the data show (common practice, no source).
+ */
+import type { DesignCheckResult } from "./check";
+
+export type CautionLevel = "note" | "warning";
+
+export interface Caution {
+  id: string;
+  level: CautionLevel;
+  text: string;
+}
+
+export const SMALL_SAMPLE = 10;
+export const RECOMMENDED_SAMPLE = 30;
+export const POOR_FIT_SIGNIFICANCE = 0.05;
+export const FAR_EXTRAPOLATION_DECADES = 3;
+export const LARGE_SIZE_RATIO = 1000;
+
+export function cautionsFor(result: DesignCheckResult): Caution[] {
+  const out: Caution[] = [];
+  const n = result.parameters.failures ?? result.parameters.specimens;
+  const typed = result.input.material.kind === "typed";
+
+  // Extrapolation below the data.
+  const decades = result.extrapolationDecades;
+  if (decades !== null && decades >= FAR_EXTRAPOLATION_DECADES) {
+    out.push({
+      id: "extrapolation",
+      level: "warning",
+      text:
+        `The design point lies about ${decades.toFixed(1)} decades of probability below the weakest tested specimen: ` +
+        "the straight Weibull line is trusted far outside the data. A second, rarer flaw population would not show " +
+        "in this sample. Design on the lower confidence bound and confirm fracture origins by fractography (ASTM C1322).",
+    });
+  } else {
+    out.push({
+      id: "extrapolation",
+      level: "note",
+      text:
+        (decades !== null && decades > 0
+          ? `The design point lies about ${decades.toFixed(1)} decades of probability below the weakest tested specimen. `
+          : "") +
+        "Low failure probabilities rest on one flaw population holding below the tested range; design on the lower " +
+        "confidence bound and confirm fracture origins by fractography (ASTM C1322).",
+    });
+  }
+
+  // Sample size.
+  if (typed) {
+    out.push({
+      id: "sample",
+      level: "warning",
+      text:
+        "The Weibull parameters were typed: the check cannot judge how many specimens they rest on, how well they fit, " +
+        "or how uncertain they are. Use the test results where you have them.",
+    });
+  } else if (n !== undefined && n < SMALL_SAMPLE) {
+    out.push({
+      id: "sample",
+      level: "warning",
+      text:
+        `Only ${n} failures: the modulus is uncertain by tens of percent and the allowable stress at low failure ` +
+        `probability even more. Test at least ${RECOMMENDED_SAMPLE} specimens for design data.`,
+    });
+  } else if (n !== undefined && n < RECOMMENDED_SAMPLE) {
+    out.push({
+      id: "sample",
+      level: "note",
+      text: `${n} failures: fewer than the ${RECOMMENDED_SAMPLE} usually asked for design data (ASTM C1239).`,
+    });
+  }
+
+  // Fit quality.
+  if (result.fitQuality && result.fitQuality.significance < POOR_FIT_SIGNIFICANCE) {
+    out.push({
+      id: "fit",
+      level: "warning",
+      text:
+        `The data do not fit one Weibull distribution well (Anderson-Darling A* ${result.fitQuality.statistic.toFixed(3)}, ` +
+        `observed significance ${result.fitQuality.significance.toPrecision(2)}). Look for a bend in the plot (two flaw ` +
+        "populations) or an outlying low value, and sort the fracture origins before designing on this fit.",
+    });
+  } else if (result.fitQualityMissing) {
+    out.push({
+      id: "fit",
+      level: "note",
+      text:
+        "Goodness of fit is not tested in this build: check the plot for a bend (two flaw populations) or an outlying " +
+        "low value before relying on the fit.",
+    });
+  }
+  if (!result.parameters.converged) {
+    out.push({ id: "converged", level: "warning", text: "The fit did not converge: do not use these numbers." });
+  }
+
+  // No bound to design on.
+  if (!result.allowableLower) {
+    out.push({
+      id: "bound",
+      level: "warning",
+      text:
+        "No lower confidence bound is given (" +
+        (result.allowableLowerMissing ?? "not available") +
+        "). The verdict uses the point estimate, which makes no allowance for the scatter of a finite sample of specimens.",
+    });
+  }
+
+  // Size scaling.
+  const k = result.sizeRatio.value;
+  out.push({
+    id: "size",
+    level: k >= LARGE_SIZE_RATIO || k <= 1 / LARGE_SIZE_RATIO ? "warning" : "note",
+    text:
+      (k >= LARGE_SIZE_RATIO || k <= 1 / LARGE_SIZE_RATIO
+        ? `The part is ${k >= 1 ? "larger" : "smaller"} than the specimens by a factor of ${formatRatio(k)}: size scaling over this range is rarely verified. `
+        : "") +
+      `Size scaling assumes the same ${result.input.flaws} flaw population, surface finish, machining and environment in ` +
+      "specimen and part; the multiaxial criterion alone changes biaxial predictions by roughly 7-16 % at m = 10.",
+  });
+
+  if ((result.censoredStrengths.length ?? 0) > 0) {
+    out.push({
+      id: "censored",
+      level: "note",
+      text:
+        `${result.censoredStrengths.length} specimen(s) are censored (another flaw population): the fit describes one ` +
+        "population only; the part fails from either, so check the other population's risk too.",
+    });
+  }
+
+  out.push({
+    id: "environment",
+    level: "note",
+    text:
+      "Moisture, temperature and sustained or cyclic load lower strength over time (slow crack growth); this check is " +
+      "for inert, short-term strength unless the lifetime step was used. R-curve materials (Y-TZP, some silicon " +
+      "nitrides) fall outside ASTM C1683.",
+  });
+  out.push({
+    id: "codes",
+    level: "note",
+    text:
+      "This result supports, and does not replace, the judgement of a licensed engineer under the codes that govern the " +
+      "application (for example ASTM E1300 or EN 16612 for structural glass, ISO 6872 for dental ceramics, ISO 6474 and " +
+      "ISO 13356 for implant ceramics).",
+  });
+  return out;
+}
+
+function formatRatio(k: number): string {
+  const r = k >= 1 ? k : 1 / k;
+  return Number(r.toPrecision(3)).toLocaleString("en-US");
+}
+
+/** The notes that hold for any result, shown before the form is complete. */
+export function generalCautions(): Caution[] {
+  return [
+    {
+      id: "extrapolation",
+      level: "note",
+      text:
+        "Allowable stresses at low failure probabilities extrapolate below the tested data; design on a lower " +
+        "confidence bound and confirm fracture origins by fractography (ASTM C1322).",
+    },
+    {
+      id: "size",
+      level: "note",
+      text: "Size scaling assumes one flaw population, with the same surface finish and environment in specimen and part.",
+    },
+    {
+      id: "environment",
+      level: "note",
+      text: "Moisture, temperature and sustained load lower strength over time (slow crack growth).",
+    },
+    {
+      id: "codes",
+      level: "note",
+      text: "Results support, and do not replace, the judgement of a licensed engineer under the codes that govern the application.",
+    },
+  ];
+}

@@ -1,0 +1,242 @@
+/**
+ * The design check: from the form's inputs to every number the result step
+ * shows, each with the method and assumptions that produced it. All
+ * mathematics is the core's; this file only chains the calls and records
+ * what each answer rests on.
+ */
+import { expectedFailures, failuresUpperBound } from "../../src/design/lot-failures";
+import {
+  designStress,
+  failureProbability,
+  meanStrength,
+  strengthAtFailureProbability,
+} from "../../src/weibull/distribution";
+import { estimateWeibull } from "../../src/weibull/estimate";
+import { plottingPositions, type PlotPoint } from "../../src/weibull/plotting-positions";
+import type { StrengthSample } from "../../src/weibull/sample";
+import { METHOD_LABELS, type DesignCheckInput } from "./inputs";
+import { MISSING, optionalCore, type FitQuality } from "./optional-core";
+
+export interface FittedParameters {
+  shape: number;
+  scale: number;
+  mean: number;
+  /** Where the parameters came from, in words. */
+  basis: string;
+  specimens?: number;
+  failures?: number;
+  converged: boolean;
+}
+
+export interface ResultLine {
+  value: number;
+  basis: string;
+}
+
+export interface DesignCheckResult {
+  input: DesignCheckInput;
+  sample: StrengthSample | null;
+  parameters: FittedParameters;
+  sizeRatio: ResultLine;
+  /** Failure probability the requirement allows for one part. */
+  targetFailureProbability: ResultLine;
+  allowablePoint: ResultLine;
+  /** Null when the build has no confidence bounds or the parameters were typed. */
+  allowableLower: ResultLine | null;
+  allowableLowerMissing?: string;
+  failureProbabilityAtApplied: ResultLine;
+  expectedFailures: ResultLine;
+  failuresUpperBound: ResultLine;
+  /** Allowable stress (on the verdict's basis) divided by the applied stress. */
+  margin: ResultLine;
+  verdict: { pass: boolean; onLowerBound: boolean; text: string };
+  fitQuality: FitQuality | null;
+  fitQualityMissing?: string;
+  /** Failure probabilities of the plotted failures (specimen size). */
+  points: PlotPoint[];
+  censoredStrengths: number[];
+  /**
+   * How many decades the design point lies below the lowest plotted failure,
+   * compared at specimen size; null when there are no data.
+   */
+  extrapolationDecades: number | null;
+}
+
+export function runDesignCheck(input: DesignCheckInput): DesignCheckResult {
+  const { material } = input;
+  const sample: StrengthSample | null =
+    material.kind === "data" ? { strengths: material.strengths, censored: material.censored } : null;
+  const parameters = fitParameters(input, sample);
+  const { shape, scale } = parameters;
+
+  const sizeRatio = input.part.effectiveSize / input.specimen.effectiveSize;
+  const sizeWord = input.flaws === "volume" ? "effective volume" : "effective area";
+  const sizeBasis =
+    `part ${sizeWord} (${input.part.how}) / specimen ${sizeWord} (${input.specimen.how}); ` +
+    `assumes one ${input.flaws} flaw population, the same surface finish and environment in both (ASTM C1683)`;
+
+  const target = targetProbability(input);
+  const allowable =
+    input.requirement.kind === "survival"
+      ? designStress({ survival: input.requirement.survival, shape, scale, sizeRatio })
+      : strengthAtFailureProbability({ failureProbability: target.value, shape, scale, sizeRatio });
+  const weibullBasis = `two-parameter Weibull, ${parameters.basis}, size ratio ${fmt(sizeRatio)}`;
+
+  const lower = lowerBound(input, sample, target.value, sizeRatio);
+  const pfApplied = failureProbability({ stress: input.appliedStress, shape, scale, sizeRatio });
+  const expected = expectedFailures({ failureProbability: pfApplied, lotSize: input.lotSize });
+  const upper = failuresUpperBound({ failureProbability: pfApplied, lotSize: input.lotSize, confidence: input.confidence });
+
+  const onLowerBound = lower.line !== null;
+  const governing = lower.line ? lower.line.value : allowable;
+  const margin = governing / input.appliedStress;
+  const pass = input.appliedStress <= governing;
+
+  const points = sample ? plottingPositions(sample) : [];
+  const censoredStrengths = sample ? sample.strengths.filter((_, i) => sample.censored?.[i]) : [];
+
+  let fitQuality: FitQuality | null = null;
+  let fitQualityMissing: string | undefined;
+  if (sample && optionalCore.fitQuality) fitQuality = optionalCore.fitQuality(sample);
+  else if (sample) fitQualityMissing = MISSING.fitQuality;
+
+  return {
+    input,
+    sample,
+    parameters,
+    sizeRatio: { value: sizeRatio, basis: sizeBasis },
+    targetFailureProbability: target,
+    allowablePoint: { value: allowable, basis: `point estimate: ${weibullBasis}` },
+    allowableLower: lower.line,
+    allowableLowerMissing: lower.missing,
+    failureProbabilityAtApplied: {
+      value: pfApplied,
+      basis: `point estimate at ${fmt(input.appliedStress)} ${input.stressUnit}: ${weibullBasis}`,
+    },
+    expectedFailures: {
+      value: expected,
+      basis: `lot of ${input.lotSize} parts x failure probability at the applied stress (point estimate)`,
+    },
+    failuresUpperBound: {
+      value: upper,
+      basis:
+        `count not exceeded with ${pct(input.confidence)} probability (binomial lot of ${input.lotSize}); ` +
+        "covers lot-to-lot chance only, not the uncertainty of the fit",
+    },
+    margin: {
+      value: margin,
+      basis: `${onLowerBound ? "lower-bound" : "point-estimate"} allowable stress / applied stress`,
+    },
+    verdict: verdictLine(input, pass, onLowerBound, governing, margin),
+    fitQuality,
+    fitQualityMissing,
+    points,
+    censoredStrengths,
+    extrapolationDecades: extrapolation(points, target.value, sizeRatio),
+  };
+}
+
+function fitParameters(input: DesignCheckInput, sample: StrengthSample | null): FittedParameters {
+  const { material } = input;
+  if (material.kind === "typed") {
+    const shape = material.shape;
+    const scale = material.scale;
+    return {
+      shape,
+      scale,
+      mean: meanStrength({ shape, scale }),
+      basis: "modulus and characteristic strength as typed (no data: not re-estimated)",
+      specimens: material.specimens,
+      converged: true,
+    };
+  }
+  const fit = estimateWeibull(sample as StrengthSample, material.method);
+  const censoredCount = fit.specimens - fit.failures;
+  const counts =
+    censoredCount > 0
+      ? `${fit.failures} failures and ${censoredCount} censored of ${fit.specimens} specimens`
+      : `${fit.specimens} specimens`;
+  const unbiased = fit.unbiasingFactor !== 1 ? `, unbiasing factor ${fmt(fit.unbiasingFactor)}` : "";
+  return {
+    shape: fit.shape,
+    scale: fit.scale,
+    mean: meanStrength({ shape: fit.shape, scale: fit.scale }),
+    basis: `${METHOD_LABELS[material.method]}; ${counts}${unbiased}`,
+    specimens: fit.specimens,
+    failures: fit.failures,
+    converged: fit.converged,
+  };
+}
+
+function targetProbability(input: DesignCheckInput): ResultLine {
+  const r = input.requirement;
+  if (r.kind === "survival") {
+    return { value: 1 - r.survival, basis: `required survival ${r.survival} per part` };
+  }
+  return {
+    value: r.allowedFailures / input.lotSize,
+    basis: `${r.allowedFailures} expected failure(s) allowed in a lot of ${input.lotSize}`,
+  };
+}
+
+function lowerBound(
+  input: DesignCheckInput,
+  sample: StrengthSample | null,
+  targetPf: number,
+  sizeRatio: number,
+): { line: ResultLine | null; missing?: string } {
+  if (!sample) {
+    return { line: null, missing: "the lower confidence bound needs the test results; typed parameters carry no uncertainty" };
+  }
+  const bound = optionalCore.designStressLowerBound;
+  if (!bound) return { line: null, missing: MISSING.bounds };
+  const survival = input.requirement.kind === "survival" ? input.requirement.survival : 1 - targetPf;
+  const value = bound({ sample, survival, confidence: input.confidence, sizeRatio });
+  return {
+    line: {
+      value,
+      basis: `one-sided ${pct(input.confidence)} lower confidence bound (pivotal quantities, ASTM C1239 / ISO 20501) on the same design stress`,
+    },
+  };
+}
+
+function verdictLine(
+  input: DesignCheckInput,
+  pass: boolean,
+  onLowerBound: boolean,
+  governing: number,
+  margin: number,
+): DesignCheckResult["verdict"] {
+  const unit = input.stressUnit;
+  const applied = `${fmt(input.appliedStress)} ${unit}`;
+  const allow = `${fmt(governing)} ${unit}`;
+  const basis = onLowerBound
+    ? `the ${pct(input.confidence)} lower-bound allowable stress`
+    : "the point-estimate allowable stress (no confidence bound: not a design verdict on its own)";
+  const text = pass
+    ? `PASS: the applied stress ${applied} is at or below ${basis}, ${allow}; margin ${fmt(margin)}.`
+    : `FAIL: the applied stress ${applied} exceeds ${basis}, ${allow}; margin ${fmt(margin)}.`;
+  return { pass, onLowerBound, text };
+}
+
+/**
+ * Compare at specimen size: the design point's hazard divided by the size
+ * ratio is the specimen's, so its specimen-size failure probability sits on
+ * the fitted line, and the gap to the lowest plotted failure is what the
+ * straight line is trusted to bridge.
+ */
+function extrapolation(points: PlotPoint[], targetPf: number, sizeRatio: number): number | null {
+  if (points.length === 0) return null;
+  const lowest = points[0].failureProbability;
+  const specimenPf = -Math.expm1(Math.log1p(-targetPf) / sizeRatio);
+  return Math.log10(lowest / specimenPf);
+}
+
+/** Four significant figures for the words of a basis line. */
+export function fmt(x: number): string {
+  return Number(x.toPrecision(4)).toString();
+}
+
+export function pct(p: number): string {
+  return `${Number((p * 100).toPrecision(4))} %`;
+}

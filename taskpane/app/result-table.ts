@@ -1,0 +1,62 @@
+/**
+ * The result as labelled rows, the one list the form, the CSV export and the
+ * printable page all show, so they can never disagree. Each row carries the
+ * number, how it reads, and the method and assumptions behind it.
+ */
+import type { DesignCheckResult } from "./check";
+import { formatPercent, formatProbability, sig } from "./format";
+
+export interface ResultRow {
+  id: string;
+  label: string;
+  /** Null where the build or the inputs cannot give the number. */
+  value: number | null;
+  display: string;
+  basis: string;
+}
+
+export function resultRows(r: DesignCheckResult): ResultRow[] {
+  const u = r.input.stressUnit;
+  const stress = (x: number) => `${sig(x)} ${u}`;
+  const p = r.parameters;
+  const conf = formatPercent(r.input.confidence);
+  return [
+    { id: "modulus", label: "Weibull modulus m", value: p.shape, display: sig(p.shape), basis: p.basis },
+    {
+      id: "char-strength",
+      label: "Characteristic strength (specimen size)",
+      value: p.scale,
+      display: stress(p.scale),
+      basis: "stress at which 63.2 % of specimens fail" + (r.input.material.kind === "data" ? "; maximum-likelihood value unless least squares was chosen" : ""),
+    },
+    { id: "mean-strength", label: "Mean strength (specimen size)", value: p.mean, display: stress(p.mean), basis: "characteristic strength x Gamma(1 + 1/m)" },
+    { id: "size-ratio", label: "Size ratio, part / specimen", value: r.sizeRatio.value, display: sig(r.sizeRatio.value), basis: r.sizeRatio.basis },
+    {
+      id: "target-pf",
+      label: "Allowed failure probability per part",
+      value: r.targetFailureProbability.value,
+      display: formatProbability(r.targetFailureProbability.value),
+      basis: r.targetFailureProbability.basis,
+    },
+    { id: "allowable-point", label: "Allowable stress, point estimate", value: r.allowablePoint.value, display: stress(r.allowablePoint.value), basis: r.allowablePoint.basis },
+    r.allowableLower
+      ? { id: "allowable-lower", label: `Allowable stress, ${conf} lower bound`, value: r.allowableLower.value, display: stress(r.allowableLower.value), basis: r.allowableLower.basis }
+      : { id: "allowable-lower", label: `Allowable stress, ${conf} lower bound`, value: null, display: "not available", basis: r.allowableLowerMissing ?? "" },
+    {
+      id: "pf-applied",
+      label: "Failure probability at the applied stress",
+      value: r.failureProbabilityAtApplied.value,
+      display: formatProbability(r.failureProbabilityAtApplied.value),
+      basis: r.failureProbabilityAtApplied.basis,
+    },
+    { id: "expected-failures", label: "Expected failures per lot", value: r.expectedFailures.value, display: sig(r.expectedFailures.value, 3), basis: r.expectedFailures.basis },
+    {
+      id: "failures-bound",
+      label: `Failures per lot, ${conf} upper count`,
+      value: r.failuresUpperBound.value,
+      display: String(r.failuresUpperBound.value),
+      basis: r.failuresUpperBound.basis,
+    },
+    { id: "margin", label: "Margin (allowable / applied)", value: r.margin.value, display: sig(r.margin.value, 3), basis: r.margin.basis },
+  ];
+}

@@ -1,0 +1,288 @@
+/**
+ * The layout of the report sheet, as plain data: which cells hold inputs,
+ * which hold live BRITTLE formulas that recompute when an input or the test
+ * data change, the plot points and lines for a native scatter chart, and the
+ * cautions. The writer (sheet-writer.ts) only copies this into the workbook,
+ * so the layout can be checked without a spreadsheet.
+ *
+ * Columns A-D: label, value, unit, what the value rests on. Columns F-G: the
+ * strengths when they were pasted into the form (a selected range is referred
+ * to where it is). Columns I-L: chart data.
+ */
+import type { DesignCheckResult } from "../app/check";
+import type { Caution } from "../app/cautions";
+import { formatPercent } from "../app/format";
+import { METHOD_LABELS } from "../app/inputs";
+import { weibullY } from "../plot/plot-data";
+import { absolute, absoluteRange, rangeAddress } from "./a1";
+
+export type Cell = string | number | boolean;
+
+export type BlockStyle = "title" | "note" | "heading" | "label" | "input" | "result" | "text" | "data" | "warning";
+
+export interface Block {
+  /** A1 range on the new sheet. */
+  address: string;
+  cells: Cell[][];
+  /** True: strings starting with "=" are formulas. False: every string is text. */
+  formulas: boolean;
+  style: BlockStyle;
+  numberFormat?: string;
+}
+
+export interface ChartSeriesPlan {
+  name: string;
+  x: string;
+  y: string;
+  lines: boolean;
+}
+
+export interface ChartPlan {
+  title: string;
+  xTitle: string;
+  yTitle: string;
+  series: ChartSeriesPlan[];
+  /** Cells the chart covers. */
+  from: string;
+  to: string;
+}
+
+export interface SheetPlan {
+  baseName: string;
+  blocks: Block[];
+  chart: ChartPlan;
+  /** Where the check's main numbers live, for the test and for selecting after writing. */
+  refs: Record<string, string>;
+}
+
+const A = 0;
+const B = 1;
+const C = 2;
+const D = 3;
+const F = 5;
+const I = 8;
+
+// Number formats: four significant figures read well for stresses; probabilities in scientific notation.
+const STRESS = "0.0";
+const PROBABILITY = "0.00E+00";
+const RATIO = "0.000";
+
+export interface PlanOptions {
+  /** BRITTLE functions registered in this build. */
+  functions: ReadonlySet<string>;
+  cautions: Caution[];
+  written: Date;
+}
+
+export function planReportSheet(result: DesignCheckResult, options: PlanOptions): SheetPlan {
+  const input = result.input;
+  const blocks: Block[] = [];
+  const refs: Record<string, string> = {};
+  const put = (row: number, col: number, cells: Cell[][], style: BlockStyle, formulas = false, numberFormat?: string) =>
+    blocks.push({ address: rangeAddress(row, col, cells.length, cells[0].length), cells, formulas, style, numberFormat });
+
+  put(0, A, [["Brittle design check"]], "title");
+  put(1, A, [[
+    `Written ${options.written.toISOString().slice(0, 16).replace("T", " ")} UTC by the design-check form. ` +
+      "Column B recomputes with BRITTLE formulas: change an input (shaded) or the test data and the results follow.",
+  ]], "note");
+
+  // ---- Inputs ----
+  let row = 3;
+  put(row++, A, [["Inputs", "Value", "Unit", "Notes"]], "heading");
+  const input1 = (key: string, label: string, value: Cell, unit: string, note: string, format?: string) => {
+    put(row, A, [[label]], "label");
+    put(row, B, [[value]], "input", false, format);
+    put(row, C, [[unit, note]], "text");
+    refs[key] = absolute(row, B);
+    row++;
+  };
+  const stressUnit = safeText(input.stressUnit);
+  const sizeUnit = safeText(input.sizeUnit);
+  input1("confidence", "Confidence level", input.confidence, "", "one-sided, for the lower bound and the lot count");
+
+  // Data: pasted strengths go to F:G of this sheet; a selected range stays where it is.
+  let strengths = "";
+  let flags = "";
+  const material = input.material;
+  if (material.kind === "data") {
+    input1("method", "Estimation method", material.method, "", METHOD_LABELS[material.method]);
+    if (material.source.kind === "range") {
+      strengths = material.source.strengthsAddress;
+      flags = material.source.flagsAddress ?? "";
+      put(row++, A, [["Strength data", strengths, stressUnit, flags ? `censoring flags in ${flags}` : "no censoring flags"]], "text");
+    } else {
+      const n = material.strengths.length;
+      put(3, F, [[`Strength (${stressUnit})`, "Censored"]], "heading");
+      put(4, F, material.strengths.map((s, i) => [s, Boolean(material.censored?.[i])]), "data");
+      strengths = absoluteRange(4, F, n);
+      flags = absoluteRange(4, F + 1, n);
+      put(row++, A, [["Strength data", `${n} specimens in F5:G${4 + n}`, stressUnit, "pasted into the form; edit them there"]], "text");
+    }
+    refs.strengths = strengths;
+  } else {
+    input1("typedModulus", "Weibull modulus (typed)", material.shape, "", "typed: not estimated from data");
+    input1("typedScale", "Characteristic strength (typed)", material.scale, stressUnit, "typed: specimen size", STRESS);
+  }
+  input1("specimenSize", `Specimen effective ${input.flaws === "volume" ? "volume" : "area"}`, input.specimen.effectiveSize, sizeUnit, input.specimen.how);
+  input1("partSize", `Part effective ${input.flaws === "volume" ? "volume" : "area"}`, input.part.effectiveSize, sizeUnit, input.part.how);
+  if (input.requirement.kind === "survival") {
+    input1("survival", "Required survival per part", input.requirement.survival, "", "probability", "0.0000000");
+  } else {
+    input1("allowedFailures", "Expected failures allowed per lot", input.requirement.allowedFailures, "", "");
+  }
+  input1("applied", "Applied peak stress", input.appliedStress, stressUnit, "");
+  input1("lotSize", "Parts per lot", input.lotSize, "", "");
+
+  // ---- Results ----
+  row++;
+  put(row++, A, [["Results", "Value", "Unit", "Method and assumptions"]], "heading");
+  const result1 = (key: string, label: string, formula: string, unit: string, note: string, format?: string) => {
+    put(row, A, [[label]], "label");
+    put(row, B, [[formula]], "result", true, format);
+    put(row, C, [[unit, note]], "text");
+    refs[key] = absolute(row, B);
+    row++;
+  };
+  const args = material.kind === "data" ? `${strengths},${flags},${refs.method}` : "";
+  if (material.kind === "data") {
+    result1("modulus", "Weibull modulus m", `=BRITTLE.MODULUS(${args})`, "", result.parameters.basis, RATIO);
+    result1("scale", "Characteristic strength", `=BRITTLE.CHARSTRENGTH(${args})`, stressUnit, "specimen size", STRESS);
+  } else {
+    result1("modulus", "Weibull modulus m", `=${refs.typedModulus}`, "", "typed", RATIO);
+    result1("scale", "Characteristic strength", `=${refs.typedScale}`, stressUnit, "typed, specimen size", STRESS);
+  }
+  const m = refs.modulus;
+  const th = refs.scale;
+  result1("mean", "Mean strength", `=BRITTLE.MEANSTRENGTH(${m},${th})`, stressUnit, "specimen size", STRESS);
+  result1("sizeRatio", "Size ratio, part / specimen", `=${refs.partSize}/${refs.specimenSize}`, "", result.sizeRatio.basis, RATIO);
+  if (input.requirement.kind === "survival") {
+    result1("targetPf", "Allowed failure probability per part", `=1-${refs.survival}`, "", "1 - required survival", PROBABILITY);
+    refs.survivalUsed = refs.survival;
+  } else {
+    result1("targetPf", "Allowed failure probability per part", `=${refs.allowedFailures}/${refs.lotSize}`, "", "failures allowed / parts per lot", PROBABILITY);
+    result1("survivalUsed", "Required survival per part", `=1-${refs.targetPf}`, "", "from the failures allowed per lot", "0.0000000");
+  }
+  const k = refs.sizeRatio;
+  result1("allowablePoint", "Allowable stress, point estimate", `=BRITTLE.DESIGNSTRESS(${refs.survivalUsed},${m},${th},${k})`, stressUnit, "two-parameter Weibull, size-scaled", STRESS);
+
+  const conf = formatPercent(input.confidence);
+  const boundsFormula = options.functions.has("DESIGNSTRESSBOUND") && material.kind === "data";
+  if (boundsFormula) {
+    result1(
+      "allowableLower",
+      `Allowable stress, ${conf} lower bound`,
+      `=BRITTLE.DESIGNSTRESSBOUND(${refs.survivalUsed},${strengths},${refs.confidence},${k}${flags ? `,${flags}` : ""})`,
+      stressUnit,
+      "one-sided lower confidence bound, pivotal quantities (ASTM C1239)",
+      STRESS,
+    );
+  } else {
+    put(row, A, [[`Allowable stress, ${conf} lower bound`]], "label");
+    put(row, B, [["not available"]], "text");
+    put(row, C, [["", result.allowableLowerMissing ?? ""]], "text");
+    row++;
+  }
+  const governing = refs.allowableLower ?? refs.allowablePoint;
+  result1("pfApplied", "Failure probability at the applied stress", `=BRITTLE.FAILPROB(${refs.applied},${m},${th},${k})`, "", "point estimate", PROBABILITY);
+  result1("expected", "Expected failures per lot", `=BRITTLE.LOTFAILURES(${refs.pfApplied},${refs.lotSize})`, "", "point estimate x parts per lot", "0.000");
+  result1("upperCount", `Failures per lot, ${conf} upper count`, `=BRITTLE.LOTFAILURES(${refs.pfApplied},${refs.lotSize},${refs.confidence})`, "", "binomial lot chance only, not fit uncertainty", "0");
+  result1("margin", "Margin (allowable / applied)", `=${governing}/${refs.applied}`, "", refs.allowableLower ? "on the lower-bound allowable" : "on the point estimate: no confidence bound", RATIO);
+  result1(
+    "verdict",
+    "Verdict",
+    `=IF(${refs.applied}<=${governing},"PASS","FAIL")`,
+    "",
+    refs.allowableLower
+      ? "PASS when the applied stress is at or below the lower-bound allowable stress"
+      : "PASS when the applied stress is at or below the point-estimate allowable stress (provisional: no confidence bound)",
+  );
+
+  // ---- Cautions ----
+  row++;
+  put(row++, A, [["Cautions"]], "heading");
+  for (const c of options.cautions) {
+    put(row++, A, [[c.level === "warning" ? "Warning" : "Note", c.text]], c.level === "warning" ? "warning" : "text");
+  }
+
+  const chart = planChart(result, refs, blocks, strengths, stressUnit);
+  return { baseName: "Design check", blocks, chart, refs };
+}
+
+/**
+ * Chart data in I:L: the plotted failures, two points each of the fitted line
+ * at specimen and part size (straight on these axes), and the design point.
+ * The y values are the Weibull variate ln(-ln(1 - P)), which the native chart
+ * cannot label in percent; column L gives P beside each.
+ */
+function planChart(
+  result: DesignCheckResult,
+  refs: Record<string, string>,
+  blocks: Block[],
+  strengths: string,
+  stressUnit: string,
+): ChartPlan {
+  const put = (row: number, col: number, cells: Cell[][], style: BlockStyle, formulas = false, numberFormat?: string) =>
+    blocks.push({ address: rangeAddress(row, col, cells.length, cells[0].length), cells, formulas, style, numberFormat });
+  const series: ChartSeriesPlan[] = [];
+  let row = 3;
+  put(row++, I, [["Chart data", `Stress (${stressUnit})`, "ln(-ln(1-P))", "P"]], "heading");
+
+  const points = result.points;
+  const complete = result.censoredStrengths.length === 0;
+  if (points.length > 0) {
+    const first = row;
+    if (complete && strengths) {
+      // Live: the i-th smallest positive strength and its (i - 0.5)/N position.
+      put(row, I, points.map((_, i) => {
+        const r = row + i + 1;
+        return [
+          i + 1,
+          `=SMALL(${strengths},COUNTIF(${strengths},"<=0")+I${r})`,
+          `=LN(-LN(1-L${r}))`,
+          `=(I${r}-0.5)/COUNTIF(${strengths},">0")`,
+        ];
+      }), "data", true);
+    } else {
+      // Adjusted ranks for censored specimens have no native formula: values at the time of writing.
+      put(row, I, points.map((p, i) => [i + 1, p.strength, p.y, p.failureProbability]), "data");
+    }
+    row += points.length;
+    series.push({ name: "Failures", x: absoluteRange(first, I + 1, points.length), y: absoluteRange(first, I + 2, points.length), lines: false });
+    put(row++, I, [[complete ? "plot points follow the data (specimens present when written)" : "censored sample: plot points are values at the time of writing"]], "note");
+  }
+
+  const pMin = Math.min(result.targetFailureProbability.value, points[0]?.failureProbability ?? 0.5, 0.01) / 3;
+  const yLow = weibullY(Math.max(pMin, 1e-12));
+  const yHigh = weibullY(0.999);
+  const line = (name: string, sizeRatio: string) => {
+    put(row++, I, [[name]], "label");
+    const first = row;
+    put(row, I, [yLow, yHigh].map((y, j) => {
+      const r = row + j + 1;
+      return ["", `=BRITTLE.DESIGNSTRESS(EXP(-EXP(K${r})),${refs.modulus},${refs.scale}${sizeRatio})`, y, `=1-EXP(-EXP(K${r}))`];
+    }), "data", true);
+    row += 2;
+    series.push({ name, x: absoluteRange(first, I + 1, 2), y: absoluteRange(first, I + 2, 2), lines: true });
+  };
+  line("Fitted line, specimen size", "");
+  line("Fitted line, part size", `,${refs.sizeRatio}`);
+
+  put(row++, I, [["Design point"]], "label");
+  put(row, I, [["", `=${refs.allowablePoint}`, `=LN(-LN(${refs.survivalUsed}))`, `=1-${refs.survivalUsed}`]], "data", true);
+  series.push({ name: "Design point (point estimate)", x: absolute(row, I + 1), y: absolute(row, I + 2), lines: false });
+
+  return {
+    title: "Weibull probability plot",
+    xTitle: `Stress (${stressUnit}), log scale`,
+    yTitle: "ln(-ln(1 - failure probability))",
+    series,
+    from: `N4`,
+    to: `U24`,
+  };
+}
+
+/** Units are free text: never let one start a formula in the sheet. */
+export function safeText(text: string): string {
+  return text.replace(/^[=+\-@\s]+/, "");
+}

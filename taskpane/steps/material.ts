@@ -1,0 +1,66 @@
+/**
+ * Step 1, material data: test results (pasted, typed, or taken from the
+ * selected range) with an estimation method, or Weibull parameters typed from
+ * a datasheet or an earlier fit; plus the stress unit and confidence level.
+ */
+import type { EstimationMethod } from "../../src/weibull/estimate";
+import { DEMO_DESCRIPTION, DEMO_TEXT } from "../app/demo-data";
+import { byId, FieldError, radioValue, readNumberField, requiredNumber } from "../app/dom";
+import type { DataSource, MaterialInput } from "../app/inputs";
+import { parsePasted, PasteError } from "../app/parse-pasted";
+
+export const MATERIAL_FIELDS = ["strengths", "typed-modulus", "typed-scale", "typed-specimens", "stress-unit"];
+
+/** The range the text box was last filled from; editing the text by hand drops it. */
+let fromRange: { text: string; source: DataSource & { kind: "range" } } | null = null;
+
+export function setupMaterial(onChange: () => void): void {
+  for (const radio of document.querySelectorAll<HTMLInputElement>('input[name="material-source"]')) {
+    radio.addEventListener("change", () => {
+      const typed = radioValue("material-source") === "typed";
+      byId("material-data").hidden = typed;
+      byId("material-typed").hidden = !typed;
+      onChange();
+    });
+  }
+  byId("load-demo").addEventListener("click", () => {
+    fillStrengths(DEMO_TEXT, null);
+    byId("selection-info").textContent = DEMO_DESCRIPTION;
+    onChange();
+  });
+}
+
+/** Put strengths into the text box; with a range, remember it so the report sheet can refer to it. */
+export function fillStrengths(text: string, source: (DataSource & { kind: "range" }) | null): void {
+  byId<HTMLTextAreaElement>("strengths").value = text;
+  fromRange = source ? { text, source } : null;
+}
+
+export function readMaterial(): { material: MaterialInput; stressUnit: string; confidence: number } {
+  const stressUnit = byId<HTMLInputElement>("stress-unit").value.trim();
+  if (stressUnit === "") throw new FieldError("stress-unit", "Enter the stress unit (for example MPa).");
+  const confidence = Number(byId<HTMLSelectElement>("confidence").value);
+
+  if (radioValue("material-source") === "typed") {
+    const shape = requiredNumber("typed-modulus", "Weibull modulus", { positive: true });
+    const scale = requiredNumber("typed-scale", "characteristic strength", { positive: true });
+    const specimens = readNumberField("typed-specimens", "number of specimens", { positive: true, integer: true, optional: true });
+    return { material: { kind: "typed", shape, scale, specimens }, stressUnit, confidence };
+  }
+
+  const text = byId<HTMLTextAreaElement>("strengths").value;
+  let parsed;
+  try {
+    parsed = parsePasted(text);
+  } catch (error) {
+    if (error instanceof PasteError) throw new FieldError("strengths", error.message);
+    throw error;
+  }
+  const method = byId<HTMLSelectElement>("method").value as EstimationMethod;
+  const source: DataSource = fromRange && fromRange.text === text ? fromRange.source : { kind: "pasted" };
+  return {
+    material: { kind: "data", strengths: parsed.strengths, censored: parsed.censored, method, source },
+    stressUnit,
+    confidence,
+  };
+}

@@ -1,0 +1,383 @@
+/**
+ * The design-check form in a real headless Chromium (Debian's package),
+ * standalone (no spreadsheet host): the test builds the task pane into a
+ * temporary folder, serves it on a loopback port, fills the form as a user
+ * would, and checks what the page shows against the core called here in the
+ * test (the core is the reference for the form: the form must show exactly
+ * what the core computes; the core itself is tested against mpmath/scipy
+ * fixtures elsewhere). The design stress is also checked against the closed
+ * form sigma_theta (-ln S / k)^(1/m) (METHODS.md section 1).
+ *
+ * Screenshots go to test-artifacts/ (gitignored) for a person to look at.
+ */
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { createServer, type Server } from "node:http";
+import { cp, mkdtemp, mkdir, readFile, rm } from "node:fs/promises";
+import { existsSync, statSync, createReadStream } from "node:fs";
+import { tmpdir } from "node:os";
+import { extname, join, normalize, resolve } from "node:path";
+import type { AddressInfo } from "node:net";
+import { build } from "vite";
+import { chromium, type BrowserContext, type Page } from "playwright-core";
+import { designStress, failureProbability, strengthAtFailureProbability, meanStrength } from "../src/weibull/distribution";
+import { estimateWeibull } from "../src/weibull/estimate";
+import { plottingPositions } from "../src/weibull/plotting-positions";
+import { expectedFailures, failuresUpperBound } from "../src/design/lot-failures";
+import { relativeError } from "./helpers";
+
+const ROOT = resolve(import.meta.dirname, "..");
+const ARTIFACTS = join(ROOT, "test-artifacts");
+const CHROMIUM = "/usr/bin/chromium";
+
+// Invented test data (no real material): 15 strengths in MPa.
+const STRENGTHS = [412.5, 398.1, 455.0, 430.2, 377.9, 441.7, 405.3, 468.4, 421.0, 389.6, 436.8, 447.2, 415.9, 401.4, 459.3];
+
+let outDir = "";
+let profileDir = "";
+let server: Server;
+let baseUrl = "";
+let context: BrowserContext;
+
+const TYPES: Record<string, string> = {
+  ".html": "text/html; charset=utf-8",
+  ".js": "text/javascript; charset=utf-8",
+  ".css": "text/css; charset=utf-8",
+  ".json": "application/json; charset=utf-8",
+  ".png": "image/png",
+  ".svg": "image/svg+xml",
+};
+
+beforeAll(async () => {
+  outDir = await mkdtemp(join(tmpdir(), "brittle-pane-"));
+  profileDir = await mkdtemp(join(tmpdir(), "brittle-profile-"));
+  await mkdir(ARTIFACTS, { recursive: true });
+  await build({ configFile: join(ROOT, "vite.config.ts"), logLevel: "silent", build: { outDir, emptyOutDir: true } });
+  await cp(join(ROOT, "node_modules/@microsoft/office-js/dist"), join(outDir, "office-js"), { recursive: true });
+
+  server = createServer((req, res) => {
+    const path = decodeURIComponent(new URL(req.url ?? "/", "http://127.0.0.1").pathname);
+    const file = normalize(join(outDir, path));
+    if (!file.startsWith(outDir) || !existsSync(file) || !statSync(file).isFile()) {
+      res.writeHead(404).end("not found");
+      return;
+    }
+    res.writeHead(200, { "content-type": TYPES[extname(file)] ?? "application/octet-stream" });
+    createReadStream(file).pipe(res);
+  });
+  await new Promise<void>((done) => server.listen(0, "127.0.0.1", done));
+  baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
+
+  context = await chromium.launchPersistentContext(profileDir, {
+    executablePath: CHROMIUM,
+    headless: true,
+    acceptDownloads: true,
+    viewport: { width: 420, height: 900 },
+    args: [
+      "--headless",
+      "--no-sandbox",
+      "--disable-gpu",
+      "--disable-quic",
+      "--no-first-run",
+      "--disable-background-networking",
+      "--disable-component-update",
+      "--disable-sync",
+    ],
+  });
+});
+
+afterAll(async () => {
+  await context?.close();
+  await new Promise<void>((done) => (server ? server.close(() => done()) : done()));
+  await rm(outDir, { recursive: true, force: true });
+  await rm(profileDir, { recursive: true, force: true });
+});
+
+interface Opened {
+  page: Page;
+  requests: string[];
+  problems: string[];
+}
+
+async function open(): Promise<Opened> {
+  const page = await context.newPage();
+  const requests: string[] = [];
+  const problems: string[] = [];
+  page.on("request", (r) => requests.push(r.url()));
+  page.on("console", (m) => {
+    // Outside a host, office.js tries to frame its telemetry page and set an inline style; the page's
+    // content security policy blocks both, and says so on the console. Those blocks are the policy
+    // working (checked below: no request leaves the origin); any other console error is a problem.
+    if (m.type() === "error" && !/violates the following Content Security Policy directive/.test(m.text())) problems.push(m.text());
+  });
+  page.on("pageerror", (e) => problems.push(String(e)));
+  await page.goto(`${baseUrl}/taskpane.html`);
+  await page.waitForSelector("body[data-ready=true]");
+  return { page, requests, problems };
+}
+
+/** The full-precision number the page keeps next to a result row. */
+async function rowValue(page: Page, id: string): Promise<number> {
+  const text = await page.getAttribute(`dd[data-row="${id}"]`, "data-value");
+  expect(text, `row ${id}`).not.toBeNull();
+  expect(text, `row ${id}`).not.toBe("");
+  return Number(text);
+}
+
+async function waitForVerdict(page: Page): Promise<string> {
+  await page.waitForSelector("#verdict[data-verdict]", { timeout: 10_000 });
+  return (await page.textContent("#verdict")) ?? "";
+}
+
+async function fillDesign(page: Page, values: { specimen: string; part: string; applied: string; survival?: string; lot?: string }) {
+  await page.fill("#specimen-size", values.specimen);
+  await page.fill("#part-size", values.part);
+  if (values.survival) await page.fill("#survival", values.survival);
+  if (values.lot) await page.fill("#lot-size", values.lot);
+  await page.fill("#applied-stress", values.applied);
+}
+
+describe("design-check form in headless Chromium, standalone", () => {
+  it("fits pasted data and shows the core's numbers, with a plot and cautions", async () => {
+    const { page, requests, problems } = await open();
+    expect(await page.textContent("#status")).toMatch(/Standalone/);
+    // The host-only buttons stay hidden outside a spreadsheet.
+    expect(await page.isHidden("#use-selection")).toBe(true);
+    expect(await page.isHidden("#write-sheet")).toBe(true);
+
+    await page.fill("#strengths", STRENGTHS.join("\n"));
+    await page.selectOption("#method", "MLE-RAW");
+    await fillDesign(page, { specimen: "12.5", part: "800", applied: "180", survival: "0.9999", lot: "5000" });
+    const verdict = await waitForVerdict(page);
+
+    // Reference: the core, called here with the same inputs.
+    const fit = estimateWeibull({ strengths: STRENGTHS }, "MLE-RAW");
+    const k = 800 / 12.5;
+    const allowable = designStress({ survival: 0.9999, shape: fit.shape, scale: fit.scale, sizeRatio: k });
+    const pf = failureProbability({ stress: 180, shape: fit.shape, scale: fit.scale, sizeRatio: k });
+    const expected = {
+      modulus: fit.shape,
+      "char-strength": fit.scale,
+      "mean-strength": meanStrength(fit),
+      "size-ratio": k,
+      "allowable-point": allowable,
+      "pf-applied": pf,
+      "expected-failures": expectedFailures({ failureProbability: pf, lotSize: 5000 }),
+      "failures-bound": failuresUpperBound({ failureProbability: pf, lotSize: 5000, confidence: 0.9 }),
+      margin: allowable / 180,
+    };
+    for (const [id, value] of Object.entries(expected)) {
+      expect(relativeError(await rowValue(page, id), value), id).toBeLessThan(1e-14);
+    }
+    // Closed form, METHODS.md section 1: s = sigma_theta (-ln S / k)^(1/m).
+    const closedForm = fit.scale * Math.pow(-Math.log(0.9999) / k, 1 / fit.shape);
+    expect(relativeError(await rowValue(page, "allowable-point"), closedForm)).toBeLessThan(1e-12);
+
+    // The verdict says pass or fail in words, and on which basis.
+    expect(verdict).toMatch(allowable >= 180 ? /^PASS/ : /^FAIL/);
+    const lowerRow = await page.textContent('dd[data-row="allowable-lower"]');
+    expect(lowerRow).toBeTruthy();
+
+    // Each result says what produced it.
+    expect(await page.textContent('dd[data-row="modulus"] .basis')).toMatch(/maximum likelihood \(modulus as solved, not unbiased\); 15 specimens/);
+    expect(await page.textContent('dd[data-row="size-ratio"] .basis')).toMatch(/one volume flaw population/);
+
+    // The plot: one point per failure, axes labelled in percent and in the stress unit.
+    expect(await page.locator("svg.probability-plot .failures circle").count()).toBe(STRENGTHS.length);
+    const axisText = await page.locator("svg.probability-plot").textContent();
+    expect(axisText).toMatch(/Stress \(MPa, log scale\)/);
+    expect(axisText).toMatch(/Failure probability \(Weibull scale\)/);
+    expect(axisText).toMatch(/63\.2 %/);
+    expect(axisText).toMatch(/0\.01 %/);
+    expect(await page.locator("svg.probability-plot .design-point").count()).toBe(1);
+    expect(await page.locator("svg.probability-plot .fit-line").count()).toBe(1);
+    expect(await page.locator("svg.probability-plot .part-line").count()).toBe(1);
+    // Plotted point heights: the core's plotting positions on the plot's Weibull axis.
+    const cy = await page.locator("svg.probability-plot .failures circle").evaluateAll((cs) => cs.map((c) => Number(c.getAttribute("cy"))));
+    const positions = plottingPositions({ strengths: STRENGTHS });
+    for (let i = 1; i < cy.length; i++) expect(cy[i]).toBeLessThan(cy[i - 1]);
+    expect(positions.length).toBe(cy.length);
+
+    // Cautions sit next to the result; a 15-specimen sample draws the sample-size note.
+    const cautions = await page.locator("#caution-list li").allTextContents();
+    expect(cautions.some((c) => /15 failures: fewer than the 30/.test(c))).toBe(true);
+    expect(cautions.some((c) => /licensed engineer/.test(c))).toBe(true);
+
+    await page.screenshot({ path: join(ARTIFACTS, "browser-design-check-standalone.png"), fullPage: true });
+
+    // Nothing but our own origin was asked for, and nothing broke the page or its CSP.
+    for (const url of requests) expect(url.startsWith(baseUrl) || url.startsWith("blob:") || url.startsWith("data:"), url).toBe(true);
+    expect(problems).toEqual([]);
+    await page.close();
+  });
+
+  it("uses the default method exactly as the core does (result or the core's own message)", async () => {
+    const { page } = await open();
+    await page.fill("#strengths", STRENGTHS.join("\n"));
+    await fillDesign(page, { specimen: "12.5", part: "12.5", applied: "250" });
+    let fit: ReturnType<typeof estimateWeibull> | null = null;
+    let message = "";
+    try {
+      fit = estimateWeibull({ strengths: STRENGTHS }, "MLE");
+    } catch (error) {
+      message = (error as Error).message;
+    }
+    if (fit) {
+      await waitForVerdict(page);
+      expect(relativeError(await rowValue(page, "modulus"), fit.shape)).toBeLessThan(1e-14);
+      expect(relativeError(await rowValue(page, "char-strength"), fit.scale)).toBeLessThan(1e-14);
+    } else {
+      await page.waitForFunction(() => document.querySelector("#verdict")?.textContent?.includes("could not be computed"));
+      expect(await page.textContent("#verdict")).toContain(message);
+    }
+    await page.close();
+  });
+
+  it("marks censored specimens from the invented demo and reports them", async () => {
+    const { page, problems } = await open();
+    await page.selectOption("#method", "MLE-RAW");
+    await page.click("#load-demo");
+    const verdict = await waitForVerdict(page);
+    expect(verdict).toMatch(/^(PASS|FAIL)/);
+    expect(await page.textContent("#selection-info")).toMatch(/Invented demo/);
+    expect(await page.locator("svg.probability-plot .censored path").count()).toBe(2);
+    expect(await page.locator("svg.probability-plot .failures circle").count()).toBe(22);
+    expect(await page.textContent('dd[data-row="modulus"] .basis')).toMatch(/; 22 failures and 2 censored of 24 specimens/);
+    const cautions = await page.locator("#caution-list li").allTextContents();
+    expect(cautions.some((c) => /2 specimen\(s\) are censored/.test(c))).toBe(true);
+    await page.screenshot({ path: join(ARTIFACTS, "browser-design-check-censored.png"), fullPage: true });
+    expect(problems).toEqual([]);
+    await page.close();
+  });
+
+  it("takes typed parameters and a failures-per-lot target, and warns more strongly", async () => {
+    const { page } = await open();
+    await page.check('input[name="material-source"][value="typed"]');
+    await page.fill("#typed-modulus", "9.5");
+    await page.fill("#typed-scale", "350");
+    await page.check('input[name="flaws"][value="surface"]');
+    await page.check('input[name="target"][value="lot"]');
+    await page.fill("#allowed-failures", "2");
+    await fillDesign(page, { specimen: "20", part: "5000", applied: "200", lot: "100000" });
+    const verdict = await waitForVerdict(page);
+
+    const k = 5000 / 20;
+    const allowable = strengthAtFailureProbability({ failureProbability: 2 / 100000, shape: 9.5, scale: 350, sizeRatio: k });
+    expect(relativeError(await rowValue(page, "allowable-point"), allowable)).toBeLessThan(1e-14);
+    expect(relativeError(await rowValue(page, "target-pf"), 2e-5)).toBeLessThan(1e-15);
+    expect(verdict).toMatch(allowable >= 200 ? /^PASS/ : /^FAIL/);
+    expect(verdict).toMatch(/not a design verdict on its own/);
+    expect(await page.textContent('dd[data-row="allowable-lower"] .value')).toBe("not available");
+    expect(await page.textContent('dd[data-row="allowable-lower"] .basis')).toMatch(/typed parameters carry no uncertainty/);
+    expect(await page.textContent("label[for=specimen-size]")).toMatch(/Effective area/);
+    const warnings = await page.locator("#caution-list li.warning").allTextContents();
+    expect(warnings.some((w) => /parameters were typed/.test(w))).toBe(true);
+    expect(warnings.some((w) => /No lower confidence bound/.test(w))).toBe(true);
+    await page.screenshot({ path: join(ARTIFACTS, "browser-design-check-typed.png"), fullPage: true });
+    await page.close();
+  });
+
+  it("says what is wrong with a field, never renders pasted markup, and exports CSV", async () => {
+    const { page } = await open();
+    await page.fill("#strengths", "410\n<b>420</b>\n430");
+    await page.waitForFunction(() => document.querySelector("#material-error")?.textContent !== "");
+    expect(await page.textContent("#material-error")).toBe('Line 2: "<b>420</b>" is not a number (use a point as the decimal separator).');
+    expect(await page.getAttribute("#strengths", "aria-invalid")).toBe("true");
+    expect(await page.locator("#material-error b, #verdict b").count()).toBe(0);
+    expect(await page.isDisabled("#export-csv")).toBe(true);
+
+    await page.fill("#strengths", STRENGTHS.join("\n"));
+    await page.selectOption("#method", "LSQ");
+    await page.fill("#stress-unit", "=MPa");
+    await fillDesign(page, { specimen: "1", part: "1", applied: "300" });
+    await waitForVerdict(page);
+    const fit = estimateWeibull({ strengths: STRENGTHS }, "LSQ");
+    expect(relativeError(await rowValue(page, "modulus"), fit.shape)).toBeLessThan(1e-14);
+
+    const [download] = await Promise.all([page.waitForEvent("download"), page.click("#export-csv")]);
+    expect(download.suggestedFilename()).toBe("design-check.csv");
+    const csv = await readFile((await download.path())!, "utf8");
+    const lines = csv.split("\r\n");
+    expect(lines[0]).toBe("Brittle design check");
+    const modulusLine = lines.find((l) => l.startsWith("Weibull modulus m,"));
+    // The page's and Node's Math.log may differ in the last bit, so compare to 1e-14 relative, not exactly.
+    expect(relativeError(Number(modulusLine!.split(",")[1]), fit.shape)).toBeLessThan(1e-14);
+    // A unit typed as "=MPa" never becomes a formula when the CSV is opened.
+    expect(csv).toContain("'=MPa");
+    expect(csv).not.toMatch(/(^|,)=MPa/m);
+    expect(lines.filter((l) => /^\d/.test(l)).length).toBe(STRENGTHS.length);
+    await page.close();
+  });
+
+  it("prints the result with the inputs and without the form", async () => {
+    const { page } = await open();
+    await page.fill("#strengths", STRENGTHS.join("\n"));
+    await page.selectOption("#method", "MLE-RAW");
+    await fillDesign(page, { specimen: "12.5", part: "800", applied: "180" });
+    await waitForVerdict(page);
+    // window.print() would block a headless page: prepare the printout as the button does, then render as print.
+    await page.evaluate(() => {
+      window.print = () => undefined;
+    });
+    await page.click("#print-report");
+    await page.emulateMedia({ media: "print" });
+    expect(await page.isVisible("#print-inputs")).toBe(true);
+    expect(await page.isHidden("#check-form")).toBe(true);
+    expect(await page.textContent("#print-footer")).toMatch(/Printed .* UTC/);
+    await page.screenshot({ path: join(ARTIFACTS, "browser-design-check-print.png"), fullPage: true });
+    const pdf = await page.pdf({ format: "A4" });
+    expect(pdf.subarray(0, 5).toString()).toBe("%PDF-");
+    await page.emulateMedia({ media: "screen" });
+    await page.close();
+  });
+
+  it("labels every control, keeps keyboard order with the steps, and meets text contrast", async () => {
+    const { page } = await open();
+    const unlabelled = await page.evaluate(() =>
+      [...document.querySelectorAll("input, select, textarea")]
+        .filter((e) => (e as HTMLInputElement).labels?.length === 0)
+        .map((e) => e.id || e.outerHTML),
+    );
+    expect(unlabelled).toEqual([]);
+
+    // Tab from the top: the visible fields come in the order of the steps.
+    await page.focus("body");
+    const order: string[] = [];
+    for (let i = 0; i < 24; i++) {
+      await page.keyboard.press("Tab");
+      order.push(await page.evaluate(() => document.activeElement?.id || (document.activeElement as HTMLInputElement)?.name || ""));
+    }
+    const want = ["strengths", "load-demo", "method", "stress-unit", "confidence", "specimen-size", "size-unit", "part-size", "survival", "applied-stress", "lot-size"];
+    const seen = want.map((id) => order.indexOf(id));
+    expect(seen.every((i) => i >= 0), order.join(" ")).toBe(true);
+    expect([...seen].sort((a, b) => a - b)).toEqual(seen);
+
+    // WCAG 2 contrast ratio of text against its background, computed from the page's styles.
+    const pairs = await page.evaluate(() => {
+      const rgb = (s: string) => (s.match(/\d+(\.\d+)?/g) ?? []).slice(0, 3).map(Number);
+      const background = (e: Element | null): string => {
+        for (let n = e; n; n = n.parentElement) {
+          const c = getComputedStyle(n).backgroundColor;
+          if (c && c !== "rgba(0, 0, 0, 0)" && c !== "transparent") return c;
+        }
+        return "rgb(255, 255, 255)";
+      };
+      return [".help", "#status", ".step-no", ".cautions li", "label", ".pending", ".verdict", "button"].map((sel) => {
+        const e = document.querySelector(sel)!;
+        return { sel, fg: rgb(getComputedStyle(e).color), bg: rgb(background(e)) };
+      });
+    });
+    const luminance = ([r, g, b]: number[]) => {
+      const f = (c: number) => {
+        const s = c / 255;
+        return s <= 0.03928 ? s / 12.92 : ((s + 0.055) / 1.055) ** 2.4;
+      };
+      return 0.2126 * f(r) + 0.7152 * f(g) + 0.0722 * f(b);
+    };
+    for (const { sel, fg, bg } of pairs) {
+      const [a, b] = [luminance(fg), luminance(bg)].sort((x, y) => y - x);
+      // WCAG 2.1 success criterion 1.4.3: at least 4.5:1 for normal text.
+      expect((a + 0.05) / (b + 0.05), sel).toBeGreaterThanOrEqual(4.5);
+    }
+    await page.close();
+  });
+});
