@@ -7,7 +7,7 @@
  * user except the stress unit, which d3 sets as text content.
  */
 import { axisBottom, axisLeft } from "d3-axis";
-import { scaleLinear, scaleLog } from "d3-scale";
+import { scaleLinear, scaleLog, type ScaleLogarithmic } from "d3-scale";
 import { select } from "d3-selection";
 import { area, line, symbol, symbolDiamond, symbolTriangle } from "d3-shape";
 import { weibullY, type PlotData, type StressProbability, type BandPoint } from "./plot-data";
@@ -60,7 +60,7 @@ export function drawProbabilityPlot(container: HTMLElement, data: PlotData, stre
   // Grid lines under everything.
   const grid = svg.append("g").attr("class", "grid").attr("aria-hidden", "true");
   grid.append("g").attr("transform", `translate(0,${HEIGHT - MARGIN.bottom})`)
-    .call(axisBottom(x).ticks(6).tickSize(-(HEIGHT - MARGIN.top - MARGIN.bottom)).tickFormat(() => ""));
+    .call(axisBottom(x).tickValues(stressTicks(x)).tickSize(-(HEIGHT - MARGIN.top - MARGIN.bottom)).tickFormat(() => ""));
   grid.append("g").attr("transform", `translate(${MARGIN.left},0)`)
     .call(axisLeft(y).tickValues(probabilityTicks).tickSize(-(WIDTH - MARGIN.left - MARGIN.right)).tickFormat(() => ""));
 
@@ -99,7 +99,7 @@ export function drawProbabilityPlot(container: HTMLElement, data: PlotData, stre
     .attr("transform", `translate(${px(data.design)},${py(data.design)})`);
 
   svg.append("g").attr("class", "axis").attr("transform", `translate(0,${HEIGHT - MARGIN.bottom})`)
-    .call(axisBottom(x).ticks(6, "~g"));
+    .call(axisBottom(x).tickValues(stressTicks(x)).tickFormat((v) => String(Number(Number(v).toPrecision(3)))));
   svg.append("g").attr("class", "axis").attr("transform", `translate(${MARGIN.left},0)`)
     .call(axisLeft(y).tickValues(probabilityTicks).tickFormat((v) => percentLabel(-Math.expm1(-Math.exp(Number(v))))));
 
@@ -113,6 +113,27 @@ export function drawProbabilityPlot(container: HTMLElement, data: PlotData, stre
 
   container.replaceChildren(svgNode);
   return svgNode;
+}
+
+/**
+ * Round stresses for a log axis: 1, 1.5, 2, 3, 4, 5, 6, 8 times a power of
+ * ten, dropping any that would sit closer than MIN_GAP pixels to the last one
+ * kept, so a narrow range still gets several labels and a wide one no clutter.
+ */
+const MANTISSAS = [1, 1.5, 2, 3, 4, 5, 6, 8];
+const MIN_GAP = 34;
+
+function stressTicks(x: ScaleLogarithmic<number, number>): number[] {
+  const [lo, hi] = x.domain();
+  const ticks: number[] = [];
+  for (let e = Math.floor(Math.log10(lo)); e <= Math.ceil(Math.log10(hi)); e++) {
+    for (const m of MANTISSAS) {
+      const v = Number((m * 10 ** e).toPrecision(3));
+      if (v < lo || v > hi) continue;
+      if (ticks.length === 0 || x(v) - x(ticks[ticks.length - 1]) >= MIN_GAP) ticks.push(v);
+    }
+  }
+  return ticks;
 }
 
 function describe(data: PlotData, unit: string): string {
