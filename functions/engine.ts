@@ -135,9 +135,22 @@ export function registerFunctions(metadata: FunctionMetadata[]): void {
   registered = true;
 }
 
-/** Saved workbooks spell add-in calls as _xldudf_BRITTLE_NAME( ; the engine reads BRITTLE.NAME( . */
+/**
+ * What a spreadsheet accepts but the engine's parser does not, rewritten
+ * outside string literals: saved add-in calls (_xldudf_BRITTLE_NAME( becomes
+ * BRITTLE.NAME( ) and an upper-case exponent in a number (3.15E8 becomes 3.15e8).
+ */
 export function normaliseFormula(formula: string): string {
-  return formula.replace(/_xldudf_BRITTLE_([A-Za-z0-9]+)\s*\(/gi, (_, name: string) => `${NAMESPACE}.${name.toUpperCase()}(`);
+  return formula
+    .split(/("(?:[^"]|"")*")/)
+    .map((part, i) =>
+      i % 2 === 1
+        ? part
+        : part
+            .replace(/_xldudf_BRITTLE_([A-Za-z0-9]+)\s*\(/gi, (_, name: string) => `${NAMESPACE}.${name.toUpperCase()}(`)
+            .replace(/(?<![A-Za-z_$\d.])(\d+\.?\d*|\.\d+)E([+-]?\d+)/g, "$1e$2"),
+    )
+    .join("");
 }
 
 export function createEngine(sheets: Record<string, unknown[][]>, metadata: FunctionMetadata[]): HyperFormula {

@@ -9,14 +9,16 @@
  * 1969, Technometrics 11:445, tabulated the same quantity; ASTM C1239 and
  * ISO 20501 reproduce their table). Our values come from a seeded Monte Carlo
  * (tools/simulate_pivotal_tables.py, committed with its output), for complete
- * samples of N = 2 .. 500; between tabulated sizes we interpolate linearly in
- * 1/N, and beyond the table we use the fitted asymptotic form 1 - a/N - b/N^2.
+ * samples of N = 3 .. 500 (for N = 2 the mean of m_hat is infinite and no
+ * factor exists); between tabulated sizes we interpolate linearly in 1/N, and
+ * beyond the table we use the fitted asymptotic form 1 - a/N - b/N^2.
  *
- * A censored sample has no table: its factor comes from a seeded simulation of
- * the same censoring pattern (see censored-simulation.ts).
+ * A censored sample has no table: its factor comes from a seeded bootstrap
+ * conditional on its own censoring values (see censored-bootstrap.ts).
  */
 import { require } from "../errors";
-import { censoredRanks, simulatePivotals } from "./censored-simulation";
+import { bootstrapCensored } from "./censored-bootstrap";
+import { fitMaximumLikelihood } from "./maximum-likelihood";
 import { pivotalTable } from "./pivotal-table";
 
 export function unbiasingFactor(specimens: number): number {
@@ -24,16 +26,26 @@ export function unbiasingFactor(specimens: number): number {
   return pivotalTable().unbiasingFactor(specimens);
 }
 
-/** Replications for a censored pattern: E[q] to about 0.1 % (sd of q is ~0.8/sqrt(r)). */
-export const CENSORED_REPLICATIONS = 20000;
+/**
+ * Bootstrap replications for a censored sample of n specimens: the spread of
+ * q_b falls like 1/sqrt(n), so fewer draws keep E[q_b] to about 0.2 % at any n
+ * while the time per recalculation stays near a quarter of a second.
+ */
+export function censoredReplications(n: number): number {
+  return Math.min(10000, Math.max(2000, Math.round(400000 / n)));
+}
 
+/**
+ * For a censored sample, 1/E[q_b] from the conditional parametric bootstrap
+ * (censored-bootstrap.ts): the factor that removes the bias of the ML modulus
+ * under this sample's own censoring.
+ */
 export function censoredUnbiasingFactor(strengths: readonly number[], censored: readonly boolean[]): number {
-  const { shapeRatio } = simulatePivotals({
-    specimens: strengths.length,
-    censoredRanks: censoredRanks(strengths, censored),
-    replications: CENSORED_REPLICATIONS,
-  });
-  require(shapeRatio.length > 0, "the censoring pattern leaves too few failures to estimate the bias");
+  const failures = censored.filter((c) => !c).length;
+  // With two failures the mean of the ML modulus is infinite, as for a complete sample of two.
+  require(failures >= 3, "no unbiasing factor exists with only 2 failures (the mean of the ML modulus is infinite): use \"MLE-RAW\"");
+  const fit = fitMaximumLikelihood({ strengths, censored });
+  const { shapeRatio } = bootstrapCensored({ strengths, censored, fit, replications: censoredReplications(strengths.length) });
   let sum = 0;
   for (const q of shapeRatio) sum += q;
   return shapeRatio.length / sum;

@@ -1,0 +1,51 @@
+// Registration in the spreadsheet host, with the host's CustomFunctions
+// object replaced by a recording stand-in: every function in functions.json
+// is associated, and a cell failure becomes the host's error object, with a
+// message only for #VALUE! and #N/A (the host drops others: common practice
+// documented in the host's custom-functions error guide).
+import { afterEach, describe, expect, it } from "vitest";
+import { generateMetadata } from "../functions/metadata";
+import { registerInHost } from "../functions/office";
+
+class HostError {
+  constructor(
+    public code: string,
+    public message?: string,
+  ) {}
+}
+
+afterEach(() => {
+  delete (globalThis as any).CustomFunctions;
+});
+
+describe("registration through the shared runtime", () => {
+  it("associates every function of functions.json, and maps failures to host errors", async () => {
+    const associated = new Map<string, (...args: unknown[]) => unknown>();
+    (globalThis as any).CustomFunctions = {
+      associate: (id: string, fn: (...args: unknown[]) => unknown) => associated.set(id, fn),
+      Error: HostError,
+      ErrorCode: { invalidValue: "#VALUE!", invalidNumber: "#NUM!", notAvailable: "#N/A" },
+    };
+    registerInHost();
+    const { functions } = await generateMetadata();
+    expect([...associated.keys()].sort()).toEqual(functions.map((f) => f.id).sort());
+
+    const failprob = associated.get("FAILPROB")!;
+    expect(failprob(200, 10, 400, null)).toBeCloseTo(-Math.expm1(-Math.pow(0.5, 10)), 15);
+    const num = failprob(200, -10, 400, null) as HostError;
+    expect(num).toBeInstanceOf(HostError);
+    expect(num.code).toBe("#NUM!");
+    expect(num.message).toBeUndefined();
+    const value = associated.get("MODULUS")!([[300], ["oops"], [320]], null, null) as HostError;
+    expect(value.code).toBe("#VALUE!");
+    expect(value.message).toMatch(/row 2/);
+    // Desktop hosts pass empty cells as 0: they are skipped, never a zero-strength specimen.
+    expect(associated.get("CHARSTRENGTH")!([[300], [0], [320], [0]], null, "MLE-RAW")).toBe(
+      associated.get("CHARSTRENGTH")!([[300], [320]], null, "MLE-RAW"),
+    );
+  });
+
+  it("does nothing outside a host", () => {
+    expect(() => registerInHost()).not.toThrow();
+  });
+});
