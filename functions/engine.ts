@@ -94,7 +94,7 @@ export function createPlugin(metadata: FunctionMetadata[]) {
       ...(spill ? { sizeOfResultArrayMethod: `size_${fn.id}` } : {}),
     };
     proto[method] = function (this: FunctionPlugin, ast: any, state: any) {
-      return this.runFunction(ast.args, state, this.metadata(engineName), (...args: unknown[]) => {
+      return this.runFunction(ast.args, state, this.metadata(engineName), ((...args: unknown[]) => {
         try {
           // An empty argument (",,") means "not given", as a spreadsheet host passes null.
           const plain = args.map((a, k) => (ast.args[k]?.type === "EMPTY" ? null : fromEngineValue(a)));
@@ -103,7 +103,7 @@ export function createPlugin(metadata: FunctionMetadata[]) {
           if (error instanceof CellError) return error;
           return new CellError(ErrorType.VALUE, `internal error: ${String(error)}`);
         }
-      });
+      }) as never);
     };
     if (spill) {
       proto[`size_${fn.id}`] = function (this: any, ast: any, state: any) {

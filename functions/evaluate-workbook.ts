@@ -87,7 +87,8 @@ export async function writeEvaluated(workbook: LoadedWorkbook, evaluation: Evalu
               for (let j = 0; j < extent.cols; j++) results[i].push(resultFor(engine.getCellValue({ sheet, row: r + i, col: c + j })) as never);
             }
             const range = `${columnName(c)}${r + 1}:${columnName(c + extent.cols - 1)}${r + extent.rows}`;
-            ws.fillFormula(range, original, results as never, "array" as never);
+            // exceljs's types omit fillFormula's fourth argument, the share type.
+            (ws.fillFormula as (...a: unknown[]) => void).call(ws, range, original, results, "array");
           } else {
             cell.value = { formula: original, result: resultFor(engine.getCellValue({ sheet, row: r, col: c })) } as never;
           }

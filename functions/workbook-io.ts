@@ -43,7 +43,7 @@ function sheetNameFor(path: string): string {
 async function loadXlsx(path: string): Promise<LoadedWorkbook> {
   const workbook = new ExcelJS.Workbook();
   try {
-    await workbook.xlsx.load(await readFile(path));
+    await workbook.xlsx.load((await readFile(path)) as never);
   } catch (error) {
     const reason = (error as NodeJS.ErrnoException).code ?? (error as Error).message ?? String(error);
     throw new WorkbookError(`cannot read ${path} as an .xlsx workbook: ${String(reason).split("\n")[0]}`);

@@ -1,0 +1,5 @@
+// jstat ships no type declarations; the tests use it only as an outside cross-check.
+declare module "jstat" {
+  const jStat: any;
+  export default jStat;
+}
