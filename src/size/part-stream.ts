@@ -21,8 +21,11 @@ import {
   CR,
   LF,
   WHITESPACE,
+  QUOTE,
   decodeAscii,
   detectDelimiter,
+  fastNumber,
+  fastStop,
   fieldEnd,
   nextFieldStart,
   parseNumber,
@@ -40,7 +43,7 @@ export interface PartStreamOptions {
   /** Material scale parameter sigma_0 (same stress unit, per size unit^(1/m)); gives the failure probability. */
   materialScale?: number;
   columns?: ColumnChoice;
-  /** "auto" (default): a first line with any non-numeric field is a header. */
+  /** "auto" (default): a first line without a single numeric field is a header. */
   header?: "auto" | "yes" | "no";
   /** Field delimiter: ",", ";", "\t", "space" (runs of blanks) or "auto" (default). */
   delimiter?: string;
@@ -159,7 +162,9 @@ export class PartTableReader {
   }
 
   /** Feeds the next chunk of bytes. */
-  push(chunk: Uint8Array): void {
+  push(bytes: Uint8Array): void {
+    // Node's Buffer is a Uint8Array subclass: a plain view keeps the byte loops monomorphic.
+    const chunk = bytes.constructor === Uint8Array ? bytes : new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength);
     let start = 0;
     if (this.carry.length > 0) {
       const nl = chunk.indexOf(LF);
@@ -190,11 +195,71 @@ export class PartTableReader {
   private lines_(buf: Uint8Array, start: number, end: number): void {
     let s = start;
     while (s < end) {
+      if (this.columns !== null && this.delimiter !== WHITESPACE) {
+        const next = this.fastRow(buf, s, end);
+        if (next >= 0) {
+          s = next;
+          continue;
+        }
+      }
       let nl = buf.indexOf(LF, s);
       if (nl < 0 || nl > end) nl = end;
       this.line(buf, s, nl);
       s = nl + 1;
     }
+  }
+
+  /**
+   * One row of plain numbers, parsed in a single pass with no line search:
+   * returns the index after its LF, or -1 to leave the line to the general
+   * path (which handles blanks, comments, quotes, text ids and errors).
+   */
+  private fastRow(buf: Uint8Array, start: number, end: number): number {
+    const delimiter = this.delimiter as number;
+    const slotOf = this.slotOf;
+    const last = this.lastField;
+    const k = this.columns!.stress.length;
+    const row = this.inBatch;
+    const raw = this.raw;
+    let i = start;
+    for (let field = 0; field <= last; field++) {
+      const slot = slotOf[field];
+      if (slot < 0) {
+        // A field we do not read: skip to its delimiter (quotes go the general way).
+        while (i < end) {
+          const b = buf[i];
+          if (b === delimiter || b === LF || b === CR) break;
+          if (b === QUOTE) return -1;
+          i++;
+        }
+      } else {
+        const v = fastNumber(buf, i, end, delimiter);
+        if (v !== v) return -1;
+        i = fastStop;
+        if (slot < k) raw[row * k + slot] = v;
+        else if (slot === k) {
+          if (!(v >= 0)) return -1;
+          this.sizes[row] = v;
+        } else {
+          if (!Number.isSafeInteger(v)) return -1;
+          this.idNumbers[row] = v;
+          if (this.idTexts) this.idTexts[row] = null;
+        }
+      }
+      if (field < last) {
+        if (i >= end || buf[i] !== delimiter) return -1;
+        i++;
+      }
+    }
+    let nl = i;
+    while (nl < end && buf[nl] !== LF) nl++;
+    if (nl >= end) return -1;
+    this.lineNumber++;
+    this.lines[row] = this.lineNumber;
+    this.rowsRead++;
+    this.inBatch++;
+    if (this.inBatch === this.batchRows) this.flush();
+    return nl + 1;
   }
 
   /** One line without its LF. */
@@ -235,8 +300,9 @@ export class PartTableReader {
     }
     this.altDecimal = this.delimiter === COMMA ? -1 : COMMA;
     const fields = splitFields(buf, start, end, this.delimiter);
-    const numeric = fields.every((f) => f === "" || Number.isFinite(Number(f.replace(",", "."))));
-    const isHeader = this.headerMode === "yes" || (this.headerMode === "auto" && !numeric);
+    // A data line has numbers in its stress and size fields; a header has none (ids may be text).
+    const anyNumber = fields.some((f) => f !== "" && Number.isFinite(Number(f.replace(",", "."))));
+    const isHeader = this.headerMode === "yes" || (this.headerMode === "auto" && !anyNumber);
     this.columns = resolveColumns(isHeader ? fields : null, fields.length, this.choice);
     const k = this.columns.stress.length;
     this.lastField = Math.max(...this.columns.stress, this.columns.size, this.columns.id);

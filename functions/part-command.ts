@@ -1,0 +1,261 @@
+/**
+ * `brittle part`: failure probability, effective size and hot spots of a part
+ * from an element table too large for a sheet, streamed in one pass.
+ *
+ *   brittle part FILE --modulus M [--scale S0] [--criterion PIA|NSA|MAXPRINCIPAL]
+ *                [--stress COLS] [--size COL] [--id COL|none]
+ *                [--header auto|yes|no] [--delimiter auto|,|;|tab|space]
+ *                [--top N] [--json] [--quiet]
+ *
+ * FILE is a delimited text table (or "-" for standard input), one element per
+ * line. Columns are found from the header names or, without a header, from
+ * the number of fields (src/size/part-columns.ts); --stress, --size and --id
+ * choose them by header name or 1-based position (--stress takes 1, 3 or 6
+ * comma-separated columns). Progress goes to stderr; results to stdout.
+ * Exit status: 0 done, 1 bad data (the message names the line), 2 bad usage.
+ */
+import { createReadStream, statSync } from "node:fs";
+import { InputError } from "../src/errors";
+import { CRITERIA, type Criterion } from "../src/size/criteria";
+import type { ColumnChoice } from "../src/size/part-columns";
+import { type PartStreamOptions, type PartStreamResult, PartTableReader } from "../src/size/part-stream";
+
+export interface PartCommandIo {
+  out: (text: string) => void;
+  err: (text: string) => void;
+  /** Whether stderr is a terminal (progress overwrites one line); defaults to process.stderr.isTTY. */
+  errIsTTY?: boolean;
+}
+
+export const PART_USAGE = `usage: brittle part FILE --modulus M [--scale S0] [--criterion PIA|NSA|MAXPRINCIPAL]
+                   [--stress COLS] [--size COL] [--id COL|none] [--header auto|yes|no]
+                   [--delimiter auto|,|;|tab|space] [--top N] [--json] [--quiet]
+FILE: a table of element stresses and sizes, one element per line ("-" reads standard input).
+  --modulus M      Weibull modulus (required)
+  --scale S0       material scale parameter for the size unit of the table: prints the failure probability
+  --criterion C    multiaxial criterion, default PIA
+  --stress COLS    stress columns by header name or 1-based position: 1 (max principal), 3 (principal)
+                   or 6 (sxx,syy,szz,sxy,syz,szx), comma-separated
+  --size COL       element volume or area column;  --id COL  element id column, or "none"
+  --header H       auto (default: a first line with no number in it is a header), yes, no
+  --delimiter D    auto (default), a character, "tab" or "space" (runs of blanks)
+  --top N          hot spots to list, default 10;  --json  machine-readable output;  --quiet  no progress`;
+
+class UsageError extends Error {}
+
+interface PartArgs {
+  file: string;
+  options: PartStreamOptions;
+  json: boolean;
+  quiet: boolean;
+}
+
+function columnList(text: string): (string | number)[] {
+  return text.split(",").map((s) => s.trim()).filter((s) => s !== "");
+}
+
+/** Parses the arguments after "part". */
+export function parsePartArgs(args: string[]): PartArgs {
+  let file: string | undefined;
+  let modulus: number | undefined;
+  let scale: number | undefined;
+  let criterion: Criterion = "PIA";
+  const columns: ColumnChoice = {};
+  let header: "auto" | "yes" | "no" = "auto";
+  let delimiter: string | undefined;
+  let top = 10;
+  let json = false;
+  let quiet = false;
+  const value = (i: number, name: string): string => {
+    const v = args[i + 1];
+    if (v === undefined || (v.startsWith("--") && v.length > 2)) throw new UsageError(`${name} needs a value`);
+    return v;
+  };
+  const positive = (text: string, name: string): number => {
+    const x = Number(text);
+    if (!(Number.isFinite(x) && x > 0)) throw new UsageError(`${name} must be a positive number (got ${text})`);
+    return x;
+  };
+  for (let i = 0; i < args.length; i++) {
+    const a = args[i];
+    switch (a) {
+      case "--modulus":
+      case "-m":
+        modulus = positive(value(i, a), "--modulus");
+        i++;
+        break;
+      case "--scale":
+        scale = positive(value(i, a), "--scale");
+        i++;
+        break;
+      case "--criterion": {
+        const c = value(i, a).toUpperCase();
+        if (!(CRITERIA as readonly string[]).includes(c)) throw new UsageError(`--criterion must be one of ${CRITERIA.join(", ")}`);
+        criterion = c as Criterion;
+        i++;
+        break;
+      }
+      case "--stress":
+        columns.stress = columnList(value(i, a));
+        i++;
+        break;
+      case "--size":
+        columns.size = value(i, a);
+        i++;
+        break;
+      case "--id": {
+        const v = value(i, a);
+        columns.id = v.toLowerCase() === "none" ? null : v;
+        i++;
+        break;
+      }
+      case "--header": {
+        const v = value(i, a).toLowerCase();
+        if (v !== "auto" && v !== "yes" && v !== "no") throw new UsageError("--header must be auto, yes or no");
+        header = v;
+        i++;
+        break;
+      }
+      case "--delimiter":
+        delimiter = value(i, a);
+        i++;
+        break;
+      case "--top": {
+        const n = Number(value(i, a));
+        if (!(Number.isInteger(n) && n >= 0 && n <= 10000)) throw new UsageError("--top must be a whole number from 0 to 10000");
+        top = n;
+        i++;
+        break;
+      }
+      case "--json":
+        json = true;
+        break;
+      case "--quiet":
+      case "-q":
+        quiet = true;
+        break;
+      default:
+        if (a.startsWith("--")) throw new UsageError(`unknown option ${a}`);
+        if (file !== undefined) throw new UsageError(`one table at a time (got ${file} and ${a})`);
+        file = a;
+    }
+  }
+  if (file === undefined) throw new UsageError("part needs a FILE");
+  if (modulus === undefined) throw new UsageError("part needs --modulus (the Weibull modulus m)");
+  return {
+    file,
+    options: { shape: modulus, materialScale: scale, criterion, columns, header, delimiter, top },
+    json,
+    quiet,
+  };
+}
+
+/**
+ * Streams a file (or standard input) through the reader. The core of the
+ * command, exported so a benchmark can time file reading plus parsing.
+ */
+export async function streamPartFile(
+  file: string,
+  options: PartStreamOptions,
+  onProgress?: (rows: number, bytes: number, totalBytes: number | null) => void,
+): Promise<PartStreamResult> {
+  const reader = new PartTableReader(options);
+  const total = file === "-" ? null : statSync(file).size;
+  const source = file === "-" ? process.stdin : createReadStream(file, { highWaterMark: 1 << 20 });
+  let bytes = 0;
+  for await (const chunk of source as AsyncIterable<Uint8Array>) {
+    reader.push(chunk);
+    bytes += chunk.length;
+    onProgress?.(reader.rows, bytes, total);
+  }
+  return reader.finish();
+}
+
+function fmt(x: number): string {
+  if (x === 0) return "0";
+  const a = Math.abs(x);
+  return a < 1e-3 || a >= 1e7 ? x.toExponential(4) : x.toPrecision(6).replace(/\.?0+$/, "");
+}
+
+function percent(x: number): string {
+  return `${(100 * x).toFixed(x >= 0.001 ? 2 : 4)} %`;
+}
+
+/** The human-readable report. */
+export function formatPartReport(file: string, r: PartStreamResult): string {
+  const kinds = { 1: "maximum principal", 3: "principal", 6: "tensor, principal stresses computed" } as const;
+  const lines: string[] = [];
+  const row = (label: string, text: string) => lines.push(`${label.padEnd(16)}${text}`);
+  row("element table", `${file}: ${r.rows} elements (${r.skippedLines} other lines skipped), delimiter "${r.delimiter}"`);
+  row(
+    "columns",
+    `stresses ${r.columns.labels.stress.join(", ")} (${kinds[r.columns.kind]}); size ${r.columns.labels.size}` +
+      (r.columns.labels.id ? `; id ${r.columns.labels.id}` : "; no id column (elements named by line)"),
+  );
+  row("criterion", `${r.criterion}, Weibull modulus ${fmt(r.shape)}`);
+  if (r.peak === 0) {
+    row("peak stress", "no element is in tension: failure probability 0, effective size undefined");
+    return lines.join("\n") + "\n";
+  }
+  const where = r.peakId !== null ? `element ${r.peakId} (line ${r.peakLine})` : `line ${r.peakLine}`;
+  row("peak stress", `${fmt(r.peak)} at ${where}`);
+  row("effective size", `${fmt(r.effectiveSize)} (unit of the size column), referenced to uniaxial tension at the peak stress`);
+  if (r.failureProbability !== null) {
+    row("failure prob.", `${fmt(r.failureProbability)} with material scale sigma_0 (risk of rupture ${fmt(r.risk as number)})`);
+  }
+  if (r.hotSpots.length > 0) {
+    lines.push(`hot spots       the ${r.hotSpots.length} elements with the largest shares of the risk:`);
+    lines.push(`  ${"rank".padStart(4)}  ${"element".padStart(12)}  ${"line".padStart(10)}  ${"share".padStart(10)}  ${"cumulative".padStart(10)}  principal stresses; size`);
+    let cumulative = 0;
+    r.hotSpots.forEach((h, k) => {
+      cumulative += h.share;
+      lines.push(
+        `  ${String(k + 1).padStart(4)}  ${(h.id ?? "-").padStart(12)}  ${String(h.line).padStart(10)}  ${percent(h.share).padStart(10)}  ` +
+          `${percent(cumulative).padStart(10)}  ${h.principal.map(fmt).join(", ")}; ${fmt(h.size)}`,
+      );
+    });
+  }
+  lines.push("caution         mesh-dependent: refine until the effective size settles; see the README's cautions on size scaling.");
+  return lines.join("\n") + "\n";
+}
+
+/** Runs `brittle part ARGS`; returns the exit status. */
+export async function runPartCommand(args: string[], io: PartCommandIo): Promise<number> {
+  let parsed: PartArgs;
+  try {
+    if (args.includes("--help") || args.includes("-h")) {
+      io.out(PART_USAGE + "\n");
+      return 0;
+    }
+    parsed = parsePartArgs(args);
+  } catch (error) {
+    io.err(`brittle part: ${(error as Error).message}\n${PART_USAGE}\n`);
+    return 2;
+  }
+  const tty = io.errIsTTY ?? Boolean(process.stderr.isTTY);
+  const started = Date.now();
+  let lastReport = started;
+  let reported = false;
+  const progress = (rows: number, bytes: number, total: number | null) => {
+    const now = Date.now();
+    if (parsed.quiet || now - lastReport < (tty ? 500 : 10000)) return;
+    lastReport = now;
+    reported = true;
+    const rate = rows / Math.max(1e-3, (now - started) / 1000);
+    const share = total ? `  ${((100 * bytes) / total).toFixed(0)} %` : "";
+    const text = `brittle part: ${(rows / 1e6).toFixed(1)} M rows${share}  (${(rate / 1e6).toFixed(2)} M rows/s)`;
+    io.err(tty ? `\r${text}  ` : `${text}\n`);
+  };
+  try {
+    const result = await streamPartFile(parsed.file, parsed.options, progress);
+    if (reported && tty) io.err("\n");
+    if (parsed.json) io.out(JSON.stringify(result) + "\n");
+    else io.out(formatPartReport(parsed.file, result));
+    return 0;
+  } catch (error) {
+    if (reported && tty) io.err("\n");
+    const text = error instanceof InputError ? error.message : error instanceof Error ? error.message.split("\n")[0] : String(error);
+    io.err(`brittle part: ${text}\n`);
+    return 1;
+  }
+}
