@@ -186,7 +186,7 @@ export function formatPartReport(file: string, r: PartStreamResult): string {
   const kinds = { 1: "maximum principal", 3: "principal", 6: "tensor, principal stresses computed" } as const;
   const lines: string[] = [];
   const row = (label: string, text: string) => lines.push(`${label.padEnd(16)}${text}`);
-  row("element table", `${file}: ${r.rows} elements (${r.skippedLines} other lines skipped), delimiter "${r.delimiter}"`);
+  row("element table", `${file}: ${r.rows} elements (${r.skippedLines} header, blank or comment line${r.skippedLines === 1 ? "" : "s"} skipped), delimiter "${r.delimiter}"`);
   row(
     "columns",
     `stresses ${r.columns.labels.stress.join(", ")} (${kinds[r.columns.kind]}); size ${r.columns.labels.size}` +

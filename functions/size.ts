@@ -7,7 +7,8 @@
  * Element tables follow the cell policy with one difference the data needs:
  * stresses may be negative (compression). A row whose stress and size cells
  * are all blank or zero is skipped; a blank stress cell beside a size counts
- * as 0 (desktop hosts pass empty cells as 0, so the web must agree).
+ * as 0 (desktop hosts pass empty cells as 0, so the web must agree); a blank
+ * or zero size beside stresses is #NUM! (a missing size would hide risk).
  *
  * Only adapters are exported: the registry registers every export.
  */
@@ -77,14 +78,12 @@ function readElementTable(stressCells: unknown, sizeCells: unknown): CellTable {
       if (!Number.isFinite(v)) throw new CellError("#NUM!", `${where} is not a finite number`);
       values.push(v);
     }
-    let s = 0;
-    if (!isBlank(size)) {
-      if (typeof size !== "number") throw new CellError("#VALUE!", `sizes, row ${r + 1} is not a number`);
-      if (!Number.isFinite(size)) throw new CellError("#NUM!", `sizes, row ${r + 1} is not a finite number`);
-      if (size < 0) throw new CellError("#NUM!", `sizes, row ${r + 1} is negative`);
-      s = size;
-    }
-    sizeValues.push(s);
+    // A blank or zero size beside stresses is a missing element size, not a zero one.
+    if (isBlank(size)) throw new CellError("#NUM!", `sizes, row ${r + 1} is blank or zero beside stresses`);
+    if (typeof size !== "number") throw new CellError("#VALUE!", `sizes, row ${r + 1} is not a number`);
+    if (!Number.isFinite(size)) throw new CellError("#NUM!", `sizes, row ${r + 1} is not a finite number`);
+    if (size < 0) throw new CellError("#NUM!", `sizes, row ${r + 1} is negative`);
+    sizeValues.push(size);
     kept.push(r);
   }
   if (kept.length === 0) throw new CellError("#NUM!", "the element table is empty");

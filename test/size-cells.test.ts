@@ -114,6 +114,8 @@ describe("element tables through the cells", () => {
     ["boolean stress", [[true]], [[1]], "#VALUE!", /not a number/],
     ["text size", [[100]], [["x"]], "#VALUE!", /sizes, row 1 is not a number/],
     ["negative size", [[100]], [[-1]], "#NUM!", /sizes, row 1 is negative/],
+    ["blank size beside a stress", [[100], [50]], [[1], [null]], "#NUM!", /sizes, row 2 is blank or zero beside stresses/],
+    ["zero size beside a stress", [[100]], [[0]], "#NUM!", /blank or zero beside stresses/],
     ["infinite stress", [[Infinity]], [[1]], "#NUM!", /finite/],
     ["empty table", [[null]], [[null]], "#NUM!", /empty/],
   ])("%s -> %s", (_, s, v, expected, text) => {

@@ -6,8 +6,8 @@
  * with I the criterion's intensity (surface form). The loaded face is in
  * compression inside the support but its radial stress turns tensile near
  * and beyond the support, so it is included. The cylindrical rim is left out
- * unless asked for (it needs the thickness; C1499 treats rim origins
- * separately): rim = 2 pi R h/(2(m+1)) <s_t(R)/s_max>^m.
+ * unless asked for (it needs the thickness, and rim origins are usually
+ * treated apart from face origins): rim = 2 pi R h/(2(m+1)) <s_t(R)/s_max>^m.
  *
  * Volume: the stresses are linear through the thickness, s(z) = (2z/h) s,
  * and every criterion's intensity is homogeneous of degree m, so

@@ -10,7 +10,7 @@
  *   = Li + 2 (L - Li)/2 / (m + 1) = (m Li + L)/(m + 1),
  * L the outer span, Li the inner span (0: three-point).
  *
- * Rectangular bar, width b (along the load line's normal), depth d [derived]:
+ * Rectangular bar, width b (the tensile face), depth d (along the load) [derived]:
  *   V_E = b d (m Li + L) / (2 (m+1)^2)
  *   S_E = ((m Li + L)/(m+1)) (b + d/(m+1))
  * (tensile face, plus the tensile halves of both side faces).
