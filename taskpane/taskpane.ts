@@ -10,7 +10,7 @@ import { runDesignCheck, type DesignCheckResult } from "./app/check";
 import { cautionsFor, generalCautions, type Caution } from "./app/cautions";
 import { DEMO_DESIGN } from "./app/demo-data";
 import { byId, FieldError, showStepError } from "./app/dom";
-import { readSelection } from "./app/host-selection";
+import { readSelection, readTableSelection } from "./app/host-selection";
 import type { DesignCheckInput } from "./app/inputs";
 import { renderCautions } from "./app/render-cautions";
 import { renderIncomplete, renderLegend, renderResult } from "./app/render-result";
@@ -23,7 +23,7 @@ import { plotData } from "./plot/plot-data";
 import { planReportSheet } from "./report/sheet-plan";
 import { writeReportSheet } from "./report/sheet-writer";
 import { fillStrengths, MATERIAL_FIELDS, readMaterial, setupMaterial } from "./steps/material";
-import { PART_FIELDS, readPart, setupPart } from "./steps/part";
+import { fillElementTable, PART_FIELDS, readPart, setupPart } from "./steps/part";
 import { readRequirement, REQUIREMENT_FIELDS, setupRequirement } from "./steps/requirement";
 import { readSpecimen, setupSpecimen, SPECIMEN_FIELDS } from "./steps/specimen";
 
@@ -128,7 +128,7 @@ function info(text: string): void {
 function wireForm(): void {
   setupMaterial(scheduleUpdate);
   setupSpecimen(scheduleUpdate);
-  setupPart();
+  setupPart(scheduleUpdate);
   setupRequirement(scheduleUpdate);
   const form = byId<HTMLFormElement>("check-form");
   form.addEventListener("input", (event) => {
@@ -165,6 +165,19 @@ function wireHost(): void {
       update();
     } catch (error) {
       byId("selection-info").textContent = `Could not read the selection: ${error instanceof Error ? error.message : String(error)}`;
+    }
+  });
+  const useTable = byId<HTMLButtonElement>("use-table-selection");
+  useTable.hidden = false;
+  useTable.addEventListener("click", async () => {
+    try {
+      const selection = await Excel.run((context) => readTableSelection(context));
+      fillElementTable(selection.text, selection.source);
+      byId("table-info").textContent = selection.description;
+      touched.add("step-part");
+      update();
+    } catch (error) {
+      byId("table-info").textContent = `Could not read the selection: ${error instanceof Error ? error.message : String(error)}`;
     }
   });
   writeSheet.addEventListener("click", async () => {

@@ -23,6 +23,8 @@ import { designStress, failureProbability, strengthAtFailureProbability, meanStr
 import { estimateWeibull } from "../src/weibull/estimate";
 import { plottingPositions } from "../src/weibull/plotting-positions";
 import { expectedFailures, failuresUpperBound } from "../src/design/lot-failures";
+import { specimenEffectiveSize } from "../src/size/presets";
+import { partEffectiveSize } from "../src/size/part";
 import { relativeError } from "./helpers";
 
 const ROOT = resolve(import.meta.dirname, "..");
@@ -273,6 +275,41 @@ describe("design-check form in headless Chromium, standalone", () => {
     expect(warnings.some((w) => /parameters were typed/.test(w))).toBe(true);
     expect(warnings.some((w) => /No lower confidence bound/.test(w))).toBe(true);
     await page.screenshot({ path: join(ARTIFACTS, "browser-design-check-typed.png"), fullPage: true });
+    await page.close();
+  });
+
+  it("sizes a standard specimen and a part from a pasted element table, at the fitted modulus", async () => {
+    const { page, problems } = await open();
+    await page.fill("#strengths", STRENGTHS.join("\n"));
+    await page.selectOption("#method", "MLE-RAW");
+    await page.check('input[name="specimen-source"][value="preset"]');
+    await page.selectOption("#specimen-config", "C1161-B-4PT");
+    await page.check('input[name="part-source"][value="table"]');
+    // Invented element table: principal stresses (MPa) and element volumes (mm³), with a header line.
+    const table = [[160, 40, 0, 2], [130, 130, 0, 5], [90, -30, 0, 10], [-50, -20, 0, 40]];
+    await page.fill("#element-table", "s1\ts2\ts3\tvolume\n" + table.map((r) => r.join("\t")).join("\n"));
+    await page.fill("#lot-size", "2000");
+    const verdict = await waitForVerdict(page);
+
+    const fit = estimateWeibull({ strengths: STRENGTHS }, "MLE-RAW");
+    const specimen = specimenEffectiveSize({ configuration: "C1161-B-4PT", shape: fit.shape });
+    const part = partEffectiveSize({
+      stresses: Float64Array.from(table.flatMap((r) => r.slice(0, 3))),
+      columns: 3,
+      sizes: Float64Array.from(table.map((r) => r[3])),
+      shape: fit.shape,
+    });
+    expect(relativeError(await rowValue(page, "specimen-size"), specimen)).toBeLessThan(1e-13);
+    expect(relativeError(await rowValue(page, "part-size"), part)).toBeLessThan(1e-13);
+    // The applied stress was left empty: the table's peak is used, and said so.
+    expect(await rowValue(page, "applied")).toBe(160);
+    expect(await page.textContent('dd[data-row="applied"] .basis')).toMatch(/peak tensile stress of the element table/);
+    const allowable = designStress({ survival: 0.9999, shape: fit.shape, scale: fit.scale, sizeRatio: part / specimen });
+    expect(relativeError(await rowValue(page, "allowable-point"), allowable)).toBeLessThan(1e-13);
+    expect(verdict).toMatch(allowable >= 160 ? /^PASS/ : /^FAIL/);
+    expect(await page.textContent('dd[data-row="specimen-size"] .basis')).toMatch(/ASTM C1161 configuration B/);
+    await page.screenshot({ path: join(ARTIFACTS, "browser-design-check-sizes.png"), fullPage: true });
+    expect(problems).toEqual([]);
     await page.close();
   });
 

@@ -31,8 +31,9 @@ function input(overrides: Partial<DesignCheckInput> = {}): DesignCheckInput {
     confidence: 0.9,
     flaws: "volume",
     sizeUnit: "mm³",
-    specimen: { effectiveSize: 12.5, how: "typed" },
-    part: { effectiveSize: 800, how: "typed" },
+    criterion: "PIA",
+    specimen: { kind: "typed", effectiveSize: 12.5 },
+    part: { kind: "typed", effectiveSize: 800 },
     requirement: { kind: "survival", survival: 0.9999 },
     appliedStress: 180,
     lotSize: 5000,
@@ -146,7 +147,7 @@ function mockWorkbook(existing: string[], opts: { hiddenFromFirstListing?: strin
       worksheets: {
         // The listing a real host gives after load("items") and sync; the first one can be stale, as when
         // another user adds a sheet between our look and our add.
-        load() {
+        load(this: any) {
           const hidden = listings++ === 0 ? new Set(opts.hiddenFromFirstListing ?? []) : new Set<string>();
           this.items = [...sheets.keys()].filter((n) => !hidden.has(n)).map((name) => ({ name }));
           return this;
@@ -364,6 +365,41 @@ describe("writing the design check through the spreadsheet API (office-addin-moc
     expect(relativeError(value("modulus") as number, result.parameters.shape)).toBeLessThan(1e-12);
     result.points.forEach((pt, i) => expect(at(`L${5 + i}`)).toBe(pt.failureProbability));
     expect(result.points.length).toBe(13);
+  });
+
+  it("sizes a standard specimen and a pasted element table live where the build has their functions", async () => {
+    // Invented element table: four elements, principal stresses (MPa) and volumes (mm³).
+    const stresses = [[150, 40, 0], [120, 120, 0], [90, -30, 0], [-50, -20, 0]];
+    const sizes = [2, 5, 10, 40];
+    const result = runDesignCheck(
+      input({
+        specimen: { kind: "preset", configuration: "C1161-B-4PT" },
+        part: { kind: "table", stresses, columns: 3, sizes, source: { kind: "pasted" } },
+        appliedStress: null,
+      }),
+    );
+    expect(result.appliedStress.value).toBe(150);
+    const p = plan(result);
+    const { context, sheets } = mockWorkbook([]);
+    const { sheetName } = await writeReportSheet(context, p);
+    const cells = grid(sheets.get(sheetName)!);
+    const flat = cells.flat();
+    // The table sits from column W, so the formulas can refer to it.
+    expect(cells[4].slice(22, 26)).toEqual([150, 40, 0, 2]);
+    const live = Object.keys(adapters).includes("PARTEFFSIZE") && Object.keys(adapters).includes("SPECIMEN");
+    if (live) {
+      expect(flat).toContain(`=BRITTLE.SPECIMEN($B$8,${p.refs.modulus},"VOLUME")`);
+      expect(flat.some((v) => typeof v === "string" && v === `=BRITTLE.PARTEFFSIZE($W$5:$Y$8,$Z$5:$Z$8,${p.refs.modulus},${p.refs.criterion})`)).toBe(true);
+    } else {
+      // Not in this build: the values when written, said so beside them.
+      expect(flat.some((v) => typeof v === "string" && v.includes("value when written"))).toBe(true);
+    }
+    expect(flat).toContain("=MAX($W$5:$Y$8)");
+    const { value } = evaluate({ [sheetName]: cells }, sheetName, p.refs);
+    expect(relativeError(value("specimenSize") as number, result.specimenSize.value)).toBeLessThan(1e-12);
+    expect(relativeError(value("partSize") as number, result.partSize.value)).toBeLessThan(1e-12);
+    expect(value("applied")).toBe(150);
+    expect(relativeError(value("allowablePoint") as number, result.allowablePoint.value)).toBeLessThan(1e-12);
   });
 
   it("picks the next name when another sheet took the name between looking and adding", async () => {

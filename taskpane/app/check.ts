@@ -16,6 +16,7 @@ import { plottingPositions, type PlotPoint } from "../../src/weibull/plotting-po
 import type { StrengthSample } from "../../src/weibull/sample";
 import { METHOD_LABELS, type DesignCheckInput } from "./inputs";
 import { MISSING, optionalCore, type FitQuality } from "./optional-core";
+import { resolveSizes } from "./sizes";
 
 export interface FittedParameters {
   shape: number;
@@ -37,7 +38,11 @@ export interface DesignCheckResult {
   input: DesignCheckInput;
   sample: StrengthSample | null;
   parameters: FittedParameters;
+  specimenSize: ResultLine;
+  partSize: ResultLine;
   sizeRatio: ResultLine;
+  /** The applied peak stress used: as typed, or the element table's peak. */
+  appliedStress: ResultLine;
   /** Failure probability the requirement allows for one part. */
   targetFailureProbability: ResultLine;
   allowablePoint: ResultLine;
@@ -69,11 +74,15 @@ export function runDesignCheck(input: DesignCheckInput): DesignCheckResult {
   const parameters = fitParameters(input, sample);
   const { shape, scale } = parameters;
 
-  const sizeRatio = input.part.effectiveSize / input.specimen.effectiveSize;
+  const sizes = resolveSizes(input, shape);
+  const sizeRatio = sizes.part.value / sizes.specimen.value;
   const sizeWord = input.flaws === "volume" ? "effective volume" : "effective area";
   const sizeBasis =
-    `part ${sizeWord} (${input.part.how}) / specimen ${sizeWord} (${input.specimen.how}); ` +
+    `part ${sizeWord} / specimen ${sizeWord}; ` +
     `assumes one ${input.flaws} flaw population, the same surface finish and environment in both (ASTM C1683)`;
+  const appliedStress = input.appliedStress ?? sizes.tablePeak;
+  if (appliedStress === null) throw new Error("give the applied peak stress");
+  const appliedBasis = input.appliedStress === null ? "peak tensile stress of the element table" : "as typed";
 
   const target = targetProbability(input);
   const allowable =
@@ -83,14 +92,14 @@ export function runDesignCheck(input: DesignCheckInput): DesignCheckResult {
   const weibullBasis = `two-parameter Weibull, ${parameters.basis}, size ratio ${fmt(sizeRatio)}`;
 
   const lower = lowerBound(input, sample, target.value, sizeRatio);
-  const pfApplied = failureProbability({ stress: input.appliedStress, shape, scale, sizeRatio });
+  const pfApplied = failureProbability({ stress: appliedStress, shape, scale, sizeRatio });
   const expected = expectedFailures({ failureProbability: pfApplied, lotSize: input.lotSize });
   const upper = failuresUpperBound({ failureProbability: pfApplied, lotSize: input.lotSize, confidence: input.confidence });
 
   const onLowerBound = lower.line !== null;
   const governing = lower.line ? lower.line.value : allowable;
-  const margin = governing / input.appliedStress;
-  const pass = input.appliedStress <= governing;
+  const margin = governing / appliedStress;
+  const pass = appliedStress <= governing;
 
   const points = sample ? plottingPositions(sample) : [];
   const censoredStrengths = sample ? sample.strengths.filter((_, i) => sample.censored?.[i]) : [];
@@ -104,14 +113,17 @@ export function runDesignCheck(input: DesignCheckInput): DesignCheckResult {
     input,
     sample,
     parameters,
+    specimenSize: { value: sizes.specimen.value, basis: sizes.specimen.how },
+    partSize: { value: sizes.part.value, basis: sizes.part.how },
     sizeRatio: { value: sizeRatio, basis: sizeBasis },
+    appliedStress: { value: appliedStress, basis: appliedBasis },
     targetFailureProbability: target,
     allowablePoint: { value: allowable, basis: `point estimate: ${weibullBasis}` },
     allowableLower: lower.line,
     allowableLowerMissing: lower.missing,
     failureProbabilityAtApplied: {
       value: pfApplied,
-      basis: `point estimate at ${fmt(input.appliedStress)} ${input.stressUnit}: ${weibullBasis}`,
+      basis: `point estimate at ${fmt(appliedStress)} ${input.stressUnit}: ${weibullBasis}`,
     },
     expectedFailures: {
       value: expected,
@@ -127,7 +139,7 @@ export function runDesignCheck(input: DesignCheckInput): DesignCheckResult {
       value: margin,
       basis: `${onLowerBound ? "lower-bound" : "point-estimate"} allowable stress / applied stress`,
     },
-    verdict: verdictLine(input, pass, onLowerBound, governing, margin),
+    verdict: verdictLine(input, appliedStress, pass, onLowerBound, governing, margin),
     fitQuality,
     fitQualityMissing,
     points,
@@ -202,13 +214,14 @@ function lowerBound(
 
 function verdictLine(
   input: DesignCheckInput,
+  appliedStress: number,
   pass: boolean,
   onLowerBound: boolean,
   governing: number,
   margin: number,
 ): DesignCheckResult["verdict"] {
   const unit = input.stressUnit;
-  const applied = `${fmt(input.appliedStress)} ${unit}`;
+  const applied = `${fmt(appliedStress)} ${unit}`;
   const allow = `${fmt(governing)} ${unit}`;
   const basis = onLowerBound
     ? `the ${pct(input.confidence)} lower-bound allowable stress`

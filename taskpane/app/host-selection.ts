@@ -46,3 +46,35 @@ function cellText(v: unknown): string {
   if (typeof v === "boolean") return v ? "TRUE" : "FALSE";
   return String(v);
 }
+
+export interface TableSelection {
+  text: string;
+  source: { kind: "range"; stressesAddress: string; sizesAddress: string };
+  description: string;
+}
+
+/** An element table from the selection: 2, 4 or 7 columns (stresses, then the element size), header optional. */
+export async function readTableSelection(context: Excel.RequestContext): Promise<TableSelection> {
+  const range = context.workbook.getSelectedRange();
+  range.load("values,rowCount,columnCount");
+  await context.sync();
+  const cols = range.columnCount;
+  if (cols !== 2 && cols !== 4 && cols !== 7) {
+    throw new Error("Select 2, 4 or 7 columns: 1, 3 or 6 stress columns, then the element sizes.");
+  }
+  const values = range.values as unknown[][];
+  const header = values[0].some((v) => typeof v === "string" && v.trim() !== "" && !Number.isFinite(Number(v)));
+  if (header && range.rowCount < 2) throw new Error("The selection holds only a header.");
+  const data = header ? range.getOffsetRange(1, 0).getResizedRange(-1, 0) : range;
+  const stresses = data.getResizedRange(0, -1);
+  const sizes = data.getLastColumn();
+  stresses.load("address");
+  sizes.load("address");
+  await context.sync();
+  const rows = header ? values.slice(1) : values;
+  return {
+    text: rows.map((row) => row.map(cellText).join("\t")).join("\n"),
+    source: { kind: "range", stressesAddress: stresses.address, sizesAddress: sizes.address },
+    description: `Taken from ${stresses.address} with sizes in ${sizes.address}${header ? " (header row skipped)" : ""}.`,
+  };
+}

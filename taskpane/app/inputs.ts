@@ -30,11 +30,28 @@ export type MaterialInput =
 
 export type FlawKind = "volume" | "surface";
 
-/** An effective size and a short phrase saying where it came from ("typed", "ASTM C1161 B, four-point"...). */
-export interface SizeInput {
-  effectiveSize: number;
-  how: string;
-}
+export type Criterion = "PIA" | "NSA" | "MAXPRINCIPAL";
+
+/** The specimen's effective size: typed, a standard configuration, or a bar's flexure dimensions (mm). */
+export type SpecimenInput =
+  | { kind: "typed"; effectiveSize: number }
+  | { kind: "preset"; configuration: string; poisson?: number }
+  | { kind: "bar"; outerSpan: number; innerSpan: number; width: number; depth: number };
+
+/** Where an element table came from; a range keeps its addresses for the report sheet. */
+export type TableSource = { kind: "pasted" } | { kind: "range"; stressesAddress: string; sizesAddress: string };
+
+/** The part's effective size: typed, or from a table of element stresses and sizes. */
+export type PartInput =
+  | { kind: "typed"; effectiveSize: number }
+  | {
+      kind: "table";
+      /** One row per element: 1, 3 or 6 stress values. */
+      stresses: number[][];
+      columns: 1 | 3 | 6;
+      sizes: number[];
+      source: TableSource;
+    };
 
 export type RequirementInput =
   | { kind: "survival"; survival: number }
@@ -49,11 +66,13 @@ export interface DesignCheckInput {
   flaws: FlawKind;
   /** Free text such as "mm³" or "mm²". */
   sizeUnit: string;
-  specimen: SizeInput;
-  part: SizeInput;
+  /** Multiaxial criterion for disk specimens and element tables. */
+  criterion: Criterion;
+  specimen: SpecimenInput;
+  part: PartInput;
   requirement: RequirementInput;
-  /** Peak stress the part carries in service. */
-  appliedStress: number;
+  /** Peak stress the part carries in service; with an element table, null takes the table's peak. */
+  appliedStress: number | null;
   /** Parts in a production lot. */
   lotSize: number;
 }

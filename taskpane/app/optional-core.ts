@@ -36,7 +36,5 @@ export const optionalCore: OptionalCore = {};
 export const MISSING = {
   bounds: "confidence bounds are not in this build yet, so no lower-bound allowable is given",
   fitQuality: "the goodness-of-fit test is not in this build yet: judge the plot by eye",
-  specimenPresets: "standard specimen configurations and dimensions arrive with the effective-size functions; type the effective size for now",
-  elementTable: "effective size from an element table arrives with the part functions; type the part's effective size for now",
   lifetime: "lifetime under sustained load and proof testing arrive with the slow-crack-growth functions",
 } as const;

@@ -30,6 +30,8 @@ export function resultRows(r: DesignCheckResult): ResultRow[] {
       basis: "stress at which 63.2 % of specimens fail" + (r.input.material.kind === "data" ? "; maximum-likelihood value unless least squares was chosen" : ""),
     },
     { id: "mean-strength", label: "Mean strength (specimen size)", value: p.mean, display: stress(p.mean), basis: "characteristic strength x Gamma(1 + 1/m)" },
+    { id: "specimen-size", label: `Specimen effective ${r.input.flaws === "volume" ? "volume" : "area"}`, value: r.specimenSize.value, display: `${sig(r.specimenSize.value)} ${r.input.sizeUnit}`, basis: r.specimenSize.basis },
+    { id: "part-size", label: `Part effective ${r.input.flaws === "volume" ? "volume" : "area"}`, value: r.partSize.value, display: `${sig(r.partSize.value)} ${r.input.sizeUnit}`, basis: r.partSize.basis },
     { id: "size-ratio", label: "Size ratio, part / specimen", value: r.sizeRatio.value, display: sig(r.sizeRatio.value), basis: r.sizeRatio.basis },
     {
       id: "target-pf",
@@ -42,6 +44,7 @@ export function resultRows(r: DesignCheckResult): ResultRow[] {
     r.allowableLower
       ? { id: "allowable-lower", label: `Allowable stress, ${conf} lower bound`, value: r.allowableLower.value, display: stress(r.allowableLower.value), basis: r.allowableLower.basis }
       : { id: "allowable-lower", label: `Allowable stress, ${conf} lower bound`, value: null, display: "not available", basis: r.allowableLowerMissing ?? "" },
+    { id: "applied", label: "Applied peak stress", value: r.appliedStress.value, display: stress(r.appliedStress.value), basis: r.appliedStress.basis },
     {
       id: "pf-applied",
       label: "Failure probability at the applied stress",

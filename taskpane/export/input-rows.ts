@@ -21,11 +21,17 @@ export function inputRows(input: DesignCheckInput): InputRow[] {
   }
   rows.push({ label: "Confidence level", value: input.confidence, unit: "" });
   rows.push({ label: "Fracture origins", value: input.flaws, unit: "" });
-  rows.push({ label: "Specimen effective size", value: input.specimen.effectiveSize, unit: input.sizeUnit });
-  rows.push({ label: "Part effective size", value: input.part.effectiveSize, unit: input.sizeUnit });
+  const sp = input.specimen;
+  if (sp.kind === "typed") rows.push({ label: "Specimen effective size", value: sp.effectiveSize, unit: input.sizeUnit });
+  else if (sp.kind === "preset") rows.push({ label: "Specimen configuration", value: sp.configuration + (sp.poisson !== undefined ? `, Poisson's ratio ${sp.poisson}` : ""), unit: "" });
+  else rows.push({ label: "Specimen bar (outer/inner span, width x depth)", value: `${sp.outerSpan}/${sp.innerSpan}, ${sp.width} x ${sp.depth}`, unit: "mm" });
+  const pt = input.part;
+  if (pt.kind === "typed") rows.push({ label: "Part effective size", value: pt.effectiveSize, unit: input.sizeUnit });
+  else rows.push({ label: "Part element table", value: `${pt.sizes.length} rows, ${pt.columns} stress column(s)`, unit: "" });
+  rows.push({ label: "Multiaxial criterion", value: input.criterion, unit: "" });
   if (input.requirement.kind === "survival") rows.push({ label: "Required survival per part", value: input.requirement.survival, unit: "" });
   else rows.push({ label: "Expected failures allowed per lot", value: input.requirement.allowedFailures, unit: "" });
-  rows.push({ label: "Applied peak stress", value: input.appliedStress, unit: input.stressUnit });
+  rows.push({ label: "Applied peak stress", value: input.appliedStress ?? "peak of the element table", unit: input.appliedStress === null ? "" : input.stressUnit });
   rows.push({ label: "Parts per lot", value: input.lotSize, unit: "" });
   return rows;
 }

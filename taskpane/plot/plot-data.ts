@@ -60,7 +60,7 @@ export function plotData(result: DesignCheckResult): PlotData {
     ...failures.map((f) => f.stress),
     ...result.censoredStrengths,
     design.stress,
-    result.input.appliedStress,
+    result.appliedStress.value,
     ...(band ? band.flatMap((b) => [b.lower, b.upper]) : []),
   ];
   const within = (s: StressProbability) => s.probability >= pMin && s.probability <= pMax;
@@ -74,7 +74,7 @@ export function plotData(result: DesignCheckResult): PlotData {
     partLine,
     band,
     design,
-    applied: result.input.appliedStress,
+    applied: result.appliedStress.value,
     probabilityRange: [pMin, pMax],
     stressRange: [Math.min(...stresses) / 1.1, Math.max(...stresses) * 1.1],
     confidence: result.input.confidence,

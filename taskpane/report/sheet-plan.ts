@@ -124,14 +124,44 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
     input1("typedModulus", "Weibull modulus (typed)", material.shape, "", "typed: not estimated from data");
     input1("typedScale", "Characteristic strength (typed)", material.scale, stressUnit, "typed: specimen size", STRESS);
   }
-  input1("specimenSize", `Specimen effective ${input.flaws === "volume" ? "volume" : "area"}`, input.specimen.effectiveSize, sizeUnit, input.specimen.how);
-  input1("partSize", `Part effective ${input.flaws === "volume" ? "volume" : "area"}`, input.part.effectiveSize, sizeUnit, input.part.how);
+  // Specimen and part: typed sizes are inputs; configurations, dimensions and tables become formulas below.
+  const word = input.flaws === "volume" ? "volume" : "area";
+  const sp = input.specimen;
+  if (sp.kind === "typed") {
+    input1("specimenSizeTyped", `Specimen effective ${word}`, sp.effectiveSize, sizeUnit, "typed");
+  } else if (sp.kind === "preset") {
+    input1("configuration", "Specimen configuration", safeText(sp.configuration), "", result.specimenSize.basis);
+    if (sp.poisson !== undefined) input1("poisson", "Poisson's ratio", sp.poisson, "", "disk specimens");
+  } else {
+    input1("outerSpan", "Outer span", sp.outerSpan, "mm", "");
+    input1("innerSpan", "Inner span", sp.innerSpan, "mm", "0 for three-point flexure");
+    input1("barWidth", "Bar width (tensile face)", sp.width, "mm", "");
+    input1("barDepth", "Bar depth", sp.depth, "mm", "");
+  }
+  if (sp.kind !== "typed" || input.part.kind === "table") input1("criterion", "Multiaxial criterion", input.criterion, "", "disks and element tables");
+  const pt = input.part;
+  let table: { stresses: string; sizes: string } | null = null;
+  if (pt.kind === "typed") {
+    input1("partSizeTyped", `Part effective ${word}`, pt.effectiveSize, sizeUnit, "typed");
+  } else if (pt.source.kind === "range") {
+    table = { stresses: pt.source.stressesAddress, sizes: pt.source.sizesAddress };
+    put(row++, A, [["Element table", `${table.stresses} with sizes ${table.sizes}`, "", "stresses and element sizes where they are"]], "text");
+  } else {
+    // Pasted tables go beside the chart data, from column W.
+    const W = 22;
+    put(3, W, [[...Array.from({ length: pt.columns }, (_, j) => `Stress ${j + 1} (${stressUnit})`), `Element ${word} (${sizeUnit})`]], "heading");
+    put(4, W, pt.stresses.map((r, i) => [...r, pt.sizes[i]]), "data");
+    table = { stresses: absoluteRange(4, W, pt.sizes.length, pt.columns), sizes: absoluteRange(4, W + pt.columns, pt.sizes.length) };
+    put(row++, A, [["Element table", `${pt.sizes.length} rows from column W`, "", "pasted into the form"]], "text");
+  }
   if (input.requirement.kind === "survival") {
     input1("survival", "Required survival per part", input.requirement.survival, "", "probability", "0.0000000");
   } else {
     input1("allowedFailures", "Expected failures allowed per lot", input.requirement.allowedFailures, "", "");
   }
-  input1("applied", "Applied peak stress", input.appliedStress, stressUnit, "");
+  if (input.appliedStress !== null) {
+    input1("applied", "Applied peak stress", input.appliedStress, stressUnit, "");
+  }
   input1("lotSize", "Parts per lot", input.lotSize, "", "");
 
   // ---- Results ----
@@ -155,6 +185,35 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
   const m = refs.modulus;
   const th = refs.scale;
   result1("mean", "Mean strength", `=BRITTLE.MEANSTRENGTH(${m},${th})`, stressUnit, "specimen size", STRESS);
+  const fns = options.functions;
+  const size = (key: string, label: string, formula: string | null, typedRef: string | undefined, value: number, note: string, unit = sizeUnit) => {
+    if (typedRef) refs[key] = typedRef;
+    else if (formula) result1(key, label, formula, unit, note);
+    else {
+      // The cell function is not in this build: the value at the time of writing, said plainly.
+      put(row, A, [[label]], "label");
+      put(row, B, [[value]], "data");
+      put(row, C, [[unit, `${note} (value when written: recompute in the form)`]], "text");
+      refs[key] = absolute(row, B);
+      row++;
+    }
+  };
+  const flawsWord = input.flaws === "volume" ? "VOLUME" : "SURFACE";
+  const specimenFormula =
+    sp.kind === "preset" && fns.has("SPECIMEN")
+      ? `=BRITTLE.SPECIMEN(${refs.configuration},${m},"${flawsWord}"${refs.poisson ? `,${refs.poisson},${refs.criterion}` : ""})`
+      : sp.kind === "bar" && fns.has(input.flaws === "volume" ? "FLEXVOLUME" : "FLEXAREA")
+        ? `=BRITTLE.${input.flaws === "volume" ? "FLEXVOLUME" : "FLEXAREA"}(${m},${refs.outerSpan},${refs.innerSpan},${refs.barWidth},${refs.barDepth})`
+        : null;
+  size("specimenSize", `Specimen effective ${word}`, specimenFormula, refs.specimenSizeTyped, result.specimenSize.value, result.specimenSize.basis);
+  const partFormula = table && fns.has("PARTEFFSIZE") ? `=BRITTLE.PARTEFFSIZE(${table.stresses},${table.sizes},${m},${refs.criterion})` : null;
+  size("partSize", `Part effective ${word}`, partFormula, refs.partSizeTyped, result.partSize.value, result.partSize.basis);
+  if (!refs.applied) {
+    // The table's peak: MAX over principal stresses is live; tensors need the core's principal stresses.
+    const live = table && pt.kind === "table" && pt.columns !== 6;
+    if (live) result1("applied", "Applied peak stress", `=MAX(${table!.stresses})`, stressUnit, "peak of the element table", STRESS);
+    else size("applied", "Applied peak stress", null, undefined, result.appliedStress.value, "peak of the element table", stressUnit);
+  }
   result1("sizeRatio", "Size ratio, part / specimen", `=${refs.partSize}/${refs.specimenSize}`, "", result.sizeRatio.basis, RATIO);
   if (input.requirement.kind === "survival") {
     result1("targetPf", "Allowed failure probability per part", `=1-${refs.survival}`, "", "1 - required survival", PROBABILITY);
@@ -167,7 +226,8 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
   result1("allowablePoint", "Allowable stress, point estimate", `=BRITTLE.DESIGNSTRESS(${refs.survivalUsed},${m},${th},${k})`, stressUnit, "two-parameter Weibull, size-scaled", STRESS);
 
   const conf = formatPercent(input.confidence);
-  const boundsFormula = options.functions.has("DESIGNSTRESSBOUND") && material.kind === "data";
+  // Only where the form itself has the bound, so the sheet and the form never disagree on the verdict's basis.
+  const boundsFormula = options.functions.has("DESIGNSTRESSBOUND") && material.kind === "data" && result.allowableLower !== null;
   if (boundsFormula) {
     result1(
       "allowableLower",

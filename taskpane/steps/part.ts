@@ -1,19 +1,45 @@
 /**
- * Step 3, the part: its effective size in the specimen's unit. Typed for now;
- * an element-table range (stresses and element sizes from a finite-element
- * model) plugs in here when the part functions land.
+ * Step 3, the part: its effective size typed in the specimen's unit, or from
+ * a table of element stresses and sizes exported from a finite-element model
+ * (pasted, or the selected range in a spreadsheet).
  */
-import { byId, radioValue, requiredNumber } from "../app/dom";
-import type { SizeInput } from "../app/inputs";
-import { MISSING } from "../app/optional-core";
+import { byId, FieldError, radioValue, requiredNumber } from "../app/dom";
+import type { PartInput, TableSource } from "../app/inputs";
+import { parseElementTable, TableError } from "../app/parse-table";
 
-export const PART_FIELDS = ["part-size"];
+export const PART_FIELDS = ["part-size", "element-table"];
 
-export function setupPart(): void {
-  byId("part-pending").textContent = `Planned here: ${MISSING.elementTable}.`;
+/** The range the table box was last filled from; editing the text by hand drops it. */
+let fromRange: { text: string; source: TableSource & { kind: "range" } } | null = null;
+
+export function setupPart(onChange: () => void): void {
+  for (const radio of document.querySelectorAll<HTMLInputElement>('input[name="part-source"]')) {
+    radio.addEventListener("change", () => {
+      const table = radioValue("part-source") === "table";
+      byId("part-typed").hidden = table;
+      byId("part-table").hidden = !table;
+      onChange();
+    });
+  }
 }
 
-export function readPart(): SizeInput {
+export function fillElementTable(text: string, source: (TableSource & { kind: "range" }) | null): void {
+  byId<HTMLTextAreaElement>("element-table").value = text;
+  fromRange = source ? { text, source } : null;
+}
+
+export function readPart(): PartInput {
+  if (radioValue("part-source") === "table") {
+    const text = byId<HTMLTextAreaElement>("element-table").value;
+    try {
+      const table = parseElementTable(text);
+      const source: TableSource = fromRange && fromRange.text === text ? fromRange.source : { kind: "pasted" };
+      return { kind: "table", ...table, source };
+    } catch (error) {
+      if (error instanceof TableError) throw new FieldError("element-table", error.message);
+      throw error;
+    }
+  }
   const word = radioValue("flaws") === "surface" ? "area" : "volume";
-  return { effectiveSize: requiredNumber("part-size", `part's effective ${word}`, { positive: true }), how: "typed" };
+  return { kind: "typed", effectiveSize: requiredNumber("part-size", `part's effective ${word}`, { positive: true }) };
 }

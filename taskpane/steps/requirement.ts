@@ -4,7 +4,7 @@
  * Lifetime under sustained load and proof testing plug in here when the
  * slow-crack-growth functions land.
  */
-import { byId, FieldError, radioValue, requiredNumber } from "../app/dom";
+import { byId, FieldError, radioValue, readNumberField, requiredNumber } from "../app/dom";
 import type { RequirementInput } from "../app/inputs";
 import { MISSING } from "../app/optional-core";
 
@@ -22,7 +22,7 @@ export function setupRequirement(onChange: () => void): void {
   }
 }
 
-export function readRequirement(): { requirement: RequirementInput; appliedStress: number; lotSize: number } {
+export function readRequirement(): { requirement: RequirementInput; appliedStress: number | null; lotSize: number } {
   const lotSize = requiredNumber("lot-size", "number of parts per lot", { positive: true, integer: true });
   if (lotSize > 1e9) throw new FieldError("lot-size", "The lot size must be at most 1e9 parts.");
   let requirement: RequirementInput;
@@ -33,6 +33,10 @@ export function readRequirement(): { requirement: RequirementInput; appliedStres
   } else {
     requirement = { kind: "survival", survival: requiredNumber("survival", "required survival probability", { probability: true }) };
   }
-  const appliedStress = requiredNumber("applied-stress", "applied peak stress", { positive: true });
+  // With an element table the applied stress may stay empty: the table's peak is then used.
+  const fromTable = radioValue("part-source") === "table";
+  const appliedStress = fromTable
+    ? (readNumberField("applied-stress", "applied peak stress", { positive: true, optional: true }) ?? null)
+    : requiredNumber("applied-stress", "applied peak stress", { positive: true });
   return { requirement, appliedStress, lotSize };
 }
