@@ -120,7 +120,8 @@ function spillSize(shape: SpillShape, sizeOf: (k: number) => ArraySize | undefin
   if (typeof rows === "number") return new ArraySize(cols, rows);
   const k = "cellsOf" in rows ? rows.cellsOf : rows.rowsOf;
   const size = sizeOf(k);
-  if (!size || size.isScalar()) return new ArraySize(cols, 1);
+  // A range argument's size carries isRef, for which isScalar() is true: use its dimensions, not that flag.
+  if (!size) return new ArraySize(cols, 1);
   return new ArraySize(cols, "cellsOf" in rows ? size.width * size.height : size.height);
 }
 
