@@ -398,7 +398,7 @@ describe("design-check form in headless Chromium, standalone", () => {
         }
         return "rgb(255, 255, 255)";
       };
-      return [".help", "#status", ".step-no", ".cautions li", "label", ".pending", ".verdict", "button"].map((sel) => {
+      return [".help", "#status", ".step-no", ".cautions li", "label", ".verdict", "button"].map((sel) => {
         const e = document.querySelector(sel)!;
         return { sel, fg: rgb(getComputedStyle(e).color), bg: rgb(background(e)) };
       });

@@ -37,6 +37,8 @@ function input(overrides: Partial<DesignCheckInput> = {}): DesignCheckInput {
     requirement: { kind: "survival", survival: 0.9999 },
     appliedStress: 180,
     lotSize: 5000,
+    lifetime: null,
+    proof: null,
     ...overrides,
   };
 }
@@ -400,6 +402,47 @@ describe("writing the design check through the spreadsheet API (office-addin-moc
     expect(relativeError(value("partSize") as number, result.partSize.value)).toBeLessThan(1e-12);
     expect(value("applied")).toBe(150);
     expect(relativeError(value("allowablePoint") as number, result.allowablePoint.value)).toBeLessThan(1e-12);
+  });
+
+  it("carries a lifetime and a proof test into live formulas that agree with the form", async () => {
+    // Invented crack-growth constants (B in MPa² s) and loads, chosen so that each case below takes a different branch.
+    const life = { lifetime: 3.15e7, timeUnit: "s", n: 18, B: 5e5 };
+    const cases = [
+      { name: "lifetime governs", proof: null, applied: 60 },
+      { name: "proof test guarantees the life", proof: { proofStress: 300 }, applied: 60 },
+      { name: "applied above the proof stress", proof: { proofStress: 100 }, applied: 120 },
+    ];
+    for (const c of cases) {
+      const result = runDesignCheck(input({ lifetime: life, proof: c.proof, appliedStress: c.applied }));
+      const p = plan(result);
+      const { context, sheets } = mockWorkbook([]);
+      const { sheetName } = await writeReportSheet(context, p);
+      const cells = grid(sheets.get(sheetName)!);
+      const { value } = evaluate({ [sheetName]: cells }, sheetName, p.refs);
+      const rel = (key: string, want: number) => expect(relativeError(value(key) as number, want), `${c.name}: ${key}`).toBeLessThan(1e-12);
+      rel("lifetimeAllowable", result.time.lifetimeAllowable!.value);
+      rel("margin", result.margin.value);
+      expect(value("verdict"), c.name).toBe(result.verdict.pass ? "PASS" : "FAIL");
+      if (c.proof) {
+        rel("proofBreaks", result.time.proofBreaks!.value);
+        if (result.time.postProofFailureProbability!.value === 0) expect(value("postProofPf")).toBe(0);
+        else rel("postProofPf", result.time.postProofFailureProbability!.value);
+      }
+      if (c.name === "lifetime governs") {
+        expect(result.margin.value).toBeCloseTo(result.time.lifetimeAllowable!.value / 60, 12);
+        expect(result.verdict.text).toMatch(/over 3\.15e\+7 s|over 31500000 s/);
+      }
+      if (c.name === "proof test guarantees the life") {
+        rel("proofMinLife", result.time.proofMinimumLife!.value);
+        expect(result.time.proofCoversLifetime).toBe(true);
+        expect(result.margin.value).toBeCloseTo(result.allowablePoint.value / 60, 12);
+      }
+      if (c.name === "applied above the proof stress") {
+        expect(result.time.proofMinimumLife).toBeNull();
+        expect(result.time.proofMinimumLifeMissing).toMatch(/exceeds the proof stress/);
+        expect(cautionsFor(result).find((x) => x.id === "proof")!.level).toBe("warning");
+      }
+    }
   });
 
   it("picks the next name when another sheet took the name between looking and adding", async () => {

@@ -139,6 +139,30 @@ export function cautionsFor(result: DesignCheckResult): Caution[] {
     });
   }
 
+  const life = result.input.lifetime;
+  if (life) {
+    out.push({
+      id: "lifetime",
+      level: "note",
+      text:
+        `The lifetime allowable stress assumes power-law crack growth with n = ${life.n} and B measured in the service ` +
+        "environment and temperature, Weibull parameters of inert strength, and a constant stress; n depends strongly " +
+        "on environment, and thresholds or R-curve behaviour change the answer. It uses the point estimate, not a bound.",
+    });
+  }
+  const proof = result.input.proof;
+  if (proof) {
+    const above = result.appliedStress.value > proof.proofStress;
+    out.push({
+      id: "proof",
+      level: above ? "warning" : "note",
+      text:
+        (above ? "The applied stress is above the proof stress: the proof test screens nothing at this load. " : "") +
+        "The proof-test guarantee holds only if the proof load is removed fast or in a dry, inert environment, so no " +
+        "crack grows while unloading, and if the proof stress reaches the same places as the service stress.",
+    });
+  }
+
   out.push({
     id: "environment",
     level: "note",

@@ -17,6 +17,7 @@ import type { StrengthSample } from "../../src/weibull/sample";
 import { METHOD_LABELS, type DesignCheckInput } from "./inputs";
 import { MISSING, optionalCore, type FitQuality } from "./optional-core";
 import { resolveSizes } from "./sizes";
+import { timeCheck, type TimeCheck } from "./time-check";
 
 export interface FittedParameters {
   shape: number;
@@ -55,6 +56,8 @@ export interface DesignCheckResult {
   /** Allowable stress (on the verdict's basis) divided by the applied stress. */
   margin: ResultLine;
   verdict: { pass: boolean; onLowerBound: boolean; text: string };
+  /** Lifetime and proof-test lines, where those inputs were given. */
+  time: TimeCheck;
   fitQuality: FitQuality | null;
   fitQualityMissing?: string;
   /** Failure probabilities of the plotted failures (specimen size). */
@@ -97,7 +100,12 @@ export function runDesignCheck(input: DesignCheckInput): DesignCheckResult {
   const upper = failuresUpperBound({ failureProbability: pfApplied, lotSize: input.lotSize, confidence: input.confidence });
 
   const onLowerBound = lower.line !== null;
-  const governing = lower.line ? lower.line.value : allowable;
+  const shortTerm = lower.line ? lower.line.value : allowable;
+  const survival = input.requirement.kind === "survival" ? input.requirement.survival : 1 - target.value;
+  const time = timeCheck(input, parameters, sizeRatio, survival, appliedStress);
+  // Over a lifetime the lower of the two allowables governs, unless a proof test guarantees the life.
+  const lifeGoverns = time.lifetimeAllowable !== null && !time.proofCoversLifetime && time.lifetimeAllowable.value < shortTerm;
+  const governing = lifeGoverns ? time.lifetimeAllowable!.value : shortTerm;
   const margin = governing / appliedStress;
   const pass = appliedStress <= governing;
 
@@ -137,9 +145,13 @@ export function runDesignCheck(input: DesignCheckInput): DesignCheckResult {
     },
     margin: {
       value: margin,
-      basis: `${onLowerBound ? "lower-bound" : "point-estimate"} allowable stress / applied stress`,
+      basis: lifeGoverns
+        ? "lifetime allowable stress (point estimate) / applied stress"
+        : `${onLowerBound ? "lower-bound" : "point-estimate"} allowable stress / applied stress` +
+          (time.proofCoversLifetime ? "; the proof test guarantees the lifetime" : ""),
     },
-    verdict: verdictLine(input, appliedStress, pass, onLowerBound, governing, margin),
+    verdict: verdictLine(input, appliedStress, pass, onLowerBound, governing, margin, lifeGoverns, time.proofCoversLifetime),
+    time,
     fitQuality,
     fitQualityMissing,
     points,
@@ -219,17 +231,23 @@ function verdictLine(
   onLowerBound: boolean,
   governing: number,
   margin: number,
+  lifeGoverns: boolean,
+  proofCovers: boolean,
 ): DesignCheckResult["verdict"] {
   const unit = input.stressUnit;
   const applied = `${fmt(appliedStress)} ${unit}`;
   const allow = `${fmt(governing)} ${unit}`;
-  const basis = onLowerBound
-    ? `the ${pct(input.confidence)} lower-bound allowable stress`
-    : "the point-estimate allowable stress (no confidence bound: not a design verdict on its own)";
+  const life = input.lifetime ? ` over ${fmt(input.lifetime.lifetime)} ${input.lifetime.timeUnit}` : "";
+  const basis = lifeGoverns
+    ? `the allowable stress${life} (slow crack growth, point estimate: not a design verdict on its own)`
+    : (onLowerBound
+        ? `the ${pct(input.confidence)} lower-bound allowable stress`
+        : "the point-estimate allowable stress (no confidence bound: not a design verdict on its own)") +
+      (proofCovers ? `, with the proof test guaranteeing the life${life}` : "");
   const text = pass
     ? `PASS: the applied stress ${applied} is at or below ${basis}, ${allow}; margin ${fmt(margin)}.`
     : `FAIL: the applied stress ${applied} exceeds ${basis}, ${allow}; margin ${fmt(margin)}.`;
-  return { pass, onLowerBound, text };
+  return { pass, onLowerBound: onLowerBound && !lifeGoverns, text };
 }
 
 /**

@@ -75,6 +75,20 @@ export interface DesignCheckInput {
   appliedStress: number | null;
   /** Parts in a production lot. */
   lotSize: number;
+  /** Sustained constant stress over a lifetime, with the crack-growth parameters (optional). */
+  lifetime: LifetimeInput | null;
+  /** A proof test of every part (optional). */
+  proof: { proofStress: number } | null;
+}
+
+export interface LifetimeInput {
+  /** Required life at the applied stress, in the time unit of B. */
+  lifetime: number;
+  timeUnit: string;
+  /** Slow-crack-growth exponent, > 2. */
+  n: number;
+  /** Slow-crack-growth parameter B, stress² x time. */
+  B: number;
 }
 
 export const METHOD_LABELS: Record<EstimationMethod, string> = {

@@ -36,5 +36,4 @@ export const optionalCore: OptionalCore = {};
 export const MISSING = {
   bounds: "confidence bounds are not in this build yet, so no lower-bound allowable is given",
   fitQuality: "the goodness-of-fit test is not in this build yet: judge the plot by eye",
-  lifetime: "lifetime under sustained load and proof testing arrive with the slow-crack-growth functions",
 } as const;

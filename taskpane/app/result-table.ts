@@ -60,6 +60,42 @@ export function resultRows(r: DesignCheckResult): ResultRow[] {
       display: String(r.failuresUpperBound.value),
       basis: r.failuresUpperBound.basis,
     },
+    ...timeRows(r, stress),
     { id: "margin", label: "Margin (allowable / applied)", value: r.margin.value, display: sig(r.margin.value, 3), basis: r.margin.basis },
   ];
+}
+
+function timeRows(r: DesignCheckResult, stress: (x: number) => string): ResultRow[] {
+  const t = r.time;
+  const rows: ResultRow[] = [];
+  const life = r.input.lifetime;
+  if (t.lifetimeAllowable && life) {
+    rows.push({
+      id: "lifetime-allowable",
+      label: `Allowable constant stress over ${sig(life.lifetime)} ${life.timeUnit}`,
+      value: t.lifetimeAllowable.value,
+      display: stress(t.lifetimeAllowable.value),
+      basis: t.lifetimeAllowable.basis,
+    });
+  }
+  if (t.proofBreaks) {
+    rows.push({ id: "proof-breaks", label: "Parts broken by the proof test", value: t.proofBreaks.value, display: formatProbability(t.proofBreaks.value), basis: t.proofBreaks.basis });
+  }
+  if (t.postProofFailureProbability) {
+    rows.push({
+      id: "post-proof-pf",
+      label: "Failure probability of proof-test survivors at the applied stress",
+      value: t.postProofFailureProbability.value,
+      display: formatProbability(t.postProofFailureProbability.value),
+      basis: t.postProofFailureProbability.basis,
+    });
+  }
+  if (r.input.proof && life) {
+    rows.push(
+      t.proofMinimumLife
+        ? { id: "proof-min-life", label: "Minimum life guaranteed by the proof test", value: t.proofMinimumLife.value, display: `${sig(t.proofMinimumLife.value)} ${life.timeUnit}`, basis: t.proofMinimumLife.basis }
+        : { id: "proof-min-life", label: "Minimum life guaranteed by the proof test", value: null, display: "none", basis: t.proofMinimumLifeMissing ?? "" },
+    );
+  }
+  return rows;
 }

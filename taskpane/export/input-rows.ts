@@ -33,5 +33,11 @@ export function inputRows(input: DesignCheckInput): InputRow[] {
   else rows.push({ label: "Expected failures allowed per lot", value: input.requirement.allowedFailures, unit: "" });
   rows.push({ label: "Applied peak stress", value: input.appliedStress ?? "peak of the element table", unit: input.appliedStress === null ? "" : input.stressUnit });
   rows.push({ label: "Parts per lot", value: input.lotSize, unit: "" });
+  if (input.lifetime) {
+    rows.push({ label: "Required life", value: input.lifetime.lifetime, unit: input.lifetime.timeUnit });
+    rows.push({ label: "Crack-growth exponent n", value: input.lifetime.n, unit: "" });
+    rows.push({ label: "Crack-growth parameter B", value: input.lifetime.B, unit: `${input.stressUnit}² ${input.lifetime.timeUnit}` });
+  }
+  if (input.proof) rows.push({ label: "Proof stress", value: input.proof.proofStress, unit: input.stressUnit });
   return rows;
 }

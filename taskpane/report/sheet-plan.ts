@@ -163,6 +163,13 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
     input1("applied", "Applied peak stress", input.appliedStress, stressUnit, "");
   }
   input1("lotSize", "Parts per lot", input.lotSize, "", "");
+  const life = input.lifetime;
+  if (life) {
+    input1("lifetime", "Required life at the applied stress", life.lifetime, safeText(life.timeUnit), "constant stress");
+    input1("scgN", "Crack-growth exponent n", life.n, "", "service environment");
+    input1("scgB", "Crack-growth parameter B", life.B, `${stressUnit}² ${safeText(life.timeUnit)}`, "service environment");
+  }
+  if (input.proof) input1("proofStress", "Proof stress", input.proof.proofStress, stressUnit, "every part, inert unloading");
 
   // ---- Results ----
   row++;
@@ -243,19 +250,60 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
     put(row, C, [["", result.allowableLowerMissing ?? ""]], "text");
     row++;
   }
-  const governing = refs.allowableLower ?? refs.allowablePoint;
+  const shortTerm = refs.allowableLower ?? refs.allowablePoint;
   result1("pfApplied", "Failure probability at the applied stress", `=BRITTLE.FAILPROB(${refs.applied},${m},${th},${k})`, "", "point estimate", PROBABILITY);
   result1("expected", "Expected failures per lot", `=BRITTLE.LOTFAILURES(${refs.pfApplied},${refs.lotSize})`, "", "point estimate x parts per lot", "0.000");
   result1("upperCount", `Failures per lot, ${conf} upper count`, `=BRITTLE.LOTFAILURES(${refs.pfApplied},${refs.lotSize},${refs.confidence})`, "", "binomial lot chance only, not fit uncertainty", "0");
+
+  // Time under load: the same relations as the form, live where the build registers them.
+  const derived = (key: string, label: string, fn: string, formula: string, value: number | null, unit: string, note: string, format?: string) => {
+    if (fns.has(fn)) result1(key, label, formula, unit, note, format);
+    else {
+      put(row, A, [[label]], "label");
+      put(row, B, [[value ?? "not available"]], value === null ? "text" : "data", false, format);
+      put(row, C, [[unit, `${note} (value when written: ${fn} is not in this build)`]], "text");
+      refs[key] = absolute(row, B);
+      row++;
+    }
+  };
+  const t = result.time;
+  if (life) {
+    derived("lifetimeAllowable", "Allowable stress over the lifetime", "LIFEDESIGNSTRESS",
+      `=BRITTLE.LIFEDESIGNSTRESS(${refs.survivalUsed},${refs.lifetime},${m},${th},${refs.scgN},${refs.scgB},${k})`,
+      t.lifetimeAllowable?.value ?? null, stressUnit, "slow crack growth, point estimate", STRESS);
+  }
+  if (input.proof) {
+    derived("proofBreaks", "Parts broken by the proof test", "PROOFBREAKS", `=BRITTLE.PROOFBREAKS(${refs.proofStress},${m},${th},${k})`,
+      t.proofBreaks?.value ?? null, "", "point estimate", PROBABILITY);
+    derived("postProofPf", "Failure probability of survivors at the applied stress", "POSTPROOFFAILPROB",
+      `=BRITTLE.POSTPROOFFAILPROB(${refs.applied},${refs.proofStress},${m},${th},${k})`,
+      t.postProofFailureProbability?.value ?? null, "", "inert loading; 0 at or below the proof stress", PROBABILITY);
+    if (life) {
+      derived("proofMinLife", "Minimum life guaranteed by the proof test", "PROOFMINLIFE",
+        `=BRITTLE.PROOFMINLIFE(${refs.proofStress},${refs.applied},${refs.scgN},${refs.scgB})`,
+        t.proofMinimumLife?.value ?? null, safeText(life.timeUnit), "#NUM! when the applied stress exceeds the proof stress");
+    }
+  }
+  let governing = shortTerm;
+  if (life) {
+    const lowest = `MIN(${shortTerm},${refs.lifetimeAllowable})`;
+    const formula = input.proof
+      ? `=IF(IFERROR(${refs.proofMinLife},0)>=${refs.lifetime},${shortTerm},${lowest})`
+      : `=${lowest}`;
+    result1("governing", "Governing allowable stress", formula, stressUnit,
+      input.proof ? "lower of short-term and lifetime, unless the proof test guarantees the life" : "lower of short-term and lifetime", STRESS);
+    governing = refs.governing;
+  }
   result1("margin", "Margin (allowable / applied)", `=${governing}/${refs.applied}`, "", refs.allowableLower ? "on the lower-bound allowable" : "on the point estimate: no confidence bound", RATIO);
   result1(
     "verdict",
     "Verdict",
     `=IF(${refs.applied}<=${governing},"PASS","FAIL")`,
     "",
-    refs.allowableLower
+    (refs.allowableLower
       ? "PASS when the applied stress is at or below the lower-bound allowable stress"
-      : "PASS when the applied stress is at or below the point-estimate allowable stress (provisional: no confidence bound)",
+      : "PASS when the applied stress is at or below the point-estimate allowable stress (provisional: no confidence bound)") +
+      (life ? ", and over the lifetime" : ""),
   );
 
   // ---- Cautions ----
