@@ -85,7 +85,7 @@ export function runDesignCheck(input: DesignCheckInput): DesignCheckResult {
     `assumes one ${input.flaws} flaw population, the same surface finish and environment in both (ASTM C1683)`;
   const appliedStress = input.appliedStress ?? sizes.tablePeak;
   if (appliedStress === null) throw new Error("give the applied peak stress");
-  const appliedBasis = input.appliedStress === null ? "peak tensile stress of the element table" : "as typed";
+  const appliedBasis = input.appliedStress === null ? "peak tensile stress of the element table" : "as typed in the form";
 
   const target = targetProbability(input);
   const allowable =

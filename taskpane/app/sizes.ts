@@ -29,7 +29,7 @@ export function resolveSizes(input: DesignCheckInput, shape: number): ResolvedSi
   const s = input.specimen;
   let specimen: ResolvedSize;
   if (s.kind === "typed") {
-    specimen = { value: s.effectiveSize, how: "typed" };
+    specimen = { value: s.effectiveSize, how: "typed in the form" };
   } else if (s.kind === "preset") {
     const preset = findSpecimen(s.configuration);
     specimen = {
@@ -45,7 +45,7 @@ export function resolveSizes(input: DesignCheckInput, shape: number): ResolvedSi
   }
 
   const p = input.part;
-  if (p.kind === "typed") return { specimen, part: { value: p.effectiveSize, how: "typed" }, tablePeak: null };
+  if (p.kind === "typed") return { specimen, part: { value: p.effectiveSize, how: "typed in the form" }, tablePeak: null };
   const risk = partRisk({
     stresses: Float64Array.from(p.stresses.flat()),
     columns: p.columns,
