@@ -96,8 +96,8 @@ export function cautionsFor(result: DesignCheckResult): Caution[] {
       id: "fit",
       level: "note",
       text:
-        "Goodness of fit is not tested in this build: check the plot for a bend (two flaw populations) or an outlying " +
-        "low value before relying on the fit.",
+        `Goodness of fit is not tested here (${result.fitQualityMissing}): check the plot for a bend (two flaw ` +
+        "populations) or an outlying low value before relying on the fit.",
     });
   }
   if (!result.parameters.converged) {

@@ -114,7 +114,8 @@ export function runDesignCheck(input: DesignCheckInput): DesignCheckResult {
 
   let fitQuality: FitQuality | null = null;
   let fitQualityMissing: string | undefined;
-  if (sample && optionalCore.fitQuality) fitQuality = optionalCore.fitQuality(sample);
+  if (sample && censoredStrengths.length > 0) fitQualityMissing = "the goodness-of-fit test applies to complete samples only";
+  else if (sample && optionalCore.fitQuality) fitQuality = optionalCore.fitQuality(sample);
   else if (sample) fitQualityMissing = MISSING.fitQuality;
 
   return {

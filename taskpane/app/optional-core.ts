@@ -35,5 +35,5 @@ export const optionalCore: OptionalCore = {};
 /** Why a piece is missing, in words the result can show. */
 export const MISSING = {
   bounds: "confidence bounds are not in this build yet, so no lower-bound allowable is given",
-  fitQuality: "the goodness-of-fit test is not in this build yet: judge the plot by eye",
+  fitQuality: "the Anderson-Darling test is not in this build yet",
 } as const;

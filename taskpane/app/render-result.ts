@@ -41,7 +41,7 @@ export function renderLegend(data: PlotData): void {
   ];
   if (data.partLine) items.push(["part-line", "the same line at the part's size"]);
   if (data.band) items.push(["band", `two-sided ${formatPercent(data.confidence)} confidence band`]);
-  else items.push(["no-band", "confidence band: not in this build"]);
+  else items.push(["no-band", data.bandMissing]);
   if (data.censored.length) items.push(["censored", "censored specimens (strength only)"]);
   items.push(["design-point", "design point: allowable stress (point estimate) at the allowed failure probability"]);
   items.push(["applied", "applied peak stress"]);

@@ -26,6 +26,8 @@ export interface PlotData {
   specimenLine: StressProbability[];
   partLine: StressProbability[] | null;
   band: BandPoint[] | null;
+  /** Why there is no band, for the legend. */
+  bandMissing: string;
   design: StressProbability;
   applied: number;
   probabilityRange: [number, number];
@@ -73,6 +75,11 @@ export function plotData(result: DesignCheckResult): PlotData {
     specimenLine,
     partLine,
     band,
+    bandMissing: !result.sample
+      ? "confidence band: none for typed parameters"
+      : result.censoredStrengths.length > 0
+        ? "confidence band: drawn for complete samples only"
+        : "confidence band: not in this build",
     design,
     applied: result.appliedStress.value,
     probabilityRange: [pMin, pMax],
@@ -89,7 +96,8 @@ export function plotData(result: DesignCheckResult): PlotData {
 function confidenceBand(result: DesignCheckResult, pMin: number, pMax: number): BandPoint[] | null {
   const bound = optionalCore.designStressLowerBound;
   const sample = result.sample;
-  if (!bound || !sample) return null;
+  // A censored sample's bound simulates its pattern on every call: one bound is quick, a band of fifty is not.
+  if (!bound || !sample || result.censoredStrengths.length > 0) return null;
   const c = result.input.confidence;
   return logitGrid(pMin, pMax, BAND_STEPS).map((p) => ({
     probability: p,
