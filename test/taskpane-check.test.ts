@@ -9,7 +9,7 @@
  * everything else is the core (tested against mpmath/scipy elsewhere), named
  * where used.
  */
-import { afterEach, describe, expect, it } from "vitest";
+import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import jStat from "jstat";
 import { runDesignCheck } from "../taskpane/app/check";
 import { cautionsFor, FAR_EXTRAPOLATION_DECADES } from "../taskpane/app/cautions";
@@ -46,9 +46,16 @@ function input(overrides: Partial<DesignCheckInput> = {}): DesignCheckInput {
   };
 }
 
-afterEach(() => {
+// Tests of the path without bounds or fit quality take the plug-ins out; every test gets the build's own back.
+const built = { ...optionalCore };
+function withoutOptionalCore(): void {
   delete optionalCore.designStressLowerBound;
   delete optionalCore.fitQuality;
+}
+beforeEach(() => Object.assign(optionalCore, built));
+afterEach(() => {
+  withoutOptionalCore();
+  Object.assign(optionalCore, built);
 });
 
 describe("pasted strengths", () => {
@@ -85,7 +92,9 @@ describe("pasted element tables", () => {
 });
 
 describe("the result against published formulas", () => {
+  withoutOptionalCore();
   const r = runDesignCheck(input());
+  Object.assign(optionalCore, built);
   const { shape: m, scale: th } = r.parameters;
   const k = 800 / 12.5;
 
@@ -117,7 +126,7 @@ describe("the result against published formulas", () => {
     expect(r.extrapolationDecades).toBeCloseTo(Math.log10(lowest / specimenPf), 6);
   });
 
-  it("says which method and assumptions produced each row", () => {
+  it("says which method and assumptions produced each row (build without bounds)", () => {
     const rows = resultRows(r);
     for (const row of rows) expect(row.basis.length, row.id).toBeGreaterThan(10);
     expect(rows.find((x) => x.id === "allowable-lower")!.display).toBe("not available");
@@ -163,6 +172,8 @@ describe("lifetime and proof test against METHODS.md section 6", () => {
 describe("caution notes", () => {
   const ids = (r: ReturnType<typeof runDesignCheck>) => Object.fromEntries(cautionsFor(r).map((c) => [c.id, c.level]));
 
+  beforeEach(withoutOptionalCore);
+
   it("always carries the extrapolation, size, environment and code notes", () => {
     const c = ids(runDesignCheck(input()));
     for (const id of ["extrapolation", "size", "environment", "codes"]) expect(c[id], id).toBeDefined();
@@ -196,6 +207,7 @@ describe("caution notes", () => {
 
 describe("plugging in the lower confidence bound", () => {
   it("puts the verdict and margin on the bound once the build provides one", () => {
+    withoutOptionalCore();
     const calls: unknown[] = [];
     optionalCore.designStressLowerBound = (args) => {
       calls.push(args);
@@ -218,8 +230,10 @@ describe("plugging in the lower confidence bound", () => {
 });
 
 describe("probability plot coordinates", () => {
+  withoutOptionalCore();
   const r = runDesignCheck(input());
   const d = plotData(r);
+  Object.assign(optionalCore, built);
   it("puts the design point on the part-size line and spans the data and the design point", () => {
     expect(d.design).toEqual({ stress: r.allowablePoint.value, probability: r.targetFailureProbability.value });
     const { shape: m, scale: th } = r.parameters;
