@@ -44,6 +44,7 @@ export function renderLegend(data: PlotData): void {
   else items.push(["no-band", data.bandMissing]);
   if (data.censored.length) items.push(["censored", "censored specimens (strength only)"]);
   items.push(["design-point", "design point: allowable stress (point estimate) at the allowed failure probability"]);
+  if (data.designLower) items.push(["design-point-lower", `the same at the ${formatPercent(data.confidence)} lower bound`]);
   items.push(["applied", "applied peak stress"]);
   byId("plot-legend").replaceChildren(
     ...items.map(([cls, text]) => el("li", { className: `key-${cls}` }, [el("span", { className: "swatch", attrs: { "aria-hidden": "true" } }), document.createTextNode(text)])),

@@ -29,6 +29,8 @@ export interface PlotData {
   /** Why there is no band, for the legend. */
   bandMissing: string;
   design: StressProbability;
+  /** The lower-bound allowable stress at the same probability, where the build has bounds. */
+  designLower: StressProbability | null;
   applied: number;
   probabilityRange: [number, number];
   stressRange: [number, number];
@@ -62,6 +64,7 @@ export function plotData(result: DesignCheckResult): PlotData {
     ...failures.map((f) => f.stress),
     ...result.censoredStrengths,
     design.stress,
+    ...(result.allowableLower ? [result.allowableLower.value] : []),
     result.appliedStress.value,
     ...(band ? band.flatMap((b) => [b.lower, b.upper]) : []),
   ];
@@ -81,6 +84,7 @@ export function plotData(result: DesignCheckResult): PlotData {
         ? "confidence band: drawn for complete samples only"
         : "confidence band: not in this build",
     design,
+    designLower: result.allowableLower ? { stress: result.allowableLower.value, probability: target } : null,
     applied: result.appliedStress.value,
     probabilityRange: [pMin, pMax],
     stressRange: [Math.min(...stresses) / 1.1, Math.max(...stresses) * 1.1],

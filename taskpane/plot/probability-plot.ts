@@ -94,6 +94,11 @@ export function drawProbabilityPlot(container: HTMLElement, data: PlotData, stre
     .attr("d", symbol(symbolTriangle, 60)())
     .attr("transform", (s) => `translate(${x(s)},${HEIGHT - MARGIN.bottom - 7})`);
 
+  if (data.designLower) {
+    svg.append("path").attr("class", "design-point-lower")
+      .attr("d", symbol(symbolDiamond, 110)())
+      .attr("transform", `translate(${px(data.designLower)},${py(data.designLower)})`);
+  }
   svg.append("path").attr("class", "design-point")
     .attr("d", symbol(symbolDiamond, 110)())
     .attr("transform", `translate(${px(data.design)},${py(data.design)})`);
@@ -144,6 +149,7 @@ function describe(data: PlotData, unit: string): string {
     data.partLine ? "the same line moved to the part's size" : "",
     data.band ? "a confidence band" : "",
     `the design point at ${Number(data.design.stress.toPrecision(4))} ${unit} and failure probability ${percentLabel(data.design.probability)}`,
+    data.designLower ? `the lower-bound allowable stress ${Number(data.designLower.stress.toPrecision(4))} ${unit}` : "",
     `and the applied stress ${Number(data.applied.toPrecision(4))} ${unit}`,
   ];
   return parts.filter(Boolean).join(", ") + ".";
