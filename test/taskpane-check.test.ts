@@ -51,6 +51,7 @@ const built = { ...optionalCore };
 function withoutOptionalCore(): void {
   delete optionalCore.designStressLowerBound;
   delete optionalCore.fitQuality;
+  delete optionalCore.populationChecks;
 }
 beforeEach(() => Object.assign(optionalCore, built));
 afterEach(() => {
@@ -202,6 +203,19 @@ describe("caution notes", () => {
     expect(cautionsFor(poor).find((c) => c.id === "fit")!.text).toMatch(/A\* 1\.200, observed significance 0\.0040/);
     optionalCore.fitQuality = () => ({ statistic: 0.3, significance: 0.6 });
     expect(ids(runDesignCheck(input())).fit).toBeUndefined();
+  });
+});
+
+describe("plugging in the one-population checks", () => {
+  it("warns of a bend or an outlying low value only when its test rejects at 5 %", () => {
+    withoutOptionalCore();
+    optionalCore.populationChecks = () => ({ bend: { pValue: 0.01, knotStrength: 402.5 }, lowOutlier: { pValue: 0.2, strength: 377.9 } });
+    const c = cautionsFor(runDesignCheck(input()));
+    expect(c.find((x) => x.id === "bend")).toMatchObject({ level: "warning" });
+    expect(c.find((x) => x.id === "bend")!.text).toMatch(/bends near 402\.5 MPa \(two-segment test, p = 0\.010\)/);
+    expect(c.find((x) => x.id === "low-outlier")).toBeUndefined();
+    optionalCore.populationChecks = () => ({ bend: null, lowOutlier: { pValue: 0.003, strength: 377.9 } });
+    expect(cautionsFor(runDesignCheck(input())).find((x) => x.id === "low-outlier")!.text).toMatch(/377\.9 MPa, is unusually low/);
   });
 });
 

@@ -100,6 +100,28 @@ export function cautionsFor(result: DesignCheckResult): Caution[] {
         "populations) or an outlying low value before relying on the fit.",
     });
   }
+  const checks = result.populationChecks;
+  const unit = result.input.stressUnit;
+  if (checks?.bend && checks.bend.pValue < POOR_FIT_SIGNIFICANCE) {
+    out.push({
+      id: "bend",
+      level: "warning",
+      text:
+        `The probability plot bends near ${Number(checks.bend.knotStrength.toPrecision(4))} ${unit} ` +
+        `(two-segment test, p = ${checks.bend.pValue.toPrecision(2)}): two flaw populations may be mixed. Sort the ` +
+        "fracture origins and fit the population that governs the part, with the others censored.",
+    });
+  }
+  if (checks?.lowOutlier && checks.lowOutlier.pValue < POOR_FIT_SIGNIFICANCE) {
+    out.push({
+      id: "low-outlier",
+      level: "warning",
+      text:
+        `The weakest specimen, ${Number(checks.lowOutlier.strength.toPrecision(4))} ${unit}, is unusually low for one ` +
+        `Weibull population (p = ${checks.lowOutlier.pValue.toPrecision(2)}): find its fracture origin before ` +
+        "discarding or keeping it; a rare severe flaw is exactly what governs a large part.",
+    });
+  }
   if (!result.parameters.converged) {
     out.push({ id: "converged", level: "warning", text: "The fit did not converge: do not use these numbers." });
   }

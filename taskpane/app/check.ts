@@ -15,7 +15,7 @@ import { estimateWeibull } from "../../src/weibull/estimate";
 import { plottingPositions, type PlotPoint } from "../../src/weibull/plotting-positions";
 import type { StrengthSample } from "../../src/weibull/sample";
 import { METHOD_LABELS, type DesignCheckInput } from "./inputs";
-import { MISSING, optionalCore, type FitQuality } from "./optional-core";
+import { MISSING, optionalCore, type FitQuality, type PopulationChecks } from "./optional-core";
 import { resolveSizes } from "./sizes";
 import { timeCheck, type TimeCheck } from "./time-check";
 
@@ -60,6 +60,8 @@ export interface DesignCheckResult {
   time: TimeCheck;
   fitQuality: FitQuality | null;
   fitQualityMissing?: string;
+  /** One-population checks, where the build has them. */
+  populationChecks: PopulationChecks | null;
   /** Failure probabilities of the plotted failures (specimen size). */
   points: PlotPoint[];
   censoredStrengths: number[];
@@ -155,6 +157,7 @@ export function runDesignCheck(input: DesignCheckInput): DesignCheckResult {
     time,
     fitQuality,
     fitQualityMissing,
+    populationChecks: sample && optionalCore.populationChecks ? optionalCore.populationChecks(sample) : null,
     points,
     censoredStrengths,
     extrapolationDecades: extrapolation(points, target.value, sizeRatio),

@@ -28,6 +28,14 @@ export interface OptionalCore {
     sizeRatio: number;
   }) => number;
   fitQuality?: (sample: StrengthSample) => FitQuality;
+  /** Tests that one flaw population explains the sample: a bend in the plot, an outlying lowest strength. */
+  populationChecks?: (sample: StrengthSample) => PopulationChecks;
+}
+
+export interface PopulationChecks {
+  /** Null when the sample is too small for the test. */
+  bend: { pValue: number; knotStrength: number } | null;
+  lowOutlier: { pValue: number; strength: number } | null;
 }
 
 export const optionalCore: OptionalCore = {};
