@@ -207,6 +207,8 @@ describe("design-check form in headless Chromium, standalone", () => {
     expect(cautions.some((c) => /licensed engineer/.test(c))).toBe(true);
 
     await page.screenshot({ path: join(ARTIFACTS, "browser-design-check-standalone.png"), fullPage: true });
+    await page.locator("#plot-figure").screenshot({ path: join(ARTIFACTS, "browser-design-check-plot.png") });
+    await page.locator("#check-form").screenshot({ path: join(ARTIFACTS, "browser-design-check-steps.png") });
 
     // Nothing but our own origin was asked for, and nothing broke the page or its CSP.
     for (const url of requests) expect(url.startsWith(baseUrl) || url.startsWith("blob:") || url.startsWith("data:"), url).toBe(true);

@@ -40,7 +40,7 @@ export function renderLegend(data: PlotData): void {
     ["fit-line", "fitted Weibull line, specimen size"],
   ];
   if (data.partLine) items.push(["part-line", "the same line at the part's size"]);
-  if (data.band) items.push(["band", `two-sided ${formatPercent(data.confidence)} confidence band`]);
+  if (data.band) items.push(["band", `two-sided ${formatPercent(data.confidence)} confidence band, specimen size`]);
   else items.push(["no-band", data.bandMissing]);
   if (data.censored.length) items.push(["censored", "censored specimens (strength only)"]);
   items.push(["design-point", "design point: allowable stress (point estimate) at the allowed failure probability"]);
