@@ -223,7 +223,10 @@ function lowerBound(
   return {
     line: {
       value,
-      basis: `one-sided ${pct(input.confidence)} lower confidence bound (pivotal quantities, ASTM C1239 / ISO 20501) on the same design stress`,
+      basis:
+        `one-sided ${pct(input.confidence)} lower confidence bound on the same design stress: pivotal quantity for a Weibull ` +
+        `quantile on the raw maximum-likelihood fit (ASTM C1239 / ISO 20501), whatever the point estimate's method` +
+        (sample.censored?.some(Boolean) ? "; censored: simulated for this censoring pattern" : ""),
     },
   };
 }
