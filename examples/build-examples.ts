@@ -41,10 +41,10 @@ async function buildDatasheet(path: string): Promise<void> {
 
   const inputs: [string, number | string, string][] = [
     ["Test: four-point flexure, ASTM C1161 configuration B", "", ""],
-    ["Effective volume of the test bars, mm^3 (typed)", 10.4, "closed form for configuration B at m = 11.5 (see README)"],
+    ["Effective volume of the test bars, mm^3", "", "live: ASTM C1161 configuration B, four-point, at the fitted modulus"],
     ["Effective volume of the part, mm^3 (typed)", 310, "from the part's stress analysis (invented)"],
     ["Required survival probability", 0.9999, "requirement"],
-    ["Applied peak stress in the part, MPa", 150, "from the part's stress analysis (invented)"],
+    ["Applied peak stress in the part, MPa", 135, "from the part's stress analysis (invented)"],
     ["Parts per production lot", 20000, "planning figure (invented)"],
   ];
   ws.getCell("D4").value = "Inputs";
@@ -55,6 +55,7 @@ async function buildDatasheet(path: string): Promise<void> {
     if (value !== "") ws.getCell(5 + i, 5).value = value;
     ws.getCell(5 + i, 6).value = note;
   });
+  ws.getCell("E6").value = { formula: 'BRITTLE.SPECIMEN("C1161-B-4PT",E13)' } as ExcelJS.CellFormulaValue;
 
   const results: [string, string][] = [
     ["Weibull modulus m (ML, unbiased)", `BRITTLE.MODULUS(${data})`],
