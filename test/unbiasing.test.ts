@@ -67,6 +67,14 @@ describe("pivotal quantiles", () => {
     const euler = 0.5772156649015329;
     expect(Math.abs(t.scaleQuantile(n, 0.95) - z95 * Math.sqrt((1 + (6 * (1 - euler) ** 2) / Math.PI ** 2) / n))).toBeLessThan(0.002);
   });
+  it("join the tabulated quantiles smoothly at the end of the table (within the table's fitted-form error, 7e-4)", () => {
+    const t = pivotalTable();
+    const last = t.maxTabulated;
+    for (const p of [0.025, 0.05, 0.5, 0.95, 0.975]) {
+      expect(Math.abs(t.shapeQuantile(last + 1, p) - t.shapeQuantile(last, p))).toBeLessThan(7e-4 + 2e-4);
+      expect(Math.abs(t.scaleQuantile(last + 1, p) - t.scaleQuantile(last, p))).toBeLessThan(7e-4 + 2e-4);
+    }
+  });
   it("increase with probability and reject probabilities outside the tabulated range", () => {
     const t = pivotalTable();
     for (const n of [3, 10, 47, 250, 900]) {

@@ -9,8 +9,9 @@
  * 1969). Between tabulated sizes we interpolate linearly in 1/n (the leading
  * behaviour of bias and spread); between tabulated probabilities, linearly
  * in the normal score z_p; beyond n = 500, the fitted asymptotic forms
- * q_p = 1 + z_p sqrt(c/n) + d_p/n and t_p = z_p sqrt(c/n) + e_p/n,
- * UF = 1 - a/n - b/n^2.
+ * q_p = 1 + z_p sqrt(c/n) + d_p/n + f_p/n^1.5 and t_p = z_p sqrt(c/n) + e_p/n
+ * + f_p/n^1.5, with c the theoretical asymptotic variances (6/pi^2 for q,
+ * 1 + 6(1 - Euler's gamma)^2/pi^2 for t), and UF = 1 - a/n - b/n^2.
  */
 import { InputError, require } from "../errors";
 import { normalQuantile } from "../numeric/normal";
@@ -28,8 +29,8 @@ interface TableFile {
   rows: Row[];
   largeN: {
     unbiasingFactor: { a: number; b: number };
-    q: { c: number; d: number[] };
-    t: { c: number; e: number[] };
+    q: { c: number; d: number[]; f: number[] };
+    t: { c: number; e: number[]; f: number[] };
   };
 }
 
@@ -88,9 +89,13 @@ function buildTable(file: TableFile): PivotalTable {
     checkSize(n);
     if (n > maxTabulated) {
       const model = key === "q" ? largeN.q : largeN.t;
-      const corrections = key === "q" ? largeN.q.d : largeN.t.e;
-      atProbability(corrections, p); // range check
-      return (key === "q" ? 1 : 0) + normalQuantile(p) * Math.sqrt(model.c / n) + atProbability(corrections, p) / n;
+      const first = key === "q" ? largeN.q.d : largeN.t.e;
+      return (
+        (key === "q" ? 1 : 0) +
+        normalQuantile(p) * Math.sqrt(model.c / n) +
+        atProbability(first, p) / n +
+        atProbability(model.f, p) / (n * Math.sqrt(n))
+      );
     }
     const [i, w] = bracketSize(n);
     const a = atProbability(rows[i][key], p);
