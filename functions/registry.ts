@@ -7,11 +7,13 @@
 import { guard, type CellResult } from "./cells";
 import * as strength from "./strength";
 import * as time from "./time";
+import * as uncertainty from "./uncertainty";
 
 type Adapter = (...args: any[]) => unknown;
 
 export const families: { title: string; adapters: Record<string, Adapter> }[] = [
   { title: "Fitting strength data and designing with the fit", adapters: strength },
+  { title: "Confidence bounds, fit quality, flaw populations and lot checks", adapters: uncertainty },
   { title: "Slow crack growth, lifetime and proof testing", adapters: time },
 ];
 

@@ -1,0 +1,378 @@
+/**
+ * Cell adapters for honest uncertainty: confidence bounds, the fit table, fit
+ * quality, probability-plot points, the design-stress bound, datasheet
+ * conversions, competing flaw populations and the lot check. Each reads its
+ * cells through cells.ts and calls the core in src/weibull; the JSDoc here is
+ * the source of functions.json (custom-functions-metadata).
+ *
+ * Only adapters are exported: the registry registers every export.
+ */
+import { fitQuality } from "../src/weibull/anderson-darling";
+import { parameterBounds, type BoundSides } from "../src/weibull/confidence-bounds";
+import { competingDesignStress, competingFailureProbability, populationSample } from "../src/weibull/competing-populations";
+import { designStressBound } from "../src/weibull/design-stress-bound";
+import type { EstimationMethod } from "../src/weibull/estimate";
+import { summarizeFit, type FitSummary } from "../src/weibull/fit-summary";
+import { compareLots } from "../src/weibull/lot-comparison";
+import { modulusFromCoefficientOfVariation } from "../src/weibull/modulus-from-cv";
+import { plottingPositions, type PlottingEstimator } from "../src/weibull/plotting-positions";
+import { BILINEAR_MIN_FAILURES } from "../src/weibull/bilinear-check";
+import { LOW_OUTLIER_MIN_FAILURES } from "../src/weibull/low-outlier-check";
+import {
+  asRange,
+  CellError,
+  readChoice,
+  readNumber,
+  readOptionalNumber,
+  readPositiveNumbers,
+  readSample,
+  type CellValue,
+} from "./cells";
+import { declareSpills } from "./spill-shapes";
+
+const FIT_ROWS = 20;
+
+declareSpills({
+  FIT: { rows: FIT_ROWS, cols: 2 },
+  ORIGINFIT: { rows: FIT_ROWS, cols: 2 },
+  MODULUSBOUNDS: { rows: 1, cols: 2 },
+  CHARSTRENGTHBOUNDS: { rows: 1, cols: 2 },
+  FITQUALITY: { rows: 1, cols: 2 },
+  PLOTPOINTS: { rows: { cellsOf: 0 }, cols: 2 },
+  LOTCHECK: { rows: 1, cols: 3 },
+});
+
+const METHOD_NAMES = ["MLE", "MLE-RAW", "LSQ", "LSQ-MEANRANK", "LSQ-MEDIANRANK"] as const;
+const METHODS: Record<(typeof METHOD_NAMES)[number], [EstimationMethod, PlottingEstimator]> = {
+  MLE: ["MLE", "HAZEN"],
+  "MLE-RAW": ["MLE-RAW", "HAZEN"],
+  LSQ: ["LSQ", "HAZEN"],
+  "LSQ-MEANRANK": ["LSQ", "MEAN"],
+  "LSQ-MEDIANRANK": ["LSQ", "MEDIAN"],
+};
+const ESTIMATOR_NAMES = ["HAZEN", "MEANRANK", "MEDIANRANK"] as const;
+const ESTIMATORS: Record<(typeof ESTIMATOR_NAMES)[number], PlottingEstimator> = {
+  HAZEN: "HAZEN",
+  MEANRANK: "MEAN",
+  MEDIANRANK: "MEDIAN",
+};
+
+function readSides(value: unknown): BoundSides {
+  const sides = readOptionalNumber(value, "sides", 2);
+  if (sides !== 1 && sides !== 2) throw new CellError("#NUM!", `sides must be 1 (one-sided bounds) or 2 (two-sided) (got ${sides})`);
+  return sides;
+}
+
+function percent(confidence: number): string {
+  return `${Number((confidence * 100).toPrecision(4))} %`;
+}
+
+function fitTable(summary: FitSummary, methodName: string): CellValue[][] {
+  const level = `(${percent(summary.confidence)}, two-sided)`;
+  const q = summary.quality;
+  const b = summary.checks.bilinear;
+  const o = summary.checks.lowOutlier;
+  const rows: CellValue[][] = [
+    ["specimens", summary.specimens],
+    ["failures (population fitted)", summary.failures],
+    ["method", methodName],
+    ["unbiasing factor", summary.unbiasingFactor],
+    ["modulus m", summary.shape],
+    [`modulus, lower bound ${level}`, summary.shapeBounds.lower],
+    [`modulus, upper bound ${level}`, summary.shapeBounds.upper],
+    ["characteristic strength", summary.scale],
+    [`characteristic strength, lower bound ${level}`, summary.scaleBounds.lower],
+    [`characteristic strength, upper bound ${level}`, summary.scaleBounds.upper],
+    ["mean strength", summary.mean],
+    ["median strength", summary.median],
+    ["standard deviation of strength", summary.standardDeviation],
+    ["Anderson-Darling A*", q ? q.aStar : "n/a (censored sample)"],
+    ["observed significance level (OSL)", q ? q.osl : "n/a (censored sample)"],
+    ["plot bend check, p", b ? b.pValue : `n/a (fewer than ${BILINEAR_MIN_FAILURES} failures)`],
+    ["low value check, p", o ? o.pValue : `n/a (fewer than ${LOW_OUTLIER_MIN_FAILURES} failures)`],
+    ["verdict", summary.verdict],
+    [
+      "bounds from",
+      summary.boundsSource === "table"
+        ? "maximum likelihood, pivotal table (complete sample)"
+        : `maximum likelihood, bootstrap conditional on the censoring (${summary.boundsReplications} draws; approximate)`,
+    ],
+    ["converged", summary.converged],
+  ];
+  return rows;
+}
+
+function fitFromCells(sample: { strengths: number[]; censored?: boolean[] }, confidence: unknown, method: unknown): CellValue[][] {
+  const name = readChoice(method, "method", METHOD_NAMES, "MLE");
+  const [how, estimator] = METHODS[name];
+  const summary = summarizeFit({
+    ...sample,
+    confidence: readOptionalNumber(confidence, "confidence", 0.9),
+    method: how,
+    estimator,
+  });
+  return fitTable(summary, name);
+}
+
+/**
+ * Labelled two-column fit table for a supplier datasheet: counts, modulus and characteristic strength with
+ * two-sided confidence bounds (ASTM C1239 pivotal method on the raw maximum-likelihood fit), mean, median, standard
+ * deviation, Anderson-Darling A* and OSL, two single-population checks (plot bend, low value), a verdict in plain
+ * words, and whether the fit converged. Example: =BRITTLE.FIT(B2:B31) spills 20 rows of labels and values.
+ * @customfunction
+ * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
+ * @param [censored] Optional flags, same shape as strengths: TRUE or 1 where the specimen did not fail from the population being fitted.
+ * @param [confidence] Two-sided confidence for the bounds, strictly between 0 and 1 (at most 0.99); default 0.90.
+ * @param [method] Point estimate: "MLE" (default, unbiased maximum likelihood), "MLE-RAW", "LSQ", "LSQ-MEANRANK" or "LSQ-MEDIANRANK". Bounds always come from maximum likelihood.
+ * @returns 20 x 2 table of labels and values.
+ */
+export function FIT(strengths: any[][], censored?: any[][], confidence?: number, method?: string): any[][] {
+  return fitFromCells(readSample(strengths, censored), confidence, method);
+}
+
+/**
+ * Fit one flaw population of a sample with mixed fracture origins: specimens whose origin label equals origin are
+ * failures, all others are censored at their strength (ASTM C1239 / ISO 20501 competing populations). Returns the
+ * same 20-row table as FIT. Example: =BRITTLE.ORIGINFIT(B2:B31, C2:C31, "surface") spills the fit of the surface-flaw
+ * population.
+ * @customfunction
+ * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
+ * @param origins Fracture-origin label of each specimen (text such as "surface", "pore", "inclusion"), same shape as strengths.
+ * @param origin The label of the population to fit (case and surrounding spaces ignored).
+ * @param [confidence] Two-sided confidence for the bounds, strictly between 0 and 1 (at most 0.99); default 0.90.
+ * @param [method] "MLE" (default), "MLE-RAW", "LSQ", "LSQ-MEANRANK" or "LSQ-MEDIANRANK".
+ * @returns 20 x 2 table of labels and values.
+ */
+export function ORIGINFIT(strengths: any[][], origins: any[][], origin: string, confidence?: number, method?: string): any[][] {
+  const numbers = readPositiveNumbers(strengths, "strengths");
+  if (numbers.values.length < 2) {
+    throw new CellError("#NUM!", `strengths: a fit needs at least two specimens (found ${numbers.values.length})`);
+  }
+  const labels = readLabels(origins, numbers);
+  if (typeof origin !== "string" && typeof origin !== "number") throw new CellError("#VALUE!", "origin must be a label (text)");
+  const sample = populationSample({ strengths: numbers.values, origins: labels, population: String(origin) });
+  return fitFromCells({ strengths: numbers.values, censored: sample.censored as boolean[] }, confidence, method);
+}
+
+/** Origin labels at the cells where a strength was read; a blank label beside a strength is an error. */
+function readLabels(value: unknown, like: ReturnType<typeof readPositiveNumbers>): string[] {
+  const range = asRange(value, "origins");
+  if (range.length !== like.rows || range[0].length !== like.cols) {
+    throw new CellError(
+      "#VALUE!",
+      `origins (${range.length} x ${range[0].length}) must have the same rows and columns as strengths (${like.rows} x ${like.cols})`,
+    );
+  }
+  return like.indices.map((index) => {
+    const r = Math.floor(index / like.cols);
+    const c = index % like.cols;
+    const v = range[r][c];
+    const where = like.cols > 1 ? `origins, row ${r + 1} column ${c + 1}` : `origins, row ${r + 1}`;
+    if (typeof v === "number") return String(v);
+    if (typeof v !== "string" || v.trim() === "") throw new CellError("#VALUE!", `${where} needs a fracture-origin label`);
+    return v;
+  });
+}
+
+function boundsFromCells(strengths: unknown, confidence: unknown, censored: unknown, sides: unknown) {
+  return parameterBounds({
+    ...readSample(strengths, censored),
+    confidence: readOptionalNumber(confidence, "confidence", 0.9),
+    sides: readSides(sides),
+  });
+}
+
+/**
+ * Confidence bounds on the Weibull modulus by the pivotal method of ASTM C1239 / ISO 20501: m_hat/q, with q the
+ * simulated quantiles of m_hat/m and m_hat the raw maximum-likelihood modulus. Censored samples simulate their own
+ * censoring pattern. Example: =BRITTLE.MODULUSBOUNDS(B2:B31) spills the lower and upper 90 % bounds.
+ * @customfunction
+ * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
+ * @param [confidence] Confidence, strictly between 0 and 1 (two-sided: at most 0.99; one-sided: 0.005 to 0.995); default 0.90.
+ * @param [censored] Optional flags, same shape as strengths: TRUE or 1 where the specimen did not fail from the population being fitted.
+ * @param [sides] 2 (default): a two-sided interval; 1: each value is a one-sided bound at the confidence.
+ * @returns 1 x 2: lower bound, upper bound.
+ */
+export function MODULUSBOUNDS(strengths: any[][], confidence?: number, censored?: any[][], sides?: number): number[][] {
+  const { shape } = boundsFromCells(strengths, confidence, censored, sides);
+  return [[shape.lower, shape.upper]];
+}
+
+/**
+ * Confidence bounds on the characteristic strength by the pivotal method of ASTM C1239 / ISO 20501:
+ * th_hat exp(-t/m_hat), with t the simulated quantiles of m_hat ln(th_hat/th) and raw maximum-likelihood estimates.
+ * Example: =BRITTLE.CHARSTRENGTHBOUNDS(B2:B31, 0.95) spills the lower and upper 95 % bounds.
+ * @customfunction
+ * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
+ * @param [confidence] Confidence, strictly between 0 and 1 (two-sided: at most 0.99; one-sided: 0.005 to 0.995); default 0.90.
+ * @param [censored] Optional flags, same shape as strengths: TRUE or 1 where the specimen did not fail from the population being fitted.
+ * @param [sides] 2 (default): a two-sided interval; 1: each value is a one-sided bound at the confidence.
+ * @returns 1 x 2: lower bound, upper bound, in the units of the strengths.
+ */
+export function CHARSTRENGTHBOUNDS(strengths: any[][], confidence?: number, censored?: any[][], sides?: number): number[][] {
+  const { scale } = boundsFromCells(strengths, confidence, censored, sides);
+  return [[scale.lower, scale.upper]];
+}
+
+/**
+ * Goodness of fit to a Weibull distribution: the modified Anderson-Darling statistic A* = A2 (1 + 0.2/sqrt(N)) with
+ * both parameters estimated by maximum likelihood (critical values 0.637, 0.757, 1.038 at 10, 5, 1 %; Lawless 1982),
+ * and its observed significance level OSL = 1/(1 + exp(-0.10 + 1.24 ln A* + 4.48 A*)) (CMH-17-1G). OSL <= 0.05
+ * rejects the Weibull model. Complete samples only. Example: =BRITTLE.FITQUALITY(B2:B31) spills A* and the OSL.
+ * @customfunction
+ * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
+ * @param [censored] Optional flags; a sample with censored specimens returns #N/A (the test needs a complete sample).
+ * @returns 1 x 2: A*, observed significance level.
+ */
+export function FITQUALITY(strengths: any[][], censored?: any[][]): number[][] {
+  const sample = readSample(strengths, censored);
+  if (sample.censored?.some(Boolean)) {
+    throw new CellError("#N/A", "the Anderson-Darling test needs a complete sample: this one has censored specimens");
+  }
+  const q = fitQuality(sample);
+  return [[q.aStar, q.osl]];
+}
+
+/**
+ * Weibull probability-plot coordinates of the failures, in increasing strength: X = ln(strength) and
+ * Y = ln(ln(1/(1 - P))). P by (i - 0.5)/N ("HAZEN", default), i/(N + 1) ("MEANRANK") or (i - 0.3)/(N + 0.4)
+ * ("MEDIANRANK"); censored samples use Johnson's adjusted ranks. A fitted line is Y = m (X - ln charStrength).
+ * Censored specimens and blank cells leave blank rows at the end. Example: =BRITTLE.PLOTPOINTS(B2:B31) spills 30
+ * rows of X and Y.
+ * @customfunction
+ * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
+ * @param [censored] Optional flags, same shape as strengths: TRUE or 1 where the specimen did not fail from the population being fitted.
+ * @param [estimator] "HAZEN" (default), "MEANRANK" or "MEDIANRANK".
+ * @returns n x 2: ln(strength), ln(ln(1/(1 - P))).
+ */
+export function PLOTPOINTS(strengths: any[][], censored?: any[][], estimator?: string): any[][] {
+  const numbers = readPositiveNumbers(strengths, "strengths");
+  const sample = readSample(strengths, censored);
+  const which = ESTIMATORS[readChoice(estimator, "estimator", ESTIMATOR_NAMES, "HAZEN")];
+  const points = plottingPositions(sample, which);
+  const rows: CellValue[][] = points.map((p) => [p.x, p.y]);
+  // The engine reserves one row per cell of the range; fill the rest with blanks.
+  while (rows.length < numbers.rows * numbers.cols) rows.push(["", ""]);
+  return rows;
+}
+
+/**
+ * Lower confidence bound on the design stress: the stress that a part sizeRatio times the specimens' effective size
+ * survives with probability survival, bounded below with the stated confidence, by the pivotal quantity
+ * u = m_hat ln(x_hat/x) for a Weibull quantile (raw maximum-likelihood fit; Thoman, Bain & Antle 1969). This is the
+ * number to design on, not the point estimate. Example: =BRITTLE.DESIGNSTRESSBOUND(0.9999, B2:B31, 0.95, 25) returns
+ * a stress in the units of B2:B31.
+ * @customfunction
+ * @param survival Required survival probability, strictly between 0 and 1 (e.g. 0.9999).
+ * @param strengths Fracture strengths of the tested specimens (MPa or any stress unit). Blanks and zeros are skipped.
+ * @param [confidence] One-sided confidence of the lower bound, strictly between 0 and 1 (0.005 to 0.995); default 0.95.
+ * @param [sizeRatio] Effective size of the part divided by that of the specimens (> 0); default 1.
+ * @param [censored] Optional flags, same shape as strengths: TRUE or 1 where the specimen did not fail from the population being fitted.
+ * @returns Lower confidence bound on the allowable peak stress, in the units of the strengths.
+ */
+export function DESIGNSTRESSBOUND(survival: number, strengths: any[][], confidence?: number, sizeRatio?: number, censored?: any[][]): number {
+  return designStressBound({
+    survival: readNumber(survival, "survival"),
+    ...readSample(strengths, censored),
+    confidence: readOptionalNumber(confidence, "confidence", 0.95),
+    sizeRatio: readOptionalNumber(sizeRatio, "sizeRatio", 1),
+  }).lower;
+}
+
+/**
+ * Weibull modulus implied by a datasheet's mean strength and standard deviation: solves
+ * Gamma(1 + 2/m) / Gamma(1 + 1/m)^2 - 1 = (stdev/mean)^2 exactly. A method-of-moments value, not the
+ * maximum-likelihood modulus of the original tests. Example: =BRITTLE.MODULUSFROMCV(380, 45.8) is about 9.981.
+ * @customfunction
+ * @param mean Mean strength (stress unit, > 0).
+ * @param stdev Standard deviation of strength (same unit, > 0).
+ * @returns Weibull modulus m (dimensionless).
+ */
+export function MODULUSFROMCV(mean: number, stdev: number): number {
+  return modulusFromCoefficientOfVariation({ mean: readNumber(mean, "mean"), standardDeviation: readNumber(stdev, "stdev") }).shape;
+}
+
+function twoPopulations(mA: number, thA: number, mB: number, thB: number, kA?: number, kB?: number) {
+  return [
+    { shape: readNumber(mA, "modulusA"), scale: readNumber(thA, "charStrengthA"), sizeRatio: readOptionalNumber(kA, "sizeRatioA", 1) },
+    { shape: readNumber(mB, "modulusB"), scale: readNumber(thB, "charStrengthB"), sizeRatio: readOptionalNumber(kB, "sizeRatioB", 1) },
+  ];
+}
+
+/**
+ * Failure probability with two competing flaw populations acting together (e.g. surface and volume flaws):
+ * 1 - exp(-kA (stress/charStrengthA)^modulusA - kB (stress/charStrengthB)^modulusB).
+ * Example: =BRITTLE.COMPETINGFAILPROB(300, 10, 400, 5, 900) is about 0.05864.
+ * @customfunction
+ * @param stress Applied peak stress (same unit as the characteristic strengths).
+ * @param modulusA Weibull modulus of population A (> 0).
+ * @param charStrengthA Characteristic strength of population A in the tested specimens (> 0).
+ * @param modulusB Weibull modulus of population B (> 0).
+ * @param charStrengthB Characteristic strength of population B in the tested specimens (> 0).
+ * @param [sizeRatioA] Part-to-specimen effective size ratio for population A's flaws (volume or area); default 1.
+ * @param [sizeRatioB] Part-to-specimen effective size ratio for population B's flaws; default 1.
+ * @returns Failure probability, between 0 and 1.
+ */
+export function COMPETINGFAILPROB(
+  stress: number,
+  modulusA: number,
+  charStrengthA: number,
+  modulusB: number,
+  charStrengthB: number,
+  sizeRatioA?: number,
+  sizeRatioB?: number,
+): number {
+  return competingFailureProbability({
+    stress: readNumber(stress, "stress"),
+    populations: twoPopulations(modulusA, charStrengthA, modulusB, charStrengthB, sizeRatioA, sizeRatioB),
+  });
+}
+
+/**
+ * Design stress with two competing flaw populations: the stress at which the part survives with the stated
+ * probability when both populations act, solving kA (s/charStrengthA)^modulusA + kB (s/charStrengthB)^modulusB = -ln(survival).
+ * Example: =BRITTLE.COMPETINGDESIGNSTRESS(0.999, 10, 400, 5, 900) is about 189.9.
+ * @customfunction
+ * @param survival Required survival probability, strictly between 0 and 1.
+ * @param modulusA Weibull modulus of population A (> 0).
+ * @param charStrengthA Characteristic strength of population A in the tested specimens (> 0).
+ * @param modulusB Weibull modulus of population B (> 0).
+ * @param charStrengthB Characteristic strength of population B in the tested specimens (> 0).
+ * @param [sizeRatioA] Part-to-specimen effective size ratio for population A's flaws (volume or area); default 1.
+ * @param [sizeRatioB] Part-to-specimen effective size ratio for population B's flaws; default 1.
+ * @returns Allowable peak stress, in the units of the characteristic strengths.
+ */
+export function COMPETINGDESIGNSTRESS(
+  survival: number,
+  modulusA: number,
+  charStrengthA: number,
+  modulusB: number,
+  charStrengthB: number,
+  sizeRatioA?: number,
+  sizeRatioB?: number,
+): number {
+  return competingDesignStress({
+    survival: readNumber(survival, "survival"),
+    populations: twoPopulations(modulusA, charStrengthA, modulusB, charStrengthB, sizeRatioA, sizeRatioB),
+  });
+}
+
+/**
+ * Lot check: does a production lot share the qualification baseline's Weibull modulus and characteristic strength?
+ * Likelihood-ratio test with a p-value calibrated by seeded simulation (the chi-square approximation is poor for
+ * small lots). Example: =BRITTLE.LOTCHECK(B2:B11, C2:C31) spills the statistic, the p-value and a verdict.
+ * @customfunction
+ * @param lotStrengths Fracture strengths of specimens from the production lot (complete sample).
+ * @param baselineStrengths Fracture strengths of the qualification baseline (complete sample).
+ * @param [confidence] Confidence of the test, strictly between 0 and 1; a difference is reported when p <= 1 - confidence. Default 0.95.
+ * @returns 1 x 3: likelihood-ratio statistic, p-value, verdict.
+ */
+export function LOTCHECK(lotStrengths: any[][], baselineStrengths: any[][], confidence?: number): any[][] {
+  const lot = readPositiveNumbers(lotStrengths, "lotStrengths").values;
+  const baseline = readPositiveNumbers(baselineStrengths, "baselineStrengths").values;
+  for (const [name, values] of [["lotStrengths", lot], ["baselineStrengths", baseline]] as const) {
+    if (values.length < 2) throw new CellError("#NUM!", `${name}: the check needs at least two specimens (found ${values.length})`);
+  }
+  const result = compareLots({ lot, baseline, confidence: readOptionalNumber(confidence, "confidence", 0.95) });
+  return [[result.statistic, result.pValue, result.verdict]];
+}
