@@ -50,7 +50,7 @@ EULER_GAMMA = 0.57721566490153286061
 
 
 def replications(n):
-    return 200_000 if n <= 50 else 100_000
+    return 1_000_000 if n <= 50 else 500_000
 
 
 def ml_shape(y):
