@@ -5,6 +5,7 @@
  * Hosts register `guarded`, never the raw adapters.
  */
 import { guard, type CellResult } from "./cells";
+import * as size from "./size";
 import * as strength from "./strength";
 import * as time from "./time";
 import * as uncertainty from "./uncertainty";
@@ -14,6 +15,7 @@ type Adapter = (...args: any[]) => unknown;
 export const families: { title: string; adapters: Record<string, Adapter> }[] = [
   { title: "Fitting strength data and designing with the fit", adapters: strength },
   { title: "Confidence bounds, fit quality, flaw populations and lot checks", adapters: uncertainty },
+  { title: "Effective volume and area: specimens, fixtures and parts", adapters: size },
   { title: "Slow crack growth, lifetime and proof testing", adapters: time },
 ];
 
