@@ -77,6 +77,9 @@ export function isCensored(sample: StrengthSample): boolean {
   return sample.censored?.some(Boolean) ?? false;
 }
 
+/** Sorted copies of each (cached) set of bootstrap draws, made once. */
+const sortedDraws = new WeakMap<object, { q: Float64Array; t: Float64Array }>();
+
 /**
  * Where the q and t quantiles of this sample come from: the table for a
  * complete sample, the conditional bootstrap (at the ML fit `fit`) for a
@@ -99,8 +102,12 @@ export function pivotalSource(sample: StrengthSample, fit?: MaximumLikelihoodFit
     fit: fit ?? fitMaximumLikelihood(sample),
     replications: censoredReplications(n),
   });
-  const q = draws.shapeRatio.slice().sort();
-  const t = draws.scaleLogError.slice().sort();
+  let sorted = sortedDraws.get(draws);
+  if (!sorted) {
+    sorted = { q: draws.shapeRatio.slice().sort(), t: draws.scaleLogError.slice().sort() };
+    sortedDraws.set(draws, sorted);
+  }
+  const { q, t } = sorted;
   const inTail = (p: number) => {
     require(
       Math.min(p, 1 - p) * q.length >= MIN_TAIL_DRAWS,
