@@ -184,8 +184,9 @@ function boundsFromCells(strengths: unknown, confidence: unknown, censored: unkn
 
 /**
  * Confidence bounds on the Weibull modulus by the pivotal method of ASTM C1239 / ISO 20501: m_hat/q, with q the
- * simulated quantiles of m_hat/m and m_hat the raw maximum-likelihood modulus. Censored samples simulate their own
- * censoring pattern. Example: =BRITTLE.MODULUSBOUNDS(B2:B31) spills the lower and upper 90 % bounds.
+ * simulated quantiles of m_hat/m and m_hat the raw maximum-likelihood modulus. Censored samples take the quantiles
+ * from a bootstrap conditional on their censoring values (approximate). Example: =BRITTLE.MODULUSBOUNDS(B2:B31)
+ * spills the lower and upper 90 % bounds.
  * @customfunction
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
  * @param [confidence] Confidence, strictly between 0 and 1 (two-sided: at most 0.99; one-sided: 0.005 to 0.995); default 0.90.
@@ -200,8 +201,9 @@ export function MODULUSBOUNDS(strengths: any[][], confidence?: number, censored?
 
 /**
  * Confidence bounds on the characteristic strength by the pivotal method of ASTM C1239 / ISO 20501:
- * th_hat exp(-t/m_hat), with t the simulated quantiles of m_hat ln(th_hat/th) and raw maximum-likelihood estimates.
- * Example: =BRITTLE.CHARSTRENGTHBOUNDS(B2:B31, 0.95) spills the lower and upper 95 % bounds.
+ * th_hat exp(-t/m_hat), with t the simulated quantiles of m_hat ln(th_hat/th) and raw maximum-likelihood estimates;
+ * censored samples as for MODULUSBOUNDS. Example: =BRITTLE.CHARSTRENGTHBOUNDS(B2:B31, 0.95) spills the lower and
+ * upper 95 % bounds.
  * @customfunction
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
  * @param [confidence] Confidence, strictly between 0 and 1 (two-sided: at most 0.99; one-sided: 0.005 to 0.995); default 0.90.
