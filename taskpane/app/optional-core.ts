@@ -1,12 +1,15 @@
 /**
- * The plug-in point for parts of the core that arrive with later work:
- * confidence bounds and fit quality (issue 3), effective sizes of specimens
- * and parts (issue 4), lifetime and proof testing (issue 5). Each entry is
- * filled in here, in one place, when its core module lands; until then the
- * form takes the typed path and says in the result that the piece is missing.
+ * The plug-in point for the core's uncertainty pieces: the lower confidence
+ * bound on the design stress, goodness of fit, and the one-population
+ * checks. The form works without any of them (tests take them out to check
+ * that path) and says in the result what is missing; here each is wired to
+ * the core.
  *
  * Nothing here computes anything: each entry only forwards to the core.
  */
+import { fitQuality } from "../../src/weibull/anderson-darling";
+import { designStressBound } from "../../src/weibull/design-stress-bound";
+import { singlePopulationChecks } from "../../src/weibull/single-population-checks";
 import type { StrengthSample } from "../../src/weibull/sample";
 
 export interface FitQuality {
@@ -38,7 +41,21 @@ export interface PopulationChecks {
   lowOutlier: { pValue: number; strength: number } | null;
 }
 
-export const optionalCore: OptionalCore = {};
+export const optionalCore: OptionalCore = {
+  designStressLowerBound: ({ sample, survival, confidence, sizeRatio }) =>
+    designStressBound({ strengths: sample.strengths, censored: sample.censored, survival, confidence, sizeRatio }).lower,
+  fitQuality: (sample) => {
+    const q = fitQuality(sample);
+    return { statistic: q.aStar, significance: q.osl };
+  },
+  populationChecks: (sample) => {
+    const c = singlePopulationChecks(sample);
+    return {
+      bend: c.bilinear ? { pValue: c.bilinear.pValue, knotStrength: c.bilinear.knotStrength } : null,
+      lowOutlier: c.lowOutlier ? { pValue: c.lowOutlier.pValue, strength: c.lowOutlier.strength } : null,
+    };
+  },
+};
 
 /** Why a piece is missing, in words the result can show. */
 export const MISSING = {
