@@ -265,6 +265,11 @@ describe("writing the design check through the spreadsheet API (office-addin-moc
     rel("mean", result.parameters.mean);
     rel("sizeRatio", result.sizeRatio.value);
     rel("allowablePoint", result.allowablePoint.value);
+    if (result.allowableLower) {
+      // The sheet's bound is the registered DESIGNSTRESSBOUND on the same data, evaluated in the engine.
+      expect(text).toContain(`=BRITTLE.DESIGNSTRESSBOUND($B$10,$F$5:$F$19,$B$5,${p.refs.sizeRatio},$G$5:$G$19)`);
+      rel("allowableLower", result.allowableLower.value);
+    }
     rel("pfApplied", result.failureProbabilityAtApplied.value);
     rel("expected", result.expectedFailures.value);
     expect(value("upperCount")).toBe(result.failuresUpperBound.value);
@@ -355,18 +360,26 @@ describe("writing the design check through the spreadsheet API (office-addin-moc
     expect(sheets.get(sheetName)!.charts[0].allSeries[0].name).toBe("Fitted line, specimen size");
   });
 
-  it("writes censored plot points as values (adjusted ranks have no native formula) and says so", async () => {
+  it("plots a censored sample from PLOTPOINTS where registered (adjusted ranks have no native formula), else as values, and says which", async () => {
     const censored = STRENGTHS.map((_, i) => i === 2 || i === 7);
     const result = runDesignCheck(input({ material: { kind: "data", strengths: STRENGTHS, censored, method: "MLE-RAW", source: { kind: "pasted" } } }));
     const p = plan(result);
     const { context, sheets } = mockWorkbook([]);
     const { sheetName } = await writeReportSheet(context, p);
     const cells = grid(sheets.get(sheetName)!);
-    expect(cells.flat()).toContain("censored sample: plot points are values at the time of writing");
+    const live = Object.keys(adapters).includes("PLOTPOINTS");
+    expect(cells.flat()).toContain(
+      live ? "censored sample: adjusted ranks from PLOTPOINTS in AG:AH, live" : "censored sample: plot points are values at the time of writing",
+    );
+    if (live) expect(cells[4][32]).toBe("=BRITTLE.PLOTPOINTS($F$5:$F$19,$G$5:$G$19)");
     const { at, value } = evaluate({ [sheetName]: cells }, sheetName, p.refs);
     expect(relativeError(value("modulus") as number, result.parameters.shape)).toBeLessThan(1e-12);
-    result.points.forEach((pt, i) => expect(at(`L${5 + i}`)).toBe(pt.failureProbability));
+    // Reference: the core's Johnson adjusted ranks (plotting-positions.ts), as the form plots them.
     expect(result.points.length).toBe(13);
+    result.points.forEach((pt, i) => {
+      expect(relativeError(at(`J${5 + i}`) as number, pt.strength), `J${5 + i}`).toBeLessThan(1e-14);
+      expect(relativeError(at(`L${5 + i}`) as number, pt.failureProbability), `L${5 + i}`).toBeLessThan(1e-12);
+    });
   });
 
   it("sizes a standard specimen and a pasted element table live where the build has their functions", async () => {

@@ -61,6 +61,8 @@ const C = 2;
 const D = 3;
 const F = 5;
 const I = 8;
+// Spill area of PLOTPOINTS, right of a pasted element table (W to AC at most).
+const AG = 32;
 
 // Number formats: four significant figures read well for stresses; probabilities in scientific notation.
 const STRESS = "0.0";
@@ -313,7 +315,7 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
     put(row++, A, [[c.level === "warning" ? "Warning" : "Note", c.text]], c.level === "warning" ? "warning" : "text");
   }
 
-  const chart = planChart(result, refs, blocks, strengths, stressUnit);
+  const chart = planChart(result, refs, blocks, strengths, flags, stressUnit, fns.has("PLOTPOINTS"));
   return { baseName: "Design check", blocks, chart, refs };
 }
 
@@ -328,7 +330,9 @@ function planChart(
   refs: Record<string, string>,
   blocks: Block[],
   strengths: string,
+  flags: string,
   stressUnit: string,
+  plotPoints: boolean,
 ): ChartPlan {
   const put = (row: number, col: number, cells: Cell[][], style: BlockStyle, formulas = false, numberFormat?: string) =>
     blocks.push({ address: rangeAddress(row, col, cells.length, cells[0].length), cells, formulas, style, numberFormat });
@@ -351,13 +355,24 @@ function planChart(
           `=(I${r}-0.5)/COUNTIF(${strengths},">0")`,
         ];
       }), "data", true);
+    } else if (strengths && plotPoints) {
+      // Adjusted ranks have no native formula: PLOTPOINTS spills ln(strength) and Y from column AG, failures first.
+      put(3, AG, [["ln(strength)", "ln(-ln(1-P))"]], "heading");
+      put(4, AG, [[`=BRITTLE.PLOTPOINTS(${strengths}${flags ? `,${flags}` : ""})`]], "data", true);
+      put(row, I, points.map((_, i) => {
+        const r = row + i + 1;
+        return [i + 1, `=EXP(AG${r})`, `=AH${r}`, `=1-EXP(-EXP(K${r}))`];
+      }), "data", true);
     } else {
-      // Adjusted ranks for censored specimens have no native formula: values at the time of writing.
+      // No live source for adjusted ranks in this build: values at the time of writing.
       put(row, I, points.map((p, i) => [i + 1, p.strength, p.y, p.failureProbability]), "data");
     }
     row += points.length;
     series.push({ name: "Failures", x: absoluteRange(first, I + 1, points.length), y: absoluteRange(first, I + 2, points.length), lines: false });
-    put(row++, I, [[complete ? "plot points follow the data (specimens present when written)" : "censored sample: plot points are values at the time of writing"]], "note");
+    const live = complete ? "plot points follow the data (specimens present when written)"
+      : plotPoints && strengths ? "censored sample: adjusted ranks from PLOTPOINTS in AG:AH, live"
+        : "censored sample: plot points are values at the time of writing";
+    put(row++, I, [[live]], "note");
   }
 
   const pMin = Math.min(result.targetFailureProbability.value, points[0]?.failureProbability ?? 0.5, 0.01) / 3;
