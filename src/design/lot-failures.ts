@@ -3,12 +3,11 @@
  * probability: the expected count N Pf, and an upper bound k such that
  * P(failures <= k) >= confidence for a binomial(N, Pf) count.
  *
- * The binomial terms are evaluated in log space around the mode, so lots of
- * millions of parts at Pf = 1e-9 or 0.5 alike neither underflow nor loop
- * through millions of negligible terms.
+ * The binomial terms are built outwards from the mode by their ratios, so
+ * lots of a billion parts at Pf = 1e-9 or 0.5 alike neither underflow nor
+ * loop through millions of negligible terms.
  */
 import { require, requireProbability } from "../errors";
-import { logGamma } from "../numeric/gamma";
 
 function checkLot(failureProbability: number, lotSize: number): void {
   require(Number.isFinite(failureProbability) && failureProbability >= 0 && failureProbability < 1,
@@ -34,59 +33,37 @@ export function failuresUpperBound({
   checkLot(p, n);
   requireProbability(confidence, "confidence");
   if (p === 0) return 0;
-  const logP = Math.log(p);
-  const logQ = Math.log1p(-p);
-  const logNFact = logGamma(n + 1);
-  const logPmf = (k: number) => logNFact - logGamma(k + 1) - logGamma(n - k + 1) + k * logP + (n - k) * logQ;
-
+  // Terms relative to the one at the mode, by the ratio pmf(k+1)/pmf(k) = (n-k)/(k+1) * p/q:
+  // no factorials, and terms below 1e-20 of the peak change no quantile, so the walk spans
+  // only about ten standard deviations each side.
+  const odds = p / (1 - p);
   const mode = Math.min(n, Math.floor((n + 1) * p));
-  const logPeak = logPmf(mode);
-  // Relative pmf terms below 1e-20 of the peak change the sum by less than rounding.
-  const cutoff = logPeak - 46;
-  // Mass strictly below the mode, relative to the peak term.
-  let below = 0;
-  for (let k = mode - 1; k >= 0; k--) {
-    const l = logPmf(k);
-    if (l < cutoff) break;
-    below += Math.exp(l - logPeak);
+  const below: number[] = [];
+  for (let k = mode, term = 1; k > 0; k--) {
+    term *= k / ((n - k + 1) * odds);
+    if (term < 1e-20) break;
+    below.push(term);
   }
-  let above = 0;
-  for (let k = mode + 1; k <= n; k++) {
-    const l = logPmf(k);
-    if (l < cutoff) break;
-    above += Math.exp(l - logPeak);
+  const above: number[] = [];
+  for (let k = mode, term = 1; k < n; k++) {
+    term *= ((n - k) / (k + 1)) * odds;
+    if (term < 1e-20) break;
+    above.push(term);
   }
-  const total = below + 1 + above;
-  let cumulative = below;
-  for (let k = mode; k <= n; k++) {
-    if (k > mode) {
-      cumulative += Math.exp(logPmf(k) - logPeak);
-    } else {
-      cumulative += 1;
-    }
-    if (cumulative / total >= confidence) {
-      // The mode may already exceed the quantile: walk down while the bound still holds.
-      if (k === mode) return walkDown(mode, cumulative, total, confidence, logPmf, logPeak);
-      return k;
-    }
+  let total = 1;
+  for (const t of below) total += t;
+  for (const t of above) total += t;
+  // Cumulative from the lowest term kept upwards.
+  let cumulative = 0;
+  for (let i = below.length - 1; i >= 0; i--) {
+    cumulative += below[i];
+    if (cumulative / total >= confidence) return mode - 1 - i;
   }
-  return n;
-}
-
-function walkDown(
-  k: number,
-  cumulative: number,
-  total: number,
-  confidence: number,
-  logPmf: (k: number) => number,
-  logPeak: number,
-): number {
-  let c = cumulative;
-  while (k > 0) {
-    const without = c - Math.exp(logPmf(k) - logPeak);
-    if (without / total < confidence) break;
-    c = without;
-    k--;
+  cumulative += 1;
+  if (cumulative / total >= confidence) return mode;
+  for (let i = 0; i < above.length; i++) {
+    cumulative += above[i];
+    if (cumulative / total >= confidence) return mode + 1 + i;
   }
-  return k;
+  return Math.min(n, mode + above.length);
 }
