@@ -65,9 +65,11 @@ async function buildDatasheet(path: string): Promise<void> {
     ["Material scale sigma_0V, MPa mm^(3/m)", "BRITTLE.MATERIALSCALE(E15,E13,E6)"],
     ["Size ratio part / test bar", "E7/E6"],
     ["Design stress at the required survival, MPa", "BRITTLE.DESIGNSTRESS(E8,E13,E15,E18)"],
+    ["Design stress, lower 95 % confidence bound, MPa", `BRITTLE.DESIGNSTRESSBOUND(E8,${data},0.95,E18)`],
     ["Failure probability at the applied stress", "BRITTLE.FAILPROB(E9,E13,E15,E18)"],
-    ["Expected failures per lot", "BRITTLE.LOTFAILURES(E20,E10)"],
-    ["Failures per lot not exceeded at 95 %", "BRITTLE.LOTFAILURES(E20,E10,0.95)"],
+    ["Expected failures per lot", "BRITTLE.LOTFAILURES(E21,E10)"],
+    ["Failures per lot not exceeded at 95 %", "BRITTLE.LOTFAILURES(E21,E10,0.95)"],
+    ["Applied stress within the lower-bound design stress?", 'IF(E9<=E20,"yes","NO")'],
   ];
   ws.getCell("D12").value = "Results (live formulas)";
   ws.getCell("D12").font = { bold: true };
@@ -75,10 +77,15 @@ async function buildDatasheet(path: string): Promise<void> {
     ws.getCell(13 + i, 4).value = label;
     ws.getCell(13 + i, 5).value = { formula } as ExcelJS.CellFormulaValue;
   });
-  ws.getCell("D24").value =
+  ws.getCell("H4").value = "Fit summary (spills from H5)";
+  ws.getCell("H4").font = { bold: true };
+  ws.getColumn(8).width = 44;
+  ws.getColumn(9).width = 16;
+  ws.getCell("H5").value = { formula: `BRITTLE.FIT(${data})` } as ExcelJS.CellFormulaValue;
+  ws.getCell("D25").value =
     "Cautions: the design stress extrapolates far below the tested strengths and assumes one flaw population, the same surface finish and environment in bar and part, and no slow crack growth under sustained load. It supports, and does not replace, the judgement of a licensed engineer under the applicable codes.";
-  ws.getCell("D24").alignment = { wrapText: true, vertical: "top" };
-  ws.getRow(24).height = 75;
+  ws.getCell("D25").alignment = { wrapText: true, vertical: "top" };
+  ws.getRow(25).height = 75;
   await book.xlsx.writeFile(path);
 }
 

@@ -20,10 +20,23 @@ export async function runDemo(io: Io): Promise<void> {
 
   const sheet = workbook.sheets.Datasheet;
   io.out(`${String(sheet[0][0])}\n${String(sheet[1][0])}\n\n`);
-  const labelWidth = Math.max(...evaluation.formulas.map((f) => labelFor(sheet, f.address).length));
-  for (const f of evaluation.formulas) {
+  const isFitTable = (f: { formula: string }) => f.formula.toUpperCase().includes("BRITTLE.FIT(");
+  const singles = evaluation.formulas.filter((f) => !isFitTable(f));
+  const labelWidth = Math.max(...singles.map((f) => labelFor(sheet, f.address).length));
+  for (const f of singles) {
     const value = typeof f.value === "number" ? formatNumber(f.value) : String(f.value);
     io.out(`  ${labelFor(sheet, f.address).padEnd(labelWidth)}  ${value.padStart(12)}${f.message ? `  (${f.message})` : ""}\n`);
+  }
+  const fit = evaluation.formulas.find(isFitTable);
+  if (fit) {
+    io.out(`\n  Fit summary (BRITTLE.FIT at ${fit.address}):\n`);
+    const grid = evaluation.grids.Datasheet;
+    const row0 = Number(fit.address.replace(/^[A-Z]+/, "")) - 1;
+    const col0 = fit.address.replace(/\d+$/, "").charCodeAt(0) - 65;
+    for (let r = row0; r < grid.length && grid[r][col0] !== null && grid[r][col0] !== undefined; r++) {
+      const v = grid[r][col0 + 1];
+      io.out(`    ${String(grid[r][col0]).padEnd(56)} ${typeof v === "number" ? formatNumber(v) : String(v)}\n`);
+    }
   }
   const errors = evaluation.formulas.filter((f) => typeof f.value === "string" && f.value.startsWith("#"));
   io.out(`\n${evaluation.formulas.length} formulas evaluated, ${errors.length} errors; filled copy: ${DEMO_OUTPUT}\n`);
