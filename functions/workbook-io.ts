@@ -51,14 +51,25 @@ async function loadXlsx(path: string): Promise<LoadedWorkbook> {
   const sheets: Record<string, Contents[][]> = {};
   workbook.eachSheet((ws) => {
     const grid: Contents[][] = [];
+    const arrays: { top: number; left: number; bottom: number; right: number }[] = [];
     ws.eachRow({ includeEmpty: false }, (row, r) => {
       row.eachCell({ includeEmpty: false }, (cell, c) => {
         while (grid.length < r) grid.push([]);
         const line = grid[r - 1];
         while (line.length < c) line.push(null);
         line[c - 1] = cellContents(cell);
+        const v = cell.value as { shareType?: string; ref?: string } | null;
+        if (v && typeof v === "object" && v.shareType === "array" && v.ref) arrays.push(decodeRange(v.ref));
       });
     });
+    // The other cells of an array formula hold its cached results: the formula refills them.
+    for (const a of arrays) {
+      for (let r = a.top; r <= a.bottom; r++) {
+        for (let c = a.left; c <= a.right; c++) {
+          if ((r !== a.top || c !== a.left) && grid[r - 1] && c - 1 < grid[r - 1].length) grid[r - 1][c - 1] = null;
+        }
+      }
+    }
     sheets[ws.name] = grid;
   });
   if (Object.keys(sheets).length === 0) throw new WorkbookError(`${path} has no worksheets`);
@@ -80,6 +91,18 @@ function cellContents(cell: ExcelJS.Cell): Contents {
     if ("error" in o) return String(o.error);
   }
   return String(v);
+}
+
+function decodeRange(ref: string): { top: number; left: number; bottom: number; right: number } {
+  const [a, b = a] = ref.replace(/\$/g, "").split(":");
+  const cell = (x: string) => {
+    const m = /^([A-Z]+)(\d+)$/i.exec(x)!;
+    const col = [...m[1].toUpperCase()].reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0);
+    return { row: Number(m[2]), col };
+  };
+  const p = cell(a);
+  const q = cell(b);
+  return { top: Math.min(p.row, q.row), left: Math.min(p.col, q.col), bottom: Math.max(p.row, q.row), right: Math.max(p.col, q.col) };
 }
 
 function excelSerial(d: Date): number {

@@ -5,6 +5,7 @@
 import { existsSync } from "node:fs";
 import ExcelJS from "exceljs";
 import { describe, expect, it } from "vitest";
+import { main } from "../functions/cli";
 import { DEMO_OUTPUT, runDemo } from "../examples/demo";
 
 describe("npm run demo", () => {
@@ -24,5 +25,12 @@ describe("npm run demo", () => {
     expect(ws.getCell("H5").formula).toBe("BRITTLE.FIT(A5:A34)");
     expect(ws.getCell("H6").value).toBe("failures (population fitted)"); // cached value inside the array formula
     expect(ws.getCell("I24").value).toBe(true);
+
+    // The filled copy evaluates again to the same grid: cached array results do not block the spill.
+    let again = "";
+    expect(await main(["calc", DEMO_OUTPUT, "--json"], { out: (t) => (again += t), err: () => {} })).toBe(0);
+    const grid = JSON.parse(again).Datasheet;
+    expect(grid[5][7]).toBe("failures (population fitted)");
+    expect(grid[12][4]).toBe(ws.getCell("E13").result);
   });
 });
