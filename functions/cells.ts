@@ -90,15 +90,25 @@ export function readPositiveNumbers(value: unknown, name: string): RangeNumbers 
   return { values, indices, rows, cols };
 }
 
-/** Censoring flags: TRUE, 1, "C" or "CENSORED" mark a censored specimen; FALSE, 0, blank, "F" a failure. */
-export function readFlags(value: unknown, name: string, like: RangeNumbers, likeName: string): boolean[] {
-  const range = asRange(value, name);
-  if (range.length !== like.rows || range[0].length !== like.cols) {
+/** A range that pairs with another (flags, labels, sizes) must have its rows and columns, else #VALUE!. */
+export function requireSameShape(name: string, shape: { rows: number; cols: number }, likeName: string, like: { rows: number; cols: number }): void {
+  if (shape.rows !== like.rows || shape.cols !== like.cols) {
     throw new CellError(
       "#VALUE!",
-      `${name} (${range.length} x ${range[0].length}) must have the same rows and columns as ${likeName} (${like.rows} x ${like.cols})`,
+      `${name} (${shape.rows} x ${shape.cols}) must have the same rows and columns as ${likeName} (${like.rows} x ${like.cols})`,
     );
   }
+}
+
+function pairedRange(value: unknown, name: string, like: RangeNumbers, likeName: string): Range {
+  const range = asRange(value, name);
+  requireSameShape(name, { rows: range.length, cols: range[0].length }, likeName, like);
+  return range;
+}
+
+/** Censoring flags: TRUE, 1, "C" or "CENSORED" mark a censored specimen; FALSE, 0, blank, "F" a failure. */
+export function readFlags(value: unknown, name: string, like: RangeNumbers, likeName: string): boolean[] {
+  const range = pairedRange(value, name, like, likeName);
   return like.indices.map((index) => {
     const r = Math.floor(index / like.cols);
     const c = index % like.cols;
@@ -112,6 +122,56 @@ export function readFlags(value: unknown, name: string, like: RangeNumbers, like
     }
     throw new CellError("#VALUE!", `${describePosition(name, r, c, like.cols)} must be TRUE/1 (censored) or FALSE/0/blank (failed)`);
   });
+}
+
+/** Text labels (e.g. fracture origins) beside each value read from `like`; a number is taken as its text. */
+export function readLabels(value: unknown, name: string, like: RangeNumbers, likeName: string): string[] {
+  const range = pairedRange(value, name, like, likeName);
+  return like.indices.map((index) => {
+    const r = Math.floor(index / like.cols);
+    const c = index % like.cols;
+    const v = range[r][c];
+    if (typeof v === "number") return String(v);
+    if (typeof v !== "string" || v.trim() === "") {
+      throw new CellError("#VALUE!", `${describePosition(name, r, c, like.cols)} needs a label beside the value in ${likeName}`);
+    }
+    return v;
+  });
+}
+
+/**
+ * Two ranges of the same shape read as pairs (stress rates with strengths,
+ * stresses with durations): a position blank or zero on both sides is no
+ * pair; blank on one side only is #NUM!, except a blank first value where
+ * `firstMayBeZero` (e.g. an unloaded block in a load history).
+ */
+export function readPairs(
+  first: unknown,
+  firstName: string,
+  second: unknown,
+  secondName: string,
+  firstMayBeZero = false,
+): { x: number[]; y: number[] } {
+  const a = readPositiveNumbers(first, firstName);
+  const b = readPositiveNumbers(second, secondName);
+  requireSameShape(secondName, b, firstName, a);
+  const byIndexA = new Map(a.indices.map((index, k) => [index, a.values[k]]));
+  const byIndexB = new Map(b.indices.map((index, k) => [index, b.values[k]]));
+  const x: number[] = [];
+  const y: number[] = [];
+  for (const index of [...new Set([...a.indices, ...b.indices])].sort((p, q) => p - q)) {
+    const r = Math.floor(index / a.cols);
+    const c = index % a.cols;
+    const va = byIndexA.get(index);
+    const vb = byIndexB.get(index);
+    if (vb === undefined) throw new CellError("#NUM!", `${describePosition(secondName, r, c, a.cols)} is blank or zero beside a value in ${firstName}`);
+    if (va === undefined && !firstMayBeZero) {
+      throw new CellError("#NUM!", `${describePosition(firstName, r, c, a.cols)} is blank or zero beside a value in ${secondName}`);
+    }
+    x.push(va ?? 0);
+    y.push(vb);
+  }
+  return { x, y };
 }
 
 export interface CellSample {

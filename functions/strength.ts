@@ -12,22 +12,13 @@ import {
   scaleFromMean,
   scaleFromMedian,
 } from "../src/weibull/distribution";
-import { estimateWeibull, type EstimationMethod } from "../src/weibull/estimate";
-import type { PlottingEstimator } from "../src/weibull/plotting-positions";
-import { readChoice, readNumber, readOptionalNumber, readSample } from "./cells";
-
-const METHOD_NAMES = ["MLE", "MLE-RAW", "LSQ", "LSQ-MEANRANK", "LSQ-MEDIANRANK"] as const;
-const METHODS: Record<(typeof METHOD_NAMES)[number], [EstimationMethod, PlottingEstimator]> = {
-  MLE: ["MLE", "HAZEN"],
-  "MLE-RAW": ["MLE-RAW", "HAZEN"],
-  LSQ: ["LSQ", "HAZEN"],
-  "LSQ-MEANRANK": ["LSQ", "MEAN"],
-  "LSQ-MEDIANRANK": ["LSQ", "MEDIAN"],
-};
+import { estimateWeibull } from "../src/weibull/estimate";
+import { readNumber, readOptionalNumber, readSample } from "./cells";
+import { readMethod } from "./fit-method";
 
 function fitCells(strengths: unknown, censored: unknown, method: unknown) {
   const sample = readSample(strengths, censored);
-  const [how, estimator] = METHODS[readChoice(method, "method", METHOD_NAMES, "MLE")];
+  const { method: how, estimator } = readMethod(method);
   return estimateWeibull(sample, how, estimator);
 }
 

@@ -21,7 +21,7 @@ import {
   proofMinimumLife,
   proofStressForLife,
 } from "../src/design/proof-test";
-import { CellError, readChoice, readNumber, readOptionalNumber, readPositiveNumbers } from "./cells";
+import { CellError, readChoice, readNumber, readOptionalNumber, readPairs, readPositiveNumbers } from "./cells";
 import { declareSpills } from "./spill-shapes";
 
 declareSpills({
@@ -30,45 +30,6 @@ declareSpills({
   SCGSTATICFIT: { rows: 1, cols: 2 },
   SCGSTATICNBOUNDS: { rows: 1, cols: 4 },
 });
-
-/**
- * Two ranges read as pairs under the blank rule: a pair that is blank (or
- * zero) on both sides is skipped. With `firstMayBeZero`, a blank first value
- * beside a filled second one is a zero (an unloaded block of a load history);
- * otherwise a blank beside a value is a missing or zero entry, #NUM!.
- */
-function readPairs(
-  first: unknown,
-  firstName: string,
-  second: unknown,
-  secondName: string,
-  firstMayBeZero = false,
-): { x: number[]; y: number[] } {
-  const a = readPositiveNumbers(first, firstName);
-  const b = readPositiveNumbers(second, secondName);
-  if (a.rows !== b.rows || a.cols !== b.cols) {
-    throw new CellError(
-      "#VALUE!",
-      `${secondName} (${b.rows} x ${b.cols}) must have the same rows and columns as ${firstName} (${a.rows} x ${a.cols})`,
-    );
-  }
-  const byIndexA = new Map(a.indices.map((index, k) => [index, a.values[k]]));
-  const byIndexB = new Map(b.indices.map((index, k) => [index, b.values[k]]));
-  const x: number[] = [];
-  const y: number[] = [];
-  for (const index of [...new Set([...a.indices, ...b.indices])].sort((p, q) => p - q)) {
-    const position = a.cols > 1 ? `row ${Math.floor(index / a.cols) + 1} column ${(index % a.cols) + 1}` : `row ${index + 1}`;
-    const va = byIndexA.get(index);
-    const vb = byIndexB.get(index);
-    if (vb === undefined) throw new CellError("#NUM!", `${secondName}, ${position} is blank or zero beside a value in ${firstName}`);
-    if (va === undefined && !firstMayBeZero) {
-      throw new CellError("#NUM!", `${firstName}, ${position} is blank or zero beside a value in ${secondName}`);
-    }
-    x.push(va ?? 0);
-    y.push(vb);
-  }
-  return { x, y };
-}
 
 function readConfidence(confidence: unknown): number {
   return readOptionalNumber(confidence, "confidence", 0.95);

@@ -11,23 +11,22 @@ import { fitQuality } from "../src/weibull/anderson-darling";
 import { parameterBounds, type BoundSides } from "../src/weibull/confidence-bounds";
 import { competingDesignStress, competingFailureProbability, populationSample } from "../src/weibull/competing-populations";
 import { designStressBound } from "../src/weibull/design-stress-bound";
-import type { EstimationMethod } from "../src/weibull/estimate";
 import { summarizeFit, type FitSummary } from "../src/weibull/fit-summary";
 import { compareLots } from "../src/weibull/lot-comparison";
 import { modulusFromCoefficientOfVariation } from "../src/weibull/modulus-from-cv";
-import { plottingPositions, type PlottingEstimator } from "../src/weibull/plotting-positions";
+import { plottingPositions } from "../src/weibull/plotting-positions";
 import { BILINEAR_MIN_FAILURES } from "../src/weibull/bilinear-check";
 import { LOW_OUTLIER_MIN_FAILURES } from "../src/weibull/low-outlier-check";
 import {
-  asRange,
   CellError,
-  readChoice,
   readNumber,
   readOptionalNumber,
+  readLabels,
   readPositiveNumbers,
   readSample,
   type CellValue,
 } from "./cells";
+import { readEstimator, readMethod } from "./fit-method";
 import { declareSpills } from "./spill-shapes";
 
 const FIT_ROWS = 20;
@@ -41,21 +40,6 @@ declareSpills({
   PLOTPOINTS: { rows: { cellsOf: 0 }, cols: 2 },
   LOTCHECK: { rows: 1, cols: 3 },
 });
-
-const METHOD_NAMES = ["MLE", "MLE-RAW", "LSQ", "LSQ-MEANRANK", "LSQ-MEDIANRANK"] as const;
-const METHODS: Record<(typeof METHOD_NAMES)[number], [EstimationMethod, PlottingEstimator]> = {
-  MLE: ["MLE", "HAZEN"],
-  "MLE-RAW": ["MLE-RAW", "HAZEN"],
-  LSQ: ["LSQ", "HAZEN"],
-  "LSQ-MEANRANK": ["LSQ", "MEAN"],
-  "LSQ-MEDIANRANK": ["LSQ", "MEDIAN"],
-};
-const ESTIMATOR_NAMES = ["HAZEN", "MEANRANK", "MEDIANRANK"] as const;
-const ESTIMATORS: Record<(typeof ESTIMATOR_NAMES)[number], PlottingEstimator> = {
-  HAZEN: "HAZEN",
-  MEANRANK: "MEAN",
-  MEDIANRANK: "MEDIAN",
-};
 
 function readSides(value: unknown): BoundSides {
   const sides = readOptionalNumber(value, "sides", 2);
@@ -103,8 +87,7 @@ function fitTable(summary: FitSummary, methodName: string): CellValue[][] {
 }
 
 function fitFromCells(sample: { strengths: number[]; censored?: boolean[] }, confidence: unknown, method: unknown): CellValue[][] {
-  const name = readChoice(method, "method", METHOD_NAMES, "MLE");
-  const [how, estimator] = METHODS[name];
+  const { name, method: how, estimator } = readMethod(method);
   const summary = summarizeFit({
     ...sample,
     confidence: readOptionalNumber(confidence, "confidence", 0.9),
@@ -148,30 +131,10 @@ export function ORIGINFIT(strengths: any[][], origins: any[][], origin: string, 
   if (numbers.values.length < 2) {
     throw new CellError("#NUM!", `strengths: a fit needs at least two specimens (found ${numbers.values.length})`);
   }
-  const labels = readLabels(origins, numbers);
+  const labels = readLabels(origins, "origins", numbers, "strengths");
   if (typeof origin !== "string" && typeof origin !== "number") throw new CellError("#VALUE!", "origin must be a label (text)");
   const sample = populationSample({ strengths: numbers.values, origins: labels, population: String(origin) });
   return fitFromCells({ strengths: numbers.values, censored: sample.censored as boolean[] }, confidence, method);
-}
-
-/** Origin labels at the cells where a strength was read; a blank label beside a strength is an error. */
-function readLabels(value: unknown, like: ReturnType<typeof readPositiveNumbers>): string[] {
-  const range = asRange(value, "origins");
-  if (range.length !== like.rows || range[0].length !== like.cols) {
-    throw new CellError(
-      "#VALUE!",
-      `origins (${range.length} x ${range[0].length}) must have the same rows and columns as strengths (${like.rows} x ${like.cols})`,
-    );
-  }
-  return like.indices.map((index) => {
-    const r = Math.floor(index / like.cols);
-    const c = index % like.cols;
-    const v = range[r][c];
-    const where = like.cols > 1 ? `origins, row ${r + 1} column ${c + 1}` : `origins, row ${r + 1}`;
-    if (typeof v === "number") return String(v);
-    if (typeof v !== "string" || v.trim() === "") throw new CellError("#VALUE!", `${where} needs a fracture-origin label`);
-    return v;
-  });
 }
 
 function boundsFromCells(strengths: unknown, confidence: unknown, censored: unknown, sides: unknown) {
@@ -250,7 +213,7 @@ export function FITQUALITY(strengths: any[][], censored?: any[][]): number[][] {
 export function PLOTPOINTS(strengths: any[][], censored?: any[][], estimator?: string): any[][] {
   const numbers = readPositiveNumbers(strengths, "strengths");
   const sample = readSample(strengths, censored);
-  const which = ESTIMATORS[readChoice(estimator, "estimator", ESTIMATOR_NAMES, "HAZEN")];
+  const which = readEstimator(estimator);
   const points = plottingPositions(sample, which);
   const rows: CellValue[][] = points.map((p) => [p.x, p.y]);
   // The engine reserves one row per cell of the range; fill the rest with blanks.
