@@ -1,0 +1,123 @@
+"""Peers for `npm run bench`: the same data, fitted and summed by the tools an
+engineer would otherwise use, and a 40-digit reference solution.
+
+    python3 bench/peers.py WORKDIR
+
+WORKDIR/spec.json (written by bench/run.ts) names little-endian float64 files:
+  fits:  [{"n": N, "file": "fit-N.f64"}, ...]    strengths of complete samples
+  pia:   {"principal": "...", "sizes": "...", "shape": m}   2^20 x 3 principal stresses
+  runs:  {"small": R, "large": R}               timing repetitions (medians)
+  mpmathMaxN: largest n solved at 40 digits
+
+Prints one JSON object on stdout: scipy.stats.weibull_min.fit (location fixed
+at 0) and numpy timings and values, and the mpmath solution of the
+maximum-likelihood equations (ASTM C1239 section 7, complete sample):
+  sum x^m ln x / sum x^m - mean(ln x) - 1/m = 0,  sigma_theta = (sum x^m / N)^(1/m).
+"""
+
+import json
+import os
+import statistics
+import sys
+import time
+
+import mpmath
+import numpy as np
+import scipy
+from scipy import stats
+
+
+def timed(fn, runs):
+    times = []
+    result = None
+    for _ in range(runs):
+        start = time.perf_counter()
+        result = fn()
+        times.append(time.perf_counter() - start)
+    return statistics.median(times), result
+
+
+def ml_mpmath(x, start_shape, digits=40):
+    """Newton on the ML equation for m at `digits` digits, from a double-precision start."""
+    mpmath.mp.dps = digits + 10
+    logs = [mpmath.log(mpmath.mpf(float(v))) for v in x]
+    n = len(logs)
+    mean_log = mpmath.fsum(logs) / n
+    shift = max(logs)  # x / max(x): every weight at most 1
+    rel = [l - shift for l in logs]
+    m = mpmath.mpf(start_shape)
+    for _ in range(30):
+        w = [mpmath.exp(m * r) for r in rel]
+        s0 = mpmath.fsum(w)
+        s1 = mpmath.fsum(wi * r for wi, r in zip(w, rel))
+        s2 = mpmath.fsum(wi * r * r for wi, r in zip(w, rel))
+        mean = s1 / s0
+        g = mean + shift - mean_log - 1 / m
+        dg = s2 / s0 - mean * mean + 1 / (m * m)
+        step = g / dg
+        m -= step
+        if abs(step) < mpmath.mpf(10) ** (-(digits + 5)) * m:
+            break
+    w = [mpmath.exp(m * r) for r in rel]
+    scale = mpmath.exp(shift) * (mpmath.fsum(w) / n) ** (1 / m)
+    return mpmath.nstr(m, digits), mpmath.nstr(scale, digits)
+
+
+def main():
+    workdir = sys.argv[1]
+    with open(os.path.join(workdir, "spec.json")) as f:
+        spec = json.load(f)
+    out = {
+        "versions": {
+            "python": sys.version.split()[0],
+            "numpy": np.__version__,
+            "scipy": scipy.__version__,
+            "mpmath": mpmath.__version__,
+            "mpmathBackend": mpmath.libmp.BACKEND,
+        },
+        "fits": [],
+    }
+    runs = spec["runs"]
+    for item in spec["fits"]:
+        x = np.fromfile(os.path.join(workdir, item["file"]), dtype="<f8")
+        r = runs["small"] if len(x) < 100000 else runs["large"]
+        seconds, (shape, _loc, scale) = timed(lambda: stats.weibull_min.fit(x, floc=0), r)
+        entry = {"n": int(len(x)), "seconds": seconds, "shape": float(shape), "scale": float(scale)}
+        if len(x) <= spec["mpmathMaxN"]:
+            start = time.perf_counter()
+            entry["mpmathShape"], entry["mpmathScale"] = ml_mpmath(x, item["startShape"])
+            entry["mpmathSeconds"] = time.perf_counter() - start
+        out["fits"].append(entry)
+
+    pia = spec.get("pia")
+    if pia:
+        principal = np.fromfile(os.path.join(workdir, pia["principal"]), dtype="<f8").reshape(-1, 3)
+        sizes = np.fromfile(os.path.join(workdir, pia["sizes"]), dtype="<f8")
+        m = pia["shape"]
+
+        def pia_sum():
+            peak = principal.max()
+            tension = np.clip(principal, 0.0, None) / peak
+            return float(np.dot(sizes, (tension**m).sum(axis=1))), float(peak)
+
+        seconds, (effective, peak) = timed(pia_sum, runs["large"])
+        out["pia"] = {"seconds": seconds, "effectiveSize": effective, "peak": peak, "rows": int(len(sizes))}
+
+    csv = spec.get("csv")
+    if csv:
+        path = os.path.join(workdir, csv["file"])
+
+        def stream():
+            table = np.loadtxt(path, delimiter=",", skiprows=1, usecols=(1, 2, 3, 4))
+            p = table[:, :3]
+            peak = p.max()
+            return float(np.dot(table[:, 3], ((np.clip(p, 0.0, None) / peak) ** csv["shape"]).sum(axis=1)))
+
+        seconds, effective = timed(stream, 1)
+        out["csv"] = {"seconds": seconds, "effectiveSize": effective}
+
+    json.dump(out, sys.stdout)
+
+
+if __name__ == "__main__":
+    main()
