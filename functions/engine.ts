@@ -164,6 +164,9 @@ export function createEngine(sheets: Record<string, unknown[][]>, metadata: Func
   );
   return HyperFormula.buildFromSheets(normalised as never, {
     licenseKey: LICENSE_KEY,
+    // A spreadsheet's own limits; the engine's defaults (40 000 rows) would refuse a full column.
+    maxRows: 1048576,
+    maxColumns: 16384,
     useArrayArithmetic: false,
     smartRounding: false,
     precisionRounding: 0,

@@ -72,8 +72,8 @@ function fitTable(summary: FitSummary, methodName: string): CellValue[][] {
     ["standard deviation of strength", summary.standardDeviation],
     ["Anderson-Darling A*", q ? q.aStar : "n/a (censored sample)"],
     ["observed significance level (OSL)", q ? q.osl : "n/a (censored sample)"],
-    ["plot bend check, p", b ? b.pValue : `n/a (fewer than ${BILINEAR_MIN_FAILURES} failures)`],
-    ["low value check, p", o ? o.pValue : `n/a (fewer than ${LOW_OUTLIER_MIN_FAILURES} failures)`],
+    ["plot bend check, p", b ? b.pValue : summary.checks.skipped ?? `n/a (fewer than ${BILINEAR_MIN_FAILURES} failures)`],
+    ["low value check, p", o ? o.pValue : summary.checks.skipped ?? `n/a (fewer than ${LOW_OUTLIER_MIN_FAILURES} failures)`],
     ["verdict", summary.verdict],
     [
       "bounds from",

@@ -157,10 +157,10 @@ describe.runIf(has("MODULUS", "CHARSTRENGTH"))("fits", () => {
     property(check, 12, 40, 4800);
   });
 
-  // Known fault, reported to the lead: the censored unbiasing factor comes from a bootstrap seeded by the
-  // bits of the strengths in row order (src/weibull/censored-bootstrap.ts), so the same specimens in other
-  // units or another order give another modulus. Found by the property above; remove `.fails` when fixed.
-  it.fails("a censored MLE modulus does not depend on the unit or the order of the strengths", () => {
+  // Found by the property above: the bootstrap was once seeded by the strengths' bits in row order, so the
+  // same specimens in other units or another order gave another modulus. Now drawn in strength order and
+  // seeded from rounded strength ratios (src/weibull/censored-bootstrap.ts).
+  it("a censored MLE modulus does not depend on the unit or the order of the strengths", () => {
     const xs = [4.552281388155439, 4.547122966411412, 2.662895451710098, 4.12707481153529];
     const flags = [true, false, false, false];
     const checks: Check[] = [

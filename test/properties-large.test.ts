@@ -37,10 +37,9 @@ function sum(n: number, term: (i: number) => number): number {
 }
 
 describe("a full column of strengths", () => {
-  // Known fault, reported to the lead: createEngine builds HyperFormula with its default sheet limit
-  // (40,000 rows), so a workbook with more rows throws "Sheet size limit exceeded" before any formula
-  // runs. The fix is maxRows: 1048576 (and maxColumns: 16384) in functions/engine.ts. Remove `.fails` then.
-  it.fails("1,048,576 rows through MODULUS and CHARSTRENGTH in the engine solve the maximum-likelihood equations", () => {
+  // Found by this test: the engine once kept HyperFormula's default sheet limit (40,000 rows), so a larger
+  // workbook failed before any formula ran; createEngine now sets a spreadsheet's own limits.
+  it("1,048,576 rows through MODULUS and CHARSTRENGTH in the engine solve the maximum-likelihood equations", () => {
     const rows: unknown[][] = Array.from({ length: FULL_COLUMN }, (_, i) => [strengthAt(i)]);
     rows[0].push('=BRITTLE.MODULUS(A:A, , "MLE-RAW")', '=BRITTLE.CHARSTRENGTH(A1:A1048576, , "MLE-RAW")', "=BRITTLE.MODULUS(A:A)");
     const engine = createEngine({ Column: rows }, metadata);
@@ -72,9 +71,6 @@ describe("a full column of strengths", () => {
 
 describe("200,000 rows in every range: a value or a clear error, never an internal error", () => {
   const ROWS = 200_000;
-  // Known faults, reported to the lead: Math.max(...array) / Math.min(...array) on the whole range overflows
-  // the call stack beyond about 120,000 values (src/design/crack-growth-fit.ts, src/weibull/lot-comparison.ts).
-  const KNOWN_STACK_OVERFLOW = new Set(["SCGFIT", "SCGNBOUNDS", "SCGSTATICFIT", "SCGSTATICNBOUNDS", "LOTCHECK"]);
 
   it("runs every function that takes a range (those that simulate are timed at 100 rows first)", () => {
     const withRanges = metadata.filter((f) => f.parameters.some((p) => p.dimensionality === "matrix"));
@@ -100,8 +96,6 @@ describe("200,000 rows in every range: a value or a clear error, never an intern
       }
       const result = guarded[fn.id](...stretch(ROWS));
       const found = hostViolations(result, fn);
-      // Pinned below with data that reaches the overflow; here they may pass or fail.
-      if (KNOWN_STACK_OVERFLOW.has(fn.id)) continue;
       problems.push(...found.map((p) => `${fn.id}: ${p}`));
     }
     console.log(`properties-large: ${withRanges.length - skipped.length} functions at ${ROWS} rows; not tried at that size: ${skipped.join(", ") || "none"}`);
@@ -109,15 +103,16 @@ describe("200,000 rows in every range: a value or a clear error, never an intern
   });
 });
 
-describe("known faults at 200,000 rows (reported to the lead; remove `.fails` when fixed)", () => {
+// Once faults: Math.max(...array) on a whole range overflowed the call stack beyond about 120,000 values.
+describe("long ranges that once overflowed the call stack", () => {
   const ROWS = 200_000;
   const rates = Array.from({ length: ROWS }, (_, i) => [10 ** ((i % 5) - 2)]);
   // Strengths that rise with the rate as slow crack growth predicts (n = 20), with a little scatter.
   const strengths = rates.map(([r], i) => [100 * r ** (1 / 21) * (1 + (((i * 7919) % 101) - 50) / 5000)]);
-  it.fails("SCGFIT on 200,000 specimens gives n and D, not an internal error", () => {
+  it("SCGFIT on 200,000 specimens gives n and D, not an internal error", () => {
     expect(hostViolations(guarded.SCGFIT(rates, strengths), metadata.find((f) => f.id === "SCGFIT")!)).toEqual([]);
   });
-  it.fails("LOTCHECK of 100,000 against 200,000 specimens gives a verdict, not an internal error", () => {
+  it("LOTCHECK of 100,000 against 200,000 specimens gives a clear error (beyond the simulation limit), not an internal one", () => {
     const baseline = strengths;
     expect(hostViolations(guarded.LOTCHECK(baseline.slice(0, ROWS / 2), baseline), metadata.find((f) => f.id === "LOTCHECK")!)).toEqual([]);
   });

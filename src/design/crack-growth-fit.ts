@@ -99,7 +99,7 @@ export function fitStressRate({
   const slopeLower = line.slope - halfWidth;
   const slopeUpper = line.slope + halfWidth;
   const rates = pairs.map(([r]) => r);
-  const decades = Math.log10(Math.max(...rates) / Math.min(...rates));
+  const decades = Math.log10(largest(rates) / smallest(rates));
   const distinctRates = new Set(rates).size;
   return {
     n: 1 / line.slope - 1,
@@ -138,7 +138,7 @@ export function fitStaticFatigue({
   );
   const halfWidth = line.tQuantile * line.slopeStandardError;
   const times = pairs.map(([, t]) => t);
-  const timeDecades = Math.log10(Math.max(...times) / Math.min(...times));
+  const timeDecades = Math.log10(largest(times) / smallest(times));
   const distinctStresses = new Set(pairs.map(([s]) => s)).size;
   return {
     n: -line.slope,
@@ -225,4 +225,17 @@ function mean(values: readonly number[]): number {
   const acc = new CompensatedSum();
   for (const v of values) acc.add(v);
   return acc.value / values.length;
+}
+
+// Loops, not Math.max(...values): spreading a full column of values overflows the call stack.
+function largest(values: readonly number[]): number {
+  let m = -Infinity;
+  for (const v of values) if (v > m) m = v;
+  return m;
+}
+
+function smallest(values: readonly number[]): number {
+  let m = Infinity;
+  for (const v of values) if (v < m) m = v;
+  return m;
 }

@@ -26,6 +26,7 @@
  */
 import { require } from "../errors";
 import { SeededRandom } from "../numeric/random";
+import { requireSimulationSize } from "./simulation-limits";
 import { solveShapeFromLogs } from "./pivotal-simulation";
 import type { WeibullParameters } from "./distribution";
 
@@ -51,12 +52,16 @@ export function bootstrapCensored({
   fit: WeibullParameters;
   replications: number;
 }): BootstrapDraws {
+  requireSimulationSize(strengths.length, "the bootstrap of a censored sample");
   const key = `${replications}|${fit.shape}|${fit.scale}|${strengths.join(",")}|${censored.map(Number).join("")}`;
   const hit = cache.get(key);
   if (hit) return hit;
 
   const n = strengths.length;
-  const random = new SeededRandom(dataSeed(strengths, censored));
+  // Draw in increasing strength, seeded from the pattern of strength ratios: the same specimens in
+  // another row order or another stress unit give the same draws, hence the same cell values.
+  const order = strengths.map((_, i) => i).sort((a, b) => strengths[a] - strengths[b] || Number(censored[a]) - Number(censored[b]));
+  const random = new SeededRandom(patternSeedOf(order.map((i) => strengths[i]), order.map((i) => censored[i])));
   const inverseShape = 1 / fit.shape;
   const drawn = new Float64Array(n);
   const flags = new Uint8Array(n);
@@ -67,7 +72,7 @@ export function bootstrapCensored({
   for (let rep = 0; rep < replications; rep++) {
     let failures = 0;
     let max = 0;
-    for (let i = 0; i < n; i++) {
+    for (const i of order) {
       const a = fit.scale * Math.pow(random.exponential(), inverseShape);
       const survives = censored[i] && a > strengths[i];
       drawn[i] = survives ? strengths[i] : a;
@@ -91,12 +96,21 @@ export function bootstrapCensored({
   return draws;
 }
 
-/** FNV-1a over the bits of the strengths and the flags: a stable seed for the same data. */
-function dataSeed(strengths: readonly number[], censored: readonly boolean[]): number {
-  const bits = new Float64Array(strengths);
-  const bytes = new Uint8Array(bits.buffer);
+/**
+ * FNV-1a over the sorted strengths as ratios to the largest, rounded to 9
+ * significant digits (so a change of unit, which alters their last bits,
+ * leaves the seed alone), and over the censoring flags in the same order.
+ */
+function patternSeedOf(sorted: readonly number[], flags: readonly boolean[]): number {
+  const max = sorted[sorted.length - 1];
   let h = 0x811c9dc5;
-  for (const b of bytes) h = Math.imul(h ^ b, 0x01000193) >>> 0;
-  for (const c of censored) h = Math.imul(h ^ (c ? 1 : 0), 0x01000193) >>> 0;
+  const mix = (v: number) => {
+    h = Math.imul(h ^ (v & 0xffff), 0x01000193) >>> 0;
+    h = Math.imul(h ^ (v >>> 16), 0x01000193) >>> 0;
+  };
+  sorted.forEach((s, i) => {
+    mix(Math.round((s / max) * 1e9) >>> 0);
+    mix(flags[i] ? 1 : 0);
+  });
   return h;
 }

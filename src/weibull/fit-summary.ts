@@ -113,7 +113,11 @@ export function verdictText(quality: FitQuality | null, checks: PopulationChecks
   if (quality) passed.push(`OSL = ${roundForText(quality.osl)}`);
   if (b) passed.push(`plot bend ${pValueText(b.pValue)}`);
   if (o) passed.push(`low value ${pValueText(o.pValue)}`);
-  const untested = !b || !o ? " Too few failures for some single-population checks." : "";
+  const untested = checks.skipped
+    ? " The single-population checks are simulated and were not run for a sample this large."
+    : !b || !o
+      ? " Too few failures for some single-population checks."
+      : "";
   const censoredNote = quality ? "" : " (A* is not defined for censored samples.)";
   return `Consistent with one Weibull flaw population${passed.length ? ` (${passed.join("; ")})` : ""}.${censoredNote}${untested}`;
 }

@@ -18,6 +18,7 @@ import { require, requireProbability } from "../errors";
 import { SeededRandom } from "../numeric/random";
 import { fitMaximumLikelihood } from "./maximum-likelihood";
 import { patternSeed, solveShapeFromLogs } from "./pivotal-simulation";
+import { requireSimulationSize } from "./simulation-limits";
 import { checkSample } from "./sample";
 import { pValueText, roundForText } from "./verdict-text";
 
@@ -100,9 +101,13 @@ export function compareLots({
   requireProbability(confidence, "confidence");
   checkSample({ strengths: lot });
   checkSample({ strengths: baseline });
+  requireSimulationSize(lot.length + baseline.length, "the lot check");
   const pooled = [...lot, ...baseline];
   // Logs measured from the pooled maximum: the statistic is unchanged, the sums stay small.
-  const shift = Math.log(Math.max(...pooled));
+  // A loop, not Math.max(...pooled): spreading a long column overflows the call stack.
+  let largest = 0;
+  for (const s of pooled) if (s > largest) largest = s;
+  const shift = Math.log(largest);
   const statistic = Math.max(
     2 * (observedLogLikelihood(lot, shift) + observedLogLikelihood(baseline, shift) - observedLogLikelihood(pooled, shift)),
     0,

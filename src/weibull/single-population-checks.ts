@@ -28,6 +28,7 @@ import { bilinearStatistic, BILINEAR_MIN_FAILURES, plotWeights } from "./bilinea
 import { lowOutlierStatistic, LOW_OUTLIER_MIN_FAILURES } from "./low-outlier-check";
 import { fitMaximumLikelihood } from "./maximum-likelihood";
 import { patternSeed } from "./pivotal-simulation";
+import { SIMULATION_MAX_SPECIMENS } from "./simulation-limits";
 import { plottingPositions, rankToProbability, type PlotPoint } from "./plotting-positions";
 import { checkSample, type StrengthSample } from "./sample";
 
@@ -59,6 +60,8 @@ export interface PopulationChecks {
   /** Reference samples behind the p-values. */
   replications: number;
   reference: "exact" | "bootstrap";
+  /** Why the checks were not run, when they were not (a sample beyond the simulation limit). */
+  skipped?: string;
 }
 
 export interface NullDistribution {
@@ -102,6 +105,10 @@ function statisticsOfArrays(x: Float64Array, y: Float64Array, p: Float64Array): 
 export function singlePopulationChecks(sample: StrengthSample): PopulationChecks {
   const { censored, failures } = checkSample(sample);
   const anyCensored = censored.some((c) => c === 1);
+  if (sample.strengths.length > SIMULATION_MAX_SPECIMENS) {
+    const skipped = `n/a (simulated only up to ${SIMULATION_MAX_SPECIMENS} specimens)`;
+    return { bilinear: null, lowOutlier: null, replications: 0, reference: anyCensored ? "bootstrap" : "exact", skipped };
+  }
   const points = plottingPositions(sample);
   const observed = statisticsOf(points);
   if (observed.lowOutlier === undefined) return { bilinear: null, lowOutlier: null, replications: 0, reference: anyCensored ? "bootstrap" : "exact" };
