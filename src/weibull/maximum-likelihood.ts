@@ -84,7 +84,10 @@ export function fitMaximumLikelihood(sample: StrengthSample): MaximumLikelihoodF
     if (!(next > lo && next < hi)) next = Number.isFinite(hi) ? 0.5 * (lo + hi) : 2 * Math.max(m, lo);
     const step = Math.abs(next - m);
     m = next;
-    if (step <= 2 * Number.EPSILON * m) {
+    // Newton converges quadratically: once a Newton step is below 1e-11 m, the one just taken has
+    // brought the error to rounding level. (Waiting for a step of a few ulp instead leaves the
+    // iteration dithering in the rounding noise of g until the bracket closes.)
+    if (step <= 1e-11 * m && next !== 0.5 * (lo + hi)) {
       converged = true;
       break;
     }
