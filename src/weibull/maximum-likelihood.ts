@@ -80,17 +80,16 @@ export function fitMaximumLikelihood(sample: StrengthSample): MaximumLikelihoodF
     if (value < 0) lo = Math.max(lo, m);
     else hi = Math.min(hi, m);
     const slope = variance + 1 / (m * m);
-    let next = m - value / slope;
-    if (!(next > lo && next < hi)) next = Number.isFinite(hi) ? 0.5 * (lo + hi) : 2 * Math.max(m, lo);
-    const step = Math.abs(next - m);
-    m = next;
-    // Newton converges quadratically: once a Newton step is below 1e-11 m, the one just taken has
-    // brought the error to rounding level. (Waiting for a step of a few ulp instead leaves the
-    // iteration dithering in the rounding noise of g until the bracket closes.)
-    if (step <= 1e-11 * m && next !== 0.5 * (lo + hi)) {
+    const newton = m - value / slope;
+    // Newton converges quadratically: a step below 1e-11 m lands within rounding of the root.
+    // (Waiting for a step of a few ulp instead leaves the iteration dithering in the rounding
+    // noise of g, and a step that rounds onto the bracket's end would be taken for an escape.)
+    if (Math.abs(newton - m) <= 1e-11 * m) {
+      m = newton;
       converged = true;
       break;
     }
+    m = newton > lo && newton < hi ? newton : Number.isFinite(hi) ? 0.5 * (lo + hi) : 2 * Math.max(m, lo);
     if (Number.isFinite(hi) && hi - lo <= 2 * Number.EPSILON * hi) {
       m = 0.5 * (lo + hi);
       converged = true;
