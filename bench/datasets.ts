@@ -38,13 +38,18 @@ export function writeFloat64(dir: string, name: string, values: Float64Array): s
   return name;
 }
 
-/** The element table as the CSV a finite-element post-processor writes: elem,s1,s2,s3,ivol. */
-export function elementCsv(principal: Float64Array, sizes: Float64Array): Uint8Array[] {
+/**
+ * The element table as the CSV a finite-element post-processor writes: elem,s1,s2,s3,ivol.
+ * `digits` significant digits per value (post-processors typically write 6 to 8); omitted, every
+ * double in full (up to 17 digits), the slowest case for a parser.
+ */
+export function elementCsv(principal: Float64Array, sizes: Float64Array, digits?: number): Uint8Array[] {
+  const f = (x: number) => (digits ? x.toExponential(digits - 1) : String(x));
   const chunks: Uint8Array[] = [Buffer.from("elem,s1,s2,s3,ivol\n")];
   const encoder = new TextEncoder();
   let lines: string[] = [];
   for (let r = 0; r < sizes.length; r++) {
-    lines.push(`${r + 1},${principal[3 * r]},${principal[3 * r + 1]},${principal[3 * r + 2]},${sizes[r]}`);
+    lines.push(`${r + 1},${f(principal[3 * r])},${f(principal[3 * r + 1])},${f(principal[3 * r + 2])},${f(sizes[r])}`);
     if (lines.length === 65536 || r === sizes.length - 1) {
       chunks.push(encoder.encode(lines.join("\n") + "\n"));
       lines = [];

@@ -201,7 +201,7 @@ export let fastStop = 0;
 
 /**
  * The common case only, fused with finding the field's end: a plain number
- * (sign, at most 15 significant digits, '.', exponent within +/-22) followed
+ * (sign, at most 19 significant digits, '.', exponent within +/-22) followed
  * directly by the delimiter, CR, LF or the end. Returns NaN for anything else
  * (spaces, quotes, decimal commas, long mantissas, junk), and the caller then
  * takes the general path, which gives the same value or the error message.
@@ -242,7 +242,9 @@ export function fastNumber(buf: Uint8Array, start: number, end: number, delimite
       b = buf[++i];
     }
   }
-  if (!any || digits > 15) return NaN;
+  // Up to 15 digits the value is correctly rounded; 16 to 19 (full doubles as some programs write
+  // them) accumulate within about two units in the last place, as on the general path.
+  if (!any || digits > 19) return NaN;
   if (i < end && (b === 0x65 || b === 0x45)) {
     b = buf[++i];
     let expNegative = false;
