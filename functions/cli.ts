@@ -13,9 +13,9 @@
 import { existsSync } from "node:fs";
 import { mkdir } from "node:fs/promises";
 import { dirname, resolve } from "node:path";
-import { evaluateWorkbook, writeEvaluated, type FormulaResult } from "./evaluate-workbook";
-import { generateMetadata } from "./metadata";
-import { loadWorkbook, WorkbookError } from "./workbook-io";
+import type { FormulaResult } from "./evaluate-workbook";
+// The workbook engine, exceljs and the metadata generator (which loads the TypeScript compiler) are
+// imported where they are needed, so `brittle part` starts without them.
 
 const USAGE = `usage: brittle calc FILE [--out FILE.xlsx] [--force] [--json]
        brittle demo
@@ -63,6 +63,9 @@ export async function calc(options: CalcOptions, io: Io): Promise<FormulaResult[
     if (!options.out.toLowerCase().endsWith(".xlsx")) throw new UsageError("--out writes an .xlsx file: give it a name ending in .xlsx");
     if (existsSync(options.out) && !options.force) throw new UsageError(`${options.out} exists: choose another name or add --force`);
   }
+  const { loadWorkbook } = await import("./workbook-io");
+  const { evaluateWorkbook, writeEvaluated } = await import("./evaluate-workbook");
+  const { generateMetadata } = await import("./metadata");
   const workbook = await loadWorkbook(options.file);
   const { functions } = await generateMetadata();
   const evaluation = evaluateWorkbook(workbook, functions);
@@ -123,7 +126,7 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
       io.err(`brittle: ${error.message}\n${USAGE}\n`);
       return 2;
     }
-    const message = error instanceof WorkbookError || error instanceof Error ? error.message : String(error);
+    const message = error instanceof Error ? error.message : String(error);
     io.err(`brittle: ${message.split("\n")[0]}\n`);
     return 1;
   }
