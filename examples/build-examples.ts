@@ -100,7 +100,7 @@ function buildQuickCheck(path: string): void {
         ["Stress for 99.9 % survival, part 40x the bars (MPa)", '"=BRITTLE.DESIGNSTRESS(0.999,C2,C3,40)"'],
       ];
       const [label, formula] = rows[i] ?? ["", ""];
-      return `${s},"${label}",${formula}`;
+      return label ? `${s},"${label}",${formula}` : `${s},,`;
     }),
   ];
   writeFileSync(path, lines.join("\n") + "\n");
