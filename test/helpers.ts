@@ -1,4 +1,6 @@
 import { readFileSync } from "node:fs";
+import { expect } from "vitest";
+import { InputError } from "../src/errors";
 import { join } from "node:path";
 
 export function fixture<T = any>(name: string): T {
@@ -8,4 +10,16 @@ export function fixture<T = any>(name: string): T {
 /** |a - b| / |b|, or |a - b| when b is 0. */
 export function relativeError(a: number, b: number): number {
   return b === 0 ? Math.abs(a) : Math.abs(a - b) / Math.abs(b);
+}
+
+/** Expects `fn` to throw the core's domain error (InputError of kind "num"). */
+export function expectNumError(fn: () => unknown): void {
+  try {
+    fn();
+  } catch (e) {
+    expect(e).toBeInstanceOf(InputError);
+    expect((e as InputError).kind).toBe("num");
+    return;
+  }
+  throw new Error("expected an InputError");
 }

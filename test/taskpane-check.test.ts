@@ -13,7 +13,6 @@ import { afterEach, beforeEach, describe, expect, it } from "vitest";
 import jStat from "jstat";
 import { runDesignCheck } from "../taskpane/app/check";
 import { cautionsFor, FAR_EXTRAPOLATION_DECADES } from "../taskpane/app/cautions";
-import type { DesignCheckInput } from "../taskpane/app/inputs";
 import { optionalCore } from "../taskpane/app/optional-core";
 import { parsePasted, PasteError } from "../taskpane/app/parse-pasted";
 import { parseElementTable, TableError } from "../taskpane/app/parse-table";
@@ -23,28 +22,8 @@ import { plotData, weibullY } from "../taskpane/plot/plot-data";
 import { percentLabel } from "../taskpane/plot/probability-plot";
 import { estimateWeibull } from "../src/weibull/estimate";
 import { relativeError } from "./helpers";
+import { input, STRENGTHS } from "./taskpane-inputs";
 
-// Invented data (no real material): 15 strengths in MPa.
-const STRENGTHS = [412.5, 398.1, 455.0, 430.2, 377.9, 441.7, 405.3, 468.4, 421.0, 389.6, 436.8, 447.2, 415.9, 401.4, 459.3];
-
-function input(overrides: Partial<DesignCheckInput> = {}): DesignCheckInput {
-  return {
-    material: { kind: "data", strengths: STRENGTHS, method: "MLE-RAW", source: { kind: "pasted" } },
-    stressUnit: "MPa",
-    confidence: 0.9,
-    flaws: "volume",
-    sizeUnit: "mm³",
-    criterion: "PIA",
-    specimen: { kind: "typed", effectiveSize: 12.5 },
-    part: { kind: "typed", effectiveSize: 800 },
-    requirement: { kind: "survival", survival: 0.9999 },
-    appliedStress: 180,
-    lotSize: 5000,
-    lifetime: null,
-    proof: null,
-    ...overrides,
-  };
-}
 
 // Tests of the path without bounds or fit quality take the plug-ins out; every test gets the build's own back.
 const built = { ...optionalCore };

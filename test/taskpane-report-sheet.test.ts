@@ -16,32 +16,11 @@ import { generateMetadata, type FunctionMetadata } from "../functions/metadata";
 import { DetailedCellError } from "hyperformula";
 import { runDesignCheck, type DesignCheckResult } from "../taskpane/app/check";
 import { cautionsFor } from "../taskpane/app/cautions";
-import type { DesignCheckInput } from "../taskpane/app/inputs";
 import { planReportSheet, type SheetPlan } from "../taskpane/report/sheet-plan";
 import { freshSheetName, SheetNotEmptyError, writeReportSheet } from "../taskpane/report/sheet-writer";
 import { relativeError } from "./helpers";
+import { input, STRENGTHS } from "./taskpane-inputs";
 
-// Invented data (no real material): 15 strengths in MPa.
-const STRENGTHS = [412.5, 398.1, 455.0, 430.2, 377.9, 441.7, 405.3, 468.4, 421.0, 389.6, 436.8, 447.2, 415.9, 401.4, 459.3];
-
-function input(overrides: Partial<DesignCheckInput> = {}): DesignCheckInput {
-  return {
-    material: { kind: "data", strengths: STRENGTHS, method: "MLE-RAW", source: { kind: "pasted" } },
-    stressUnit: "MPa",
-    confidence: 0.9,
-    flaws: "volume",
-    sizeUnit: "mm³",
-    criterion: "PIA",
-    specimen: { kind: "typed", effectiveSize: 12.5 },
-    part: { kind: "typed", effectiveSize: 800 },
-    requirement: { kind: "survival", survival: 0.9999 },
-    appliedStress: 180,
-    lotSize: 5000,
-    lifetime: null,
-    proof: null,
-    ...overrides,
-  };
-}
 
 function plan(result: DesignCheckResult): SheetPlan {
   return planReportSheet(result, { functions: new Set(Object.keys(adapters)), cautions: cautionsFor(result), written: new Date("2026-01-02T03:04:00Z") });

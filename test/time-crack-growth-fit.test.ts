@@ -12,10 +12,7 @@ import { InputError } from "../src/errors";
 import { fitStaticFatigue, fitStressRate } from "../src/design/crack-growth-fit";
 import { studentQuantile, studentUpperTail } from "../src/numeric/student-t";
 import fixture from "./fixtures/crack_growth.json";
-
-function relative(actual: number, expected: number): number {
-  return Math.abs(actual - expected) / Math.abs(expected);
-}
+import { relativeError } from "./helpers";
 
 function expectInputError(fn: () => unknown, kind: "num" | "value"): void {
   try {
@@ -33,7 +30,7 @@ describe("Student t quantile", () => {
     // source: scipy.stats.t.ppf, test/fixtures/generate_crack_growth.py
     const result = studentQuantile(p, df);
     expect(result.converged).toBe(true);
-    expect(relative(result.value, t)).toBeLessThan(1e-11);
+    expect(relativeError(result.value, t)).toBeLessThan(1e-11);
   });
 
   it("inverts its own upper tail", () => {
@@ -60,15 +57,15 @@ describe("constant stress-rate fit (ASTM C1368)", () => {
           strengths: data.strengths,
           confidence: ref.confidence,
         });
-        expect(relative(fit.line.slope, ref.slope)).toBeLessThan(1e-11);
-        expect(relative(fit.line.intercept, ref.intercept)).toBeLessThan(1e-12);
-        expect(relative(fit.line.slopeStandardError, ref.slopeStdErr)).toBeLessThan(1e-10);
-        expect(relative(fit.line.rSquared, ref.rSquared)).toBeLessThan(1e-10);
-        expect(relative(fit.n, ref.n)).toBeLessThan(1e-11);
-        expect(relative(fit.D, ref.D)).toBeLessThan(1e-11);
-        expect(relative(fit.nLower, ref.nLower)).toBeLessThan(1e-10);
+        expect(relativeError(fit.line.slope, ref.slope)).toBeLessThan(1e-11);
+        expect(relativeError(fit.line.intercept, ref.intercept)).toBeLessThan(1e-12);
+        expect(relativeError(fit.line.slopeStandardError, ref.slopeStdErr)).toBeLessThan(1e-10);
+        expect(relativeError(fit.line.rSquared, ref.rSquared)).toBeLessThan(1e-10);
+        expect(relativeError(fit.n, ref.n)).toBeLessThan(1e-11);
+        expect(relativeError(fit.D, ref.D)).toBeLessThan(1e-11);
+        expect(relativeError(fit.nLower, ref.nLower)).toBeLessThan(1e-10);
         if (ref.nUpper === null) expect(fit.nUpper).toBeNull();
-        else expect(relative(fit.nUpper as number, ref.nUpper)).toBeLessThan(1e-10);
+        else expect(relativeError(fit.nUpper as number, ref.nUpper)).toBeLessThan(1e-10);
         expect(Math.abs(fit.decades - ref.decades)).toBeLessThan(1e-12);
         expect(fit.narrowSpan).toBe(ref.decades < 3);
         expect(fit.converged).toBe(true);
@@ -93,10 +90,10 @@ describe("constant stress-rate fit (ASTM C1368)", () => {
     const rates = [0.01, 0.1, 1, 10, 100];
     const strengths = rates.map((r) => 300 * Math.pow(r, 1 / 25));
     const fit = fitStressRate({ stressRates: rates, strengths });
-    expect(relative(fit.n, 24)).toBeLessThan(1e-12);
-    expect(relative(fit.D, 300)).toBeLessThan(1e-13);
-    expect(relative(fit.nLower, 24)).toBeLessThan(1e-9);
-    expect(relative(fit.nUpper as number, 24)).toBeLessThan(1e-9);
+    expect(relativeError(fit.n, 24)).toBeLessThan(1e-12);
+    expect(relativeError(fit.D, 300)).toBeLessThan(1e-13);
+    expect(relativeError(fit.nLower, 24)).toBeLessThan(1e-9);
+    expect(relativeError(fit.nUpper as number, 24)).toBeLessThan(1e-9);
   });
 
   it("rejects bad data", () => {
@@ -125,11 +122,11 @@ describe("static fatigue fit (ASTM C1576)", () => {
           lifetimes: data.lifetimes,
           confidence: ref.confidence,
         });
-        expect(relative(fit.n, ref.n)).toBeLessThan(1e-11);
-        expect(relative(fit.log10D, ref.log10D)).toBeLessThan(1e-11);
-        expect(relative(fit.line.slopeStandardError, ref.slopeStdErr)).toBeLessThan(1e-10);
-        expect(relative(fit.nLower, ref.nLower)).toBeLessThan(1e-10);
-        expect(relative(fit.nUpper, ref.nUpper)).toBeLessThan(1e-10);
+        expect(relativeError(fit.n, ref.n)).toBeLessThan(1e-11);
+        expect(relativeError(fit.log10D, ref.log10D)).toBeLessThan(1e-11);
+        expect(relativeError(fit.line.slopeStandardError, ref.slopeStdErr)).toBeLessThan(1e-10);
+        expect(relativeError(fit.nLower, ref.nLower)).toBeLessThan(1e-10);
+        expect(relativeError(fit.nUpper, ref.nUpper)).toBeLessThan(1e-10);
         expect(Math.abs(fit.timeDecades - ref.timeDecades)).toBeLessThan(1e-12);
         expect(fit.converged).toBe(true);
       });

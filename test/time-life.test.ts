@@ -21,21 +21,7 @@ import {
 import { lifeDesignStress, lifeDesignStressFromRateTests, loadHistoryStress } from "../src/design/lifetime-design";
 import { designStress } from "../src/weibull/distribution";
 import fixture from "./fixtures/crack_growth.json";
-
-function relative(actual: number, expected: number): number {
-  return Math.abs(actual - expected) / Math.abs(expected);
-}
-
-function expectNumError(fn: () => unknown): void {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(InputError);
-    expect((e as InputError).kind).toBe("num");
-    return;
-  }
-  throw new Error("expected an InputError");
-}
+import { relativeError, expectNumError } from "./helpers";
 
 const bOf = (c: { n: number; A: number; K: number; Y: number }) =>
   crackGrowthB({ n: c.n, velocityCoefficient: c.A, toughness: c.K, geometryFactor: c.Y });
@@ -46,9 +32,9 @@ describe("B = 2 K_IC^2 / (A Y^2 (n-2)) and the exact static life", () => {
       it(`${c.name}, a_i ${c.initialCrack}, s ${point.stress.toFixed(2)}`, () => {
         const t = timeToFailureFromInertStrength({ stress: point.stress, inertStrength: c.inertStrength, n: c.n, B: bOf(c) });
         // source: scipy quad of int da / v(a), generate_crack_growth.py
-        expect(relative(t, point.timeQuad)).toBeLessThan(1e-10);
+        expect(relativeError(t, point.timeQuad)).toBeLessThan(1e-10);
         // source: scipy solve_ivp of the crack-growth ODE (only where doubles can resolve it)
-        if (point.timeOde !== null) expect(relative(t, point.timeOde)).toBeLessThan(1e-9);
+        if (point.timeOde !== null) expect(relativeError(t, point.timeOde)).toBeLessThan(1e-9);
       });
     }
   }
@@ -90,14 +76,14 @@ describe("TIMETOFAILURE and LIFETIMESTRESS (rate-based, no B) against the integr
           // plain agreement where both x are small.
           const xf = Math.pow(r.strength / c.inertStrength, c.n - 2);
           const xs = Math.pow(point.stress / c.inertStrength, c.n - 2);
-          expect(relative(t / point.timeQuad, (1 - xf) / (1 - xs))).toBeLessThan(1e-8);
-          if (xf + xs < 1e-6) expect(relative(t, point.timeQuad)).toBeLessThan(2e-6);
+          expect(relativeError(t / point.timeQuad, (1 - xf) / (1 - xs))).toBeLessThan(1e-8);
+          if (xf + xs < 1e-6) expect(relativeError(t, point.timeQuad)).toBeLessThan(2e-6);
           // LIFETIMESTRESS inverts TIMETOFAILURE exactly ...
           const s = lifetimeStress({ strength: r.strength, stressRate: r.stressRate, n: c.n, lifetime: t });
-          expect(relative(s, point.stress)).toBeLessThan(1e-12);
+          expect(relativeError(s, point.stress)).toBeLessThan(1e-12);
           // ... and against the integrated life it is off by the same factor to the power 1/n.
           const sOde = lifetimeStress({ strength: r.strength, stressRate: r.stressRate, n: c.n, lifetime: point.timeQuad });
-          expect(relative(sOde / point.stress, Math.pow((1 - xf) / (1 - xs), 1 / c.n))).toBeLessThan(1e-9);
+          expect(relativeError(sOde / point.stress, Math.pow((1 - xf) / (1 - xs), 1 / c.n))).toBeLessThan(1e-9);
         });
       }
     }
@@ -109,7 +95,7 @@ describe("TIMETOFAILURE and LIFETIMESTRESS (rate-based, no B) against the integr
     const strength = 250;
     const rate = 3;
     const staticLife = timeToFailure({ stress: strength, strength, stressRate: rate, n });
-    expect(relative(strength / rate / staticLife, n + 1)).toBeLessThan(1e-13);
+    expect(relativeError(strength / rate / staticLife, n + 1)).toBeLessThan(1e-13);
   });
 
   it("rejects n <= 2 and non-positive rates, stresses and times", () => {
@@ -138,7 +124,7 @@ describe("B from fitted D and the inert strength", () => {
         const D = r.strength / Math.pow(r.stressRate, 1 / (c.n + 1));
         const fromD = crackGrowthBFromStressRateFit({ D, n: c.n, inertStrength: c.inertStrength });
         const xf = Math.pow(r.strength / c.inertStrength, c.n - 2);
-        expect(relative(fromD, B * (1 - xf))).toBeLessThan(1e-9);
+        expect(relativeError(fromD, B * (1 - xf))).toBeLessThan(1e-9);
       });
     }
     for (const point of c.static) {
@@ -148,7 +134,7 @@ describe("B from fitted D and the inert strength", () => {
         const log10D = Math.log10(point.timeQuad) + c.n * Math.log10(point.stress);
         const fromD = crackGrowthBFromStaticFit({ log10D, n: c.n, inertStrength: c.inertStrength });
         const xs = Math.pow(point.stress / c.inertStrength, c.n - 2);
-        expect(relative(fromD, B * (1 - xs))).toBeLessThan(1e-9);
+        expect(relativeError(fromD, B * (1 - xs))).toBeLessThan(1e-9);
       });
     }
   }
@@ -166,14 +152,14 @@ describe("equivalent constant stress of a load history", () => {
         (h.n - 2) * Math.log(h.inertStrength) +
         Math.log(-Math.expm1((h.n - 2) * Math.log(h.remainingStrength / h.inertStrength)));
       const implied = Math.exp((growth - Math.log(totalDuration)) / h.n);
-      expect(relative(stress, implied)).toBeLessThan(1e-9);
+      expect(relativeError(stress, implied)).toBeLessThan(1e-9);
     });
   }
 
   it("quotes the stress for another reference duration and ignores unloaded blocks", () => {
     const base = loadHistoryStress({ stresses: [100, 50], durations: [10, 1000], n: 20 });
     const shifted = loadHistoryStress({ stresses: [100, 50], durations: [10, 1000], n: 20, referenceDuration: 1010 * 8 });
-    expect(relative(shifted.stress, base.stress * Math.pow(8, -1 / 20))).toBeLessThan(1e-13);
+    expect(relativeError(shifted.stress, base.stress * Math.pow(8, -1 / 20))).toBeLessThan(1e-13);
     // One block alone is its own equivalent.
     expect(loadHistoryStress({ stresses: [73], durations: [5], n: 30 }).stress).toBeCloseTo(73, 12);
     expect(loadHistoryStress({ stresses: [0, 0], durations: [5, 5], n: 30 }).stress).toBe(0);
@@ -182,7 +168,7 @@ describe("equivalent constant stress of a load history", () => {
   it("scales by the peak so n = 300 at 1e5 stress units does not overflow", () => {
     const r = loadHistoryStress({ stresses: [1e5, 5e4], durations: [1, 1], n: 300 });
     expect(Number.isFinite(r.stress)).toBe(true);
-    expect(relative(r.stress, 1e5 * Math.pow((1 + Math.pow(0.5, 300)) / 2, 1 / 300))).toBeLessThan(1e-14);
+    expect(relativeError(r.stress, 1e5 * Math.pow((1 + Math.pow(0.5, 300)) / 2, 1 / 300))).toBeLessThan(1e-14);
   });
 
   it("rejects negative stresses or durations, mismatched tables and n <= 2", () => {
@@ -208,9 +194,9 @@ describe("strength-probability-time design", () => {
       });
       expect(result.converged).toBe(true);
       // source: scipy.stats.weibull_min.ppf at the part's scale th k^(-1/m)
-      expect(relative(result.inertStrength, c.inertDesignStrength)).toBeLessThan(1e-9);
+      expect(relativeError(result.inertStrength, c.inertDesignStrength)).toBeLessThan(1e-9);
       // source: scipy brentq on the quad-integrated life equal to the lifetime
-      expect(relative(result.stress, c.allowableStress)).toBeLessThan(1e-9);
+      expect(relativeError(result.stress, c.allowableStress)).toBeLessThan(1e-9);
     });
   }
 
@@ -220,7 +206,7 @@ describe("strength-probability-time design", () => {
     const lifetime = 3e8;
     const r = lifeDesignStress({ survival: 0.9999, lifetime, shape: 10, scale: 300, n, B });
     const approx = Math.exp((Math.log(B) + (n - 2) * Math.log(r.inertStrength) - Math.log(lifetime)) / n);
-    expect(relative(r.stress, approx)).toBeLessThan(1e-12);
+    expect(relativeError(r.stress, approx)).toBeLessThan(1e-12);
   });
 
   it("the rate-test route equals DESIGNSTRESS carried by LIFETIMESTRESS", () => {
@@ -248,7 +234,7 @@ describe("inert strength needed to survive a stress for a time", () => {
       [400, 1e9, 90, 50],
     ]) {
       const si = inertStrengthToSurvive({ stress: s, duration: t, n, B });
-      expect(relative(timeToFailureFromInertStrength({ stress: s, inertStrength: si, n, B }), t)).toBeLessThan(1e-9);
+      expect(relativeError(timeToFailureFromInertStrength({ stress: s, inertStrength: si, n, B }), t)).toBeLessThan(1e-9);
     }
   });
 });

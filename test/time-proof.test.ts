@@ -9,7 +9,6 @@
  * scipy.stats.weibull_min for the fraction broken). Constants are invented.
  */
 import { describe, expect, it } from "vitest";
-import { InputError } from "../src/errors";
 import { crackGrowthB } from "../src/design/crack-growth-life";
 import {
   postProofFailureProbability,
@@ -18,21 +17,7 @@ import {
   proofStressForLife,
 } from "../src/design/proof-test";
 import fixture from "./fixtures/crack_growth.json";
-
-function relative(actual: number, expected: number): number {
-  return Math.abs(actual - expected) / Math.abs(expected);
-}
-
-function expectNumError(fn: () => unknown): void {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(InputError);
-    expect((e as InputError).kind).toBe("num");
-    return;
-  }
-  throw new Error("expected an InputError");
-}
+import { relativeError, expectNumError } from "./helpers";
 
 const bOf = (c: { n: number; A: number; K: number; Y: number }) =>
   crackGrowthB({ n: c.n, velocityCoefficient: c.A, toughness: c.K, geometryFactor: c.Y });
@@ -57,8 +42,8 @@ describe("minimum life after a proof test", () => {
     it(`${c.name}: proof ${c.proofStress}, service ${c.serviceStress}`, () => {
       const t = proofMinimumLife({ proofStress: c.proofStress!, serviceStress: c.serviceStress, n: c.n, B: bOf(c) });
       // source: scipy quad / solve_ivp from the crack that just survives the proof stress
-      expect(relative(t, c.minimumLifeQuad!)).toBeLessThan(1e-10);
-      if (c.minimumLifeOde != null) expect(relative(t, c.minimumLifeOde)).toBeLessThan(1e-9);
+      expect(relativeError(t, c.minimumLifeQuad!)).toBeLessThan(1e-10);
+      if (c.minimumLifeOde != null) expect(relativeError(t, c.minimumLifeOde)).toBeLessThan(1e-9);
     });
   }
 
@@ -68,13 +53,13 @@ describe("minimum life after a proof test", () => {
     const eps = (200 - service) / 200; // exact: the double actually passed
     const near = proofMinimumLife({ proofStress: 200, serviceStress: service, n: 20, B: 1 });
     // Derived: t = B s_a^-2 ((1 - eps)^-(n-2) - 1) ~ B s_a^-2 (n-2) eps, relative error (n-1) eps / 2 ~ 1e-9.
-    expect(relative(near, (18 * eps) / (service * service))).toBeLessThan(2e-9);
+    expect(relativeError(near, (18 * eps) / (service * service))).toBeLessThan(2e-9);
   });
 
   it("approaches B s_p^(n-2) s_a^-n (Evans & Wiederhorn form, METHODS.md 6) at low service stress", () => {
     const t = proofMinimumLife({ proofStress: 300, serviceStress: 60, n: 30, B: 4 });
     const approx = Math.exp(Math.log(4) + 28 * Math.log(300) - 30 * Math.log(60));
-    expect(relative(t, approx)).toBeLessThan(1e-15 + Math.pow(0.2, 28));
+    expect(relativeError(t, approx)).toBeLessThan(1e-15 + Math.pow(0.2, 28));
   });
 
   it("rejects a service stress above the proof stress, n <= 2 and non-positive inputs", () => {
@@ -91,10 +76,10 @@ describe("proof stress for a required minimum life", () => {
     it(`${c.name}: service ${c.serviceStress}, life ${c.requiredLife}`, () => {
       const sp = proofStressForLife({ serviceStress: c.serviceStress, minimumLife: c.requiredLife!, n: c.n, B: bOf(c) });
       // source: scipy brentq on the quad-integrated life, generate_crack_growth.py
-      expect(relative(sp, c.proofStressForLife!)).toBeLessThan(1e-10);
+      expect(relativeError(sp, c.proofStressForLife!)).toBeLessThan(1e-10);
       // and it inverts the minimum life
       const t = proofMinimumLife({ proofStress: sp, serviceStress: c.serviceStress, n: c.n, B: bOf(c) });
-      expect(relative(t, c.requiredLife!)).toBeLessThan(1e-9);
+      expect(relativeError(t, c.requiredLife!)).toBeLessThan(1e-9);
     });
   }
 
@@ -117,11 +102,11 @@ describe("failure probability of proof-test survivors", () => {
       });
       // source: mpmath (50 digits) of (F(s) - F(s_p)) / (1 - F(s_p)), generate_crack_growth.py
       if (c.failureProbability === 0) expect(pf).toBe(0);
-      else expect(relative(pf, c.failureProbability)).toBeLessThan(1e-12);
+      else expect(relativeError(pf, c.failureProbability)).toBeLessThan(1e-12);
       const broken = proofBreakFraction({ proofStress: c.proofStress, shape: c.shape, scale: c.scale, sizeRatio: c.sizeRatio });
       // source: mpmath -expm1(-k (s_p/th)^m) and scipy.stats.weibull_min.cdf
-      expect(relative(broken, c.proofBreaks)).toBeLessThan(1e-13);
-      expect(relative(broken, c.proofBreaksScipy)).toBeLessThan(1e-12);
+      expect(relativeError(broken, c.proofBreaks)).toBeLessThan(1e-13);
+      expect(relativeError(broken, c.proofBreaksScipy)).toBeLessThan(1e-12);
     });
   }
 
