@@ -7,7 +7,6 @@
  */
 import { readFile } from "node:fs/promises";
 import ExcelJS from "exceljs";
-import { normaliseFormula } from "./engine";
 
 export type Contents = number | string | boolean | null;
 
@@ -85,7 +84,7 @@ function cellContents(cell: ExcelJS.Cell): Contents {
   if (v instanceof Date) return excelSerial(v);
   if (typeof v === "object") {
     const o = v as Record<string, unknown>;
-    if ("formula" in o || "sharedFormula" in o) return `=${normaliseFormula(cell.formula)}`;
+    if ("formula" in o || "sharedFormula" in o) return `=${cell.formula}`;
     if ("richText" in o) return (o.richText as { text: string }[]).map((t) => t.text).join("");
     if ("text" in o) return String(o.text);
     if ("error" in o) return String(o.error);
@@ -152,7 +151,7 @@ export function parseCsv(text: string): Contents[][] {
 function csvValue(text: string): Contents {
   const t = text.trim();
   if (t === "") return null;
-  if (t.startsWith("=")) return normaliseFormula(t);
+  if (t.startsWith("=")) return t;
   if (/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t)) return Number(t);
   if (/^true$/i.test(t)) return true;
   if (/^false$/i.test(t)) return false;
