@@ -3,10 +3,10 @@
  * spreadsheet application, writes the filled copy, and prints the results.
  */
 import { mkdir } from "node:fs/promises";
-import { formatNumber, type Io } from "../functions/cli";
-import { evaluateWorkbook, writeEvaluated } from "../functions/evaluate-workbook";
+import { formatNumber, type Io } from "../cli/cli";
+import { evaluateWorkbook, writeEvaluated } from "../cli/evaluate-workbook";
 import { generateMetadata } from "../functions/metadata";
-import { loadWorkbook } from "../functions/workbook-io";
+import { loadWorkbook } from "../cli/workbook-io";
 
 export const DEMO_INPUT = "examples/supplier-datasheet.xlsx";
 export const DEMO_OUTPUT = "examples/out/supplier-datasheet.filled.xlsx";

@@ -5,7 +5,7 @@
 import { existsSync } from "node:fs";
 import ExcelJS from "exceljs";
 import { describe, expect, it } from "vitest";
-import { main } from "../functions/cli";
+import { main } from "../cli/cli";
 import { DEMO_OUTPUT, runDemo } from "../examples/demo";
 
 describe("npm run demo", () => {

@@ -8,11 +8,11 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import ExcelJS from "exceljs";
 import { beforeAll, describe, expect, it } from "vitest";
-import { main, type Io } from "../functions/cli";
-import { evaluateWorkbook } from "../functions/evaluate-workbook";
+import { main, type Io } from "../cli/cli";
+import { evaluateWorkbook } from "../cli/evaluate-workbook";
 import { generateMetadata, type FunctionMetadata } from "../functions/metadata";
-import { normaliseFormula } from "../functions/engine";
-import { parseCsv } from "../functions/workbook-io";
+import { normaliseFormula } from "../cli/engine";
+import { parseCsv } from "../cli/workbook-io";
 import { fixture, relativeError } from "./helpers";
 
 const data = fixture("weibull_fits.json").datasets.find((d: any) => d.id === "complete-n10-m10-s350");

@@ -11,7 +11,7 @@ import { existsSync, readFileSync } from "node:fs";
 import { join } from "node:path";
 import { SaxesParser } from "saxes";
 import { describe, expect, it } from "vitest";
-import { NAMESPACE } from "../functions/engine";
+import { NAMESPACE } from "../cli/engine";
 
 const OFFICE_APP = "http://schemas.microsoft.com/office/appforoffice/1.1";
 const BASIC_TYPES = "http://schemas.microsoft.com/office/officeappbasictypes/1.0";

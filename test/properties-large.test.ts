@@ -7,7 +7,7 @@
 //
 // Speed is not asserted here: `npm run bench` measures it.
 import { beforeAll, describe, expect, it } from "vitest";
-import { createEngine } from "../functions/engine";
+import { createEngine } from "../cli/engine";
 import { generateMetadata, type FunctionMetadata } from "../functions/metadata";
 import { guarded } from "../functions/registry";
 import { hostValue } from "./properties-policy";

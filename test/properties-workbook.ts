@@ -4,8 +4,8 @@
 // cell policy of DESIGN.md ("One policy for cells").
 import { DetailedCellError, type HyperFormula } from "hyperformula";
 import { isCellFailure, type CellResult } from "../functions/cells";
-import { createEngine, normaliseFormula } from "../functions/engine";
-import { columnName } from "../functions/evaluate-workbook";
+import { createEngine, normaliseFormula } from "../cli/engine";
+import { columnName } from "../cli/evaluate-workbook";
 import type { FunctionMetadata } from "../functions/metadata";
 import { spillShapes } from "../functions/spill-shapes";
 

@@ -4,8 +4,8 @@ import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
-import { main } from "../functions/cli";
-import { runPartCommand } from "../functions/part-command";
+import { main } from "../cli/cli";
+import { runPartCommand } from "../cli/part-command";
 import { fixture, relativeError } from "./helpers";
 
 const ref = fixture("effective_size.json");

@@ -3,7 +3,7 @@
  * mocked with office-addin-mock: the sheet name it picks, the cells, formulas
  * and chart it creates, and that it never writes to an existing sheet or to a
  * sheet that is not empty. The formulas are then evaluated in the embedded
- * formula engine (functions/engine.ts, the same adapters the host runs) and
+ * formula engine (cli/engine.ts, the same adapters the host runs) and
  * must give the numbers the form shows; the form's numbers come from the core
  * (the reference here is the core, through runDesignCheck; the core is tested
  * against mpmath/scipy fixtures in its own suites).
@@ -11,7 +11,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import { OfficeMockObject } from "office-addin-mock";
 import { adapters } from "../functions/registry";
-import { createEngine } from "../functions/engine";
+import { createEngine } from "../cli/engine";
 import { generateMetadata, type FunctionMetadata } from "../functions/metadata";
 import { DetailedCellError } from "hyperformula";
 import { runDesignCheck, type DesignCheckResult } from "../taskpane/app/check";

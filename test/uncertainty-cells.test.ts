@@ -2,7 +2,7 @@
 // embedded engine, PLOTPOINTS coordinates, and errors inside spills.
 import { beforeAll, describe, expect, it } from "vitest";
 import { isCellFailure, type CellResult } from "../functions/cells";
-import { evaluateWorkbook } from "../functions/evaluate-workbook";
+import { evaluateWorkbook } from "../cli/evaluate-workbook";
 import { generateMetadata, type FunctionMetadata } from "../functions/metadata";
 import { guarded } from "../functions/registry";
 import { parameterBounds } from "../src/weibull/confidence-bounds";

@@ -5,7 +5,7 @@
 import { CellType, DetailedCellError, type HyperFormula } from "hyperformula";
 import ExcelJS from "exceljs";
 import { createEngine } from "./engine";
-import type { FunctionMetadata } from "./metadata";
+import type { FunctionMetadata } from "../functions/metadata";
 import type { Contents, LoadedWorkbook } from "./workbook-io";
 
 export type Shown = number | string | boolean | null;

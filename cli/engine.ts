@@ -19,10 +19,10 @@ import {
   type FunctionArgument,
   type ImplementedFunctions,
 } from "hyperformula";
-import { isCellFailure, type CellResult } from "./cells";
-import type { FunctionMetadata } from "./metadata";
-import { guarded } from "./registry";
-import { spillShapes, type SpillShape } from "./spill-shapes";
+import { isCellFailure, type CellResult } from "../functions/cells";
+import type { FunctionMetadata } from "../functions/metadata";
+import { guarded } from "../functions/registry";
+import { spillShapes, type SpillShape } from "../functions/spill-shapes";
 
 export const NAMESPACE = "BRITTLE";
 export const LICENSE_KEY = "gpl-v3";

@@ -65,7 +65,7 @@ export async function calc(options: CalcOptions, io: Io): Promise<FormulaResult[
   }
   const { loadWorkbook } = await import("./workbook-io");
   const { evaluateWorkbook, writeEvaluated } = await import("./evaluate-workbook");
-  const { generateMetadata } = await import("./metadata");
+  const { generateMetadata } = await import("../functions/metadata");
   const workbook = await loadWorkbook(options.file);
   const { functions } = await generateMetadata();
   const evaluation = evaluateWorkbook(workbook, functions);
