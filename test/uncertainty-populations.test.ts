@@ -9,9 +9,11 @@ import { competingDesignStress, competingFailureProbability, populationSample } 
 import { meanStrength, strengthStandardDeviation } from "../src/weibull/distribution";
 import { compareLots } from "../src/weibull/lot-comparison";
 import { logOnePlusSquaredCv, modulusFromCoefficientOfVariation } from "../src/weibull/modulus-from-cv";
+import { SeededRandom } from "../src/numeric/random";
 import { fixture, relativeError } from "./helpers";
 
 const ref = fixture("uncertainty.json");
+const edges = fixture("competing_edges.json");
 const fits = fixture("weibull_fits.json").datasets;
 const column = (xs: readonly unknown[]) => xs.map((x) => [x]);
 const code = (r: CellResult) => (isCellFailure(r) ? r.cellError : r);
@@ -51,6 +53,45 @@ describe("competing flaw populations", () => {
     expect(code(guarded.COMPETINGDESIGNSTRESS(1, 10, 400, 5, 900))).toBe("#NUM!");
     expect(code(guarded.COMPETINGDESIGNSTRESS(0.99, 10, 400, 5, 900, -1))).toBe("#NUM!");
     expect(() => populationSample({ strengths: [1, 2], origins: ["a", "b"], population: " " })).toThrow(/name the flaw population/);
+  });
+
+  describe("design stress where the solve's bracket ends are the root", () => {
+    // Identical populations put the root on the lower end of the bracket, a negligible population on
+    // the upper end; the residual there is rounding noise (this returned "did not converge").
+    it("=BRITTLE.COMPETINGDESIGNSTRESS(0.999,10,400,10,400) is 400 (-ln 0.999 / 2)^(1/10)", () => {
+      // source: closed form (two identical populations double the hazard of one), common practice
+      const expected = 400 * Math.pow(-Math.log(0.999) / 2, 1 / 10);
+      expect(relativeError(guarded.COMPETINGDESIGNSTRESS(0.999, 10, 400, 10, 400) as number, expected)).toBeLessThan(1e-14);
+    });
+
+    for (const c of edges.cases) {
+      it(`${c.label}: equals the 50-digit root`, () => {
+        // source: mpmath 1.3 at 50 digits via test/fixtures/generate_competing_edges.py
+        expect(relativeError(competingDesignStress({ survival: c.survival, populations: c.populations }), c.designStress)).toBeLessThan(1e-13);
+      });
+    }
+
+    it("converges on 4000 seeded pairs built to sit on the bracket's ends, hazard within a few ulp of ln s", () => {
+      // Each case is its own check: the total hazard at the returned stress equals -ln S (common practice:
+      // the defining equation, evaluated in the opposite direction to the solve).
+      const random = new SeededRandom(20261202);
+      let worst = 0;
+      for (let i = 0; i < 4000; i++) {
+        const mA = 0.5 + 60 * random.uniform();
+        const thA = Math.exp(-8 + 24 * random.uniform());
+        const kind = i % 4;
+        const mB = kind === 0 ? mA : kind === 1 ? mA * (1 + 1e-12 * random.uniform()) : 0.5 + 60 * random.uniform();
+        const thB = kind === 0 ? thA : kind === 1 ? thA * (1 + 1e-12 * random.uniform()) : thA * Math.exp((kind === 2 ? 1 : -1) * 40 * random.uniform());
+        const survival = 1 - Math.exp(-30 * random.uniform());
+        const populations = [{ shape: mA, scale: thA }, { shape: mB, scale: thB }];
+        const s = competingDesignStress({ survival, populations });
+        const hazard = Math.pow(s / thA, mA) + Math.pow(s / thB, mB);
+        // The solve stops at 4 ulp of ln s; the hazard carries m |ln s| times that relative error.
+        const scale = Math.max(mA, mB) * Math.max(1, Math.abs(Math.log(s))) * Number.EPSILON;
+        worst = Math.max(worst, relativeError(hazard, -Math.log(survival)) / scale);
+      }
+      expect(worst).toBeLessThan(16);
+    });
   });
 
   it("one population alone reduces to the two-parameter Weibull quantile", () => {
