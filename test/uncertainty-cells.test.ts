@@ -18,10 +18,10 @@ beforeAll(async () => {
 });
 
 describe("FIT", () => {
-  it("is a 20 x 2 labelled table whose values agree with the single-purpose functions", () => {
+  it("is a 21 x 2 labelled table whose values agree with the single-purpose functions", () => {
     const s = column(data.strengths);
     const t = guarded.FIT(s) as unknown[][];
-    expect(t).toHaveLength(20);
+    expect(t).toHaveLength(21);
     expect(t.every((row) => row.length === 2 && typeof row[0] === "string")).toBe(true);
     const value = (label: RegExp) => t.find((row) => label.test(row[0] as string))![1];
     expect(value(/^specimens$/)).toBe(30);
@@ -108,7 +108,7 @@ describe("in the embedded engine", () => {
   it("spills FIT, the bounds, FITQUALITY and LOTCHECK, and computes DESIGNSTRESSBOUND", () => {
     const { grids } = evaluate([
       "=BRITTLE.FIT(A1:A30)",
-      ...Array(19).fill(null),
+      ...Array(20).fill(null),
       "=BRITTLE.MODULUSBOUNDS(A1:A30)",
       "=brittle.charstrengthbounds(A1:A30, 0.95, B1:B30)",
       "=BRITTLE.FITQUALITY(A1:A30)",
@@ -119,15 +119,15 @@ describe("in the embedded engine", () => {
     ]);
     const g = grids.S;
     const fit = guarded.FIT(column(data.strengths)) as unknown[][];
-    for (let r = 0; r < 20; r++) expect([g[r][3], g[r][4]]).toEqual(fit[r]);
-    expect([g[20][3], g[20][4]]).toEqual((guarded.MODULUSBOUNDS(column(data.strengths)) as number[][])[0]);
+    for (let r = 0; r < 21; r++) expect([g[r][3], g[r][4]]).toEqual(fit[r]);
+    expect([g[21][3], g[21][4]]).toEqual((guarded.MODULUSBOUNDS(column(data.strengths)) as number[][])[0]);
     const censored = data.strengths.map((_: number, i: number) => [i % 7 === 3 ? true : null]);
-    expect([g[21][3], g[21][4]]).toEqual((guarded.CHARSTRENGTHBOUNDS(column(data.strengths), 0.95, censored) as number[][])[0]);
-    expect([g[22][3], g[22][4]]).toEqual((guarded.FITQUALITY(column(data.strengths)) as number[][])[0]);
-    expect(g[23][5]).toMatch(/baseline/);
-    expect(g[24][3]).toBe(guarded.DESIGNSTRESSBOUND(0.9999, column(data.strengths), 0.95, 25));
-    expect([g[25][3], g[25][4]]).toEqual(["#NUM!", "#NUM!"]);
-    expect(g[26][3]).toBe("#N/A");
+    expect([g[22][3], g[22][4]]).toEqual((guarded.CHARSTRENGTHBOUNDS(column(data.strengths), 0.95, censored) as number[][])[0]);
+    expect([g[23][3], g[23][4]]).toEqual((guarded.FITQUALITY(column(data.strengths)) as number[][])[0]);
+    expect(g[24][5]).toMatch(/baseline/);
+    expect(g[25][3]).toBe(guarded.DESIGNSTRESSBOUND(0.9999, column(data.strengths), 0.95, 25));
+    expect([g[26][3], g[26][4]]).toEqual(["#NUM!", "#NUM!"]);
+    expect(g[27][3]).toBe("#N/A");
   });
 
   it("spills PLOTPOINTS over one row per cell of the strengths range, blank rows last", () => {
