@@ -7,13 +7,14 @@ import { isCellFailure, type CellResult } from "../functions/cells";
 import { guarded } from "../functions/registry";
 import { competingDesignStress, competingFailureProbability, populationSample } from "../src/weibull/competing-populations";
 import { meanStrength, strengthStandardDeviation } from "../src/weibull/distribution";
-import { compareLots } from "../src/weibull/lot-comparison";
+import { compareLots, lotPValue } from "../src/weibull/lot-comparison";
 import { logOnePlusSquaredCv, modulusFromCoefficientOfVariation } from "../src/weibull/modulus-from-cv";
 import { SeededRandom } from "../src/numeric/random";
 import { fixture, relativeError } from "./helpers";
 
 const ref = fixture("uncertainty.json");
 const edges = fixture("competing_edges.json");
+const lotTails = fixture("lot_pvalue.json");
 const fits = fixture("weibull_fits.json").datasets;
 const column = (xs: readonly unknown[]) => xs.map((x) => [x]);
 const code = (r: CellResult) => (isCellFailure(r) ? r.cellError : r);
@@ -106,7 +107,7 @@ describe("lot check", () => {
       const r = compareLots({ lot: c.lot, baseline: c.baseline });
       expect(relativeError(r.statistic, c.statistic)).toBeLessThan(1e-8);
       expect(relativeError(r.chiSquarePValue, c.chiSquareP)).toBeLessThan(1e-10); // scipy.stats.chi2.sf(LR, 2)
-      // Two Monte Carlo p-values (ours: 4000 replications, numpy: 100000): 4 combined standard errors.
+      // Two Monte Carlo p-values (ours: 40,000 replications, numpy: 100000): 4 combined standard errors.
       const se = Math.sqrt(Math.max(c.monteCarloP * (1 - c.monteCarloP), 1e-4) * (1 / r.replications + 1 / c.replications));
       expect(Math.abs(r.pValue - c.monteCarloP)).toBeLessThan(4 * se + 1 / r.replications);
       const cells = guarded.LOTCHECK(column(c.lot), column(c.baseline)) as unknown[][];
@@ -115,6 +116,23 @@ describe("lot check", () => {
       expect(cells[0][2]).toMatch(r.differs ? /^The lot differs/ : /^Consistent with the baseline/);
     });
   }
+
+  for (const c of lotTails.cases) {
+    it(`lot of ${c.lot} against a baseline of ${c.baseline}, statistic ${c.statistic}: p-value within 3 standard errors of 400,000 numpy draws`, () => {
+      // source: numpy 2.4 via test/fixtures/generate_lot_pvalue.py (400,000 draws); ours 40,000, so 3 combined SEs.
+      const r = lotPValue({ lotSpecimens: c.lot, baselineSpecimens: c.baseline, statistic: c.statistic });
+      expect(r.replications).toBeGreaterThanOrEqual(40000);
+      const se = Math.sqrt(c.pValue * (1 - c.pValue) * (1 / r.replications + 1 / c.replications));
+      expect(Math.abs(r.pValue - c.pValue)).toBeLessThan(3 * se);
+      expect(relativeError(r.pValueStandardError, Math.sqrt((r.pValue * (1 - r.pValue)) / r.replications))).toBeLessThan(1e-12);
+    });
+  }
+
+  it("the verdict states the p-value with its Monte Carlo standard error", () => {
+    const byId = Object.fromEntries(ref.lotCheck.map((c: any) => [c.id, c]));
+    const r = compareLots({ lot: byId.same.lot, baseline: byId.same.baseline });
+    expect(r.verdict).toMatch(/p = 0\.\d+ \+- 0\.\d+ by simulation/);
+  });
 
   it("flags the weaker lot and passes the lot from the same distribution", () => {
     const byId = Object.fromEntries(ref.lotCheck.map((c: any) => [c.id, c]));
