@@ -50,6 +50,8 @@ function fail(field: string, message: string): never {
 }
 
 function show(value: unknown): string {
+  // Never echo "NaN" or "Infinity" into a message, even as typed.
+  if (typeof value === "string" && /nan|inf/i.test(value)) return "text that is not a number";
   if (typeof value === "string") return `text "${value.length > 40 ? value.slice(0, 40) + "..." : value}"`;
   if (typeof value === "number") return Number.isNaN(value) ? "not a number" : Number.isFinite(value) ? String(value) : "a number too large to represent";
   if (value === null) return "null";
