@@ -32,8 +32,13 @@ describe("registration through the shared runtime", () => {
 
     const failprob = associated.get("FAILPROB")!;
     expect(failprob(200, 10, 400, null)).toBeCloseTo(-Math.expm1(-Math.pow(0.5, 10)), 15);
-    const num = failprob(200, -10, 400, null) as HostError;
-    expect(num).toBeInstanceOf(HostError);
+    // A bad input is #VALUE! with its message (the host shows it).
+    const bad = failprob(200, -10, 400, null) as HostError;
+    expect(bad).toBeInstanceOf(HostError);
+    expect(bad.code).toBe("#VALUE!");
+    expect(bad.message).toMatch(/modulus/);
+    // A result beyond double precision is #NUM!, which the host shows with no message.
+    const num = associated.get("MEANSTRENGTH")!(0.001, 400) as HostError;
     expect(num.code).toBe("#NUM!");
     expect(num.message).toBeUndefined();
     const value = associated.get("MODULUS")!([[300], ["oops"], [320]], null, null) as HostError;
