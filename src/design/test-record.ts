@@ -136,18 +136,18 @@ export interface RecordResult {
 
 function factorFor(quantity: Quantity, unit: Unit | "unknown", header: string): number {
   if (quantity === "poisson") {
-    if (unit !== "" && unit !== "unknown") throw new InputError("value", `column "${header}": Poisson's ratio has no unit`);
+    if (unit !== "" && unit !== "unknown") throw new InputError("input", `column "${header}": Poisson's ratio has no unit`);
     return 1;
   }
   const table = quantity === "load" ? TO_NEWTON : TO_MM;
   if (unit === "unknown") {
-    throw new InputError("value", `column "${header}": unknown unit; use ${Object.keys(table).join(", ")} in the header, e.g. "${quantity === "load" ? "Load [kN]" : "Width [mm]"}"`);
+    throw new InputError("input", `column "${header}": unknown unit; use ${Object.keys(table).join(", ")} in the header, e.g. "${quantity === "load" ? "Load [kN]" : "Width [mm]"}"`);
   }
   if (unit === "") {
-    throw new InputError("value", `column "${header}" names no unit: add one to the header (${Object.keys(table).join(", ")}) or choose it`);
+    throw new InputError("input", `column "${header}" names no unit: add one to the header (${Object.keys(table).join(", ")}) or choose it`);
   }
   const factor = table[unit];
-  if (factor === undefined) throw new InputError("value", `column "${header}": ${unit} is not a unit of ${quantity === "load" ? "force" : "length"}`);
+  if (factor === undefined) throw new InputError("input", `column "${header}": ${unit} is not a unit of ${quantity === "load" ? "force" : "length"}`);
   return factor;
 }
 
@@ -197,10 +197,10 @@ export function strengthsFromRecord({ configuration, headers, rows, columns, fix
     const column = columns[q];
     if (column === undefined) {
       const value = fixed[q];
-      if (value === undefined || !Number.isFinite(value)) throw new InputError("value", `${q}: map a column of the record or type one value for every specimen`);
+      if (value === undefined || !Number.isFinite(value)) throw new InputError("input", `${q}: map a column of the record or type one value for every specimen`);
       continue;
     }
-    if (column < 0 || column >= headers.length) throw new InputError("value", `${q}: column ${column + 1} is not in the record (it has ${headers.length})`);
+    if (column < 0 || column >= headers.length) throw new InputError("input", `${q}: column ${column + 1} is not in the record (it has ${headers.length})`);
     const header = headers[column];
     const named = unitInHeader(header);
     const unit = named === "" && units[q] !== undefined ? (units[q] as Unit) : named;
