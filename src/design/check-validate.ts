@@ -26,14 +26,11 @@ import {
 } from "./check-description";
 import { parseBUnit, parseSizeUnit, powerFor, TIME_UNITS } from "./check-units";
 
-/** The kind of InputError a bad field raises: the caller's input cannot be used. */
-const BAD_INPUT = "value" as const;
-
 /** A field of a check description that cannot be used; `field` is its path. */
 export class CheckFieldError extends InputError {
   readonly field: string;
   constructor(field: string, message: string) {
-    super(BAD_INPUT, field ? `${field}: ${message}` : message);
+    super("input", field ? `${field}: ${message}` : message);
     this.name = "CheckFieldError";
     this.field = field;
   }

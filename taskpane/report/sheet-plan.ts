@@ -286,7 +286,7 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
     if (life) {
       derived("proofMinLife", "Minimum life guaranteed by the proof test", "PROOFMINLIFE",
         `=BRITTLE.PROOFMINLIFE(${refs.proofStress},${refs.applied},${refs.scgN},${refs.scgB})`,
-        result.proof?.minimumLife?.value ?? null, safeText(life.timeUnit), "an error when the applied stress exceeds the proof stress");
+        result.proof?.minimumLife?.value ?? null, safeText(life.timeUnit), "#VALUE! when the applied stress exceeds the proof stress");
     }
   }
   let governing = shortTerm;
