@@ -20,7 +20,7 @@
  * p-value near 0.01 is then good to about +-0.0005), cached per size pair,
  * and its binomial standard error sqrt(p (1 - p) / R) is reported with it.
  */
-import { require, requireProbability } from "../errors";
+import { ensureConverged, ensureProbability } from "../errors";
 import { SeededRandom } from "../numeric/random";
 import { fitMaximumLikelihood } from "./maximum-likelihood";
 import { patternSeed, solveShapeFromLogs } from "./pivotal-simulation";
@@ -66,7 +66,7 @@ function maxLogLikelihood(y: Float64Array, from: number, to: number, z: Float64A
 
 function observedLogLikelihood(strengths: readonly number[], shift: number): number {
   const fit = fitMaximumLikelihood({ strengths });
-  require(fit.converged, "the maximum-likelihood fit did not converge");
+  ensureConverged(fit.converged, "the maximum-likelihood fit did not converge");
   const n = strengths.length;
   let sum = 0;
   for (const s of strengths) sum += Math.log(s) - shift;
@@ -131,7 +131,7 @@ export function compareLots({
   baseline: readonly number[];
   confidence?: number;
 }): LotComparison {
-  requireProbability(confidence, "confidence");
+  ensureProbability(confidence, "confidence");
   checkSample({ strengths: lot });
   checkSample({ strengths: baseline });
   requireSimulationSize(lot.length + baseline.length, "the lot check");
