@@ -150,7 +150,7 @@ function boundsFromCells(strengths: unknown, confidence: unknown, censored: unkn
 /**
  * Confidence bounds on the Weibull modulus by the pivotal method of ASTM C1239 / ISO 20501: m_hat/q, with q the
  * simulated quantiles of m_hat/m and m_hat the raw maximum-likelihood modulus. Censored samples take the quantiles
- * from a bootstrap conditional on their censoring values (approximate). Example: =BRITTLE.MODULUSBOUNDS(B2:B31)
+ * from a bootstrap of competing flaw populations (approximate). Example: =BRITTLE.MODULUSBOUNDS(B2:B31)
  * spills the lower and upper 90 % bounds.
  * @customfunction
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
