@@ -191,27 +191,30 @@ describe.runIf(has("FIT", "MODULUSBOUNDS", "CHARSTRENGTHBOUNDS", "FITQUALITY", "
           call("CHARSTRENGTHBOUNDS", column(scaled)),
           call("FITQUALITY", column(xs)),
           call("FITQUALITY", column(scaled)),
-          call("DESIGNSTRESSBOUND", num(s), column(xs), omit, num(r)),
-          call("DESIGNSTRESSBOUND", num(s), column(scaled), omit, num(r)),
+          call("DESIGNSTRESSBOUND", num(s), column(xs), omit, omit, num(r)),
+          call("DESIGNSTRESSBOUND", num(s), column(scaled), omit, omit, num(r)),
           call("PLOTPOINTS", column(xs)),
           call("PLOTPOINTS", column(scaled)),
         ],
         verify: ([mb0, mbk, cb0, cbk, q0, qk, d0, dk, p0, pk]) => {
           const times = (v: Shown) => (isNum(v) ? v * k : v);
           for (let j = 0; j < 2; j++) {
+            // Labelled blocks: row j holds (label, value).
             const problem =
-              same(mbk[0][j], mb0[0][j], 1e-9, "modulus bound ") ??
-              same(cbk[0][j], times(cb0[0][j]), 1e-9, "strength bound ") ??
-              same(qk[0][j], q0[0][j], 1e-7, "fit quality ");
+              same(mbk[j][1], mb0[j][1], 1e-9, "modulus bound ") ??
+              same(cbk[j][1], times(cb0[j][1]), 1e-9, "strength bound ") ??
+              same(qk[j][1], q0[j][1], 1e-7, "fit quality ");
             if (problem) return problem;
           }
           const d = same(top(dk), times(top(d0)), 1e-9, "design-stress bound ");
           if (d) return d;
-          for (let i = 0; i < p0.length; i++) {
+          // Row 0 is the header; P (third column) is free of the unit like Y.
+          for (let i = 1; i < p0.length; i++) {
             const x0 = p0[i][0];
             const x = same(pk[i][0], isNum(x0) ? x0 + Math.log(k) : x0, 1e-9, `plot X row ${i + 1} `);
             const y = same(pk[i][1], p0[i][1], 1e-12, `plot Y row ${i + 1} `);
-            if (x || y) return x ?? y;
+            const p = same(pk[i][2], p0[i][2], 1e-15, `plot P row ${i + 1} `);
+            if (x || y || p) return x ?? y ?? p;
           }
           return null;
         },
@@ -578,11 +581,12 @@ describe.runIf(has("LIFETIMESTRESS", "TIMETOFAILURE", "PROOFMINLIFE", "PROOFSTRE
           verify: ([constant, h, hk, f, fk, st, stk]) =>
             same(top(constant), sigma, 1e-13, "constant history ") ??
             same(top(hk), isNum(top(h)) ? (top(h) as number) * k : top(h), 1e-12, "history stresses scaled ") ??
-            same(fk[0][0], f[0][0], 1e-9, "SCGFIT n ") ??
-            same(fk[0][1], isNum(f[0][1]) ? f[0][1] * k : f[0][1], 1e-9, "SCGFIT D ") ??
-            same(stk[0][0], st[0][0], 1e-9, "SCGSTATICFIT n ") ??
-            (isNum(st[0][1]) && isNum(stk[0][1]) && Math.abs(stk[0][1] - st[0][1] - Math.log10(k)) > 1e-9 * Math.max(1, Math.abs(st[0][1]))
-              ? `SCGSTATICFIT log10 Ds ${stk[0][1]} vs ${st[0][1]} + log10 k`
+            // Labelled blocks: row 0 (label, n), row 1 (label, D or log10 Ds).
+            same(fk[0][1], f[0][1], 1e-9, "SCGFIT n ") ??
+            same(fk[1][1], isNum(f[1][1]) ? f[1][1] * k : f[1][1], 1e-9, "SCGFIT D ") ??
+            same(stk[0][1], st[0][1], 1e-9, "SCGSTATICFIT n ") ??
+            (isNum(st[1][1]) && isNum(stk[1][1]) && Math.abs(stk[1][1] - st[1][1] - Math.log10(k)) > 1e-9 * Math.max(1, Math.abs(st[1][1]))
+              ? `SCGSTATICFIT log10 Ds ${stk[1][1]} vs ${st[1][1]} + log10 k`
               : null),
         };
       });

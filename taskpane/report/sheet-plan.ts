@@ -241,7 +241,7 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
     result1(
       "allowableLower",
       `Allowable stress, ${conf} lower bound`,
-      `=BRITTLE.DESIGNSTRESSBOUND(${refs.survivalUsed},${strengths},${refs.confidence},${k}${flags ? `,${flags}` : ""})`,
+      `=BRITTLE.DESIGNSTRESSBOUND(${refs.survivalUsed},${strengths},${flags},${refs.confidence},${k})`,
       stressUnit,
       "one-sided lower confidence bound, pivotal quantities (ASTM C1239)",
       STRESS,
@@ -356,9 +356,9 @@ function planChart(
         ];
       }), "data", true);
     } else if (strengths && plotPoints) {
-      // Adjusted ranks have no native formula: PLOTPOINTS spills ln(strength) and Y from column AG, failures first.
-      put(3, AG, [["ln(strength)", "ln(-ln(1-P))"]], "heading");
-      put(4, AG, [[`=BRITTLE.PLOTPOINTS(${strengths}${flags ? `,${flags}` : ""})`]], "data", true);
+      // Adjusted ranks have no native formula: PLOTPOINTS spills its header row, then ln(strength), Y and P
+      // from column AG, failures first.
+      put(3, AG, [[`=BRITTLE.PLOTPOINTS(${strengths}${flags ? `,${flags}` : ""})`]], "data", true);
       put(row, I, points.map((_, i) => {
         const r = row + i + 1;
         return [i + 1, `=EXP(AG${r})`, `=AH${r}`, `=1-EXP(-EXP(K${r}))`];
