@@ -68,8 +68,8 @@ function fitTable(summary: FitSummary, methodName: string): CellValue[][] {
     ["specimens", summary.specimens],
     ["failures (population fitted)", summary.failures],
     ["method", methodName],
-    ["unbiasing factor", summary.unbiasingFactor],
-    ["modulus m", summary.shape],
+    ["unbiasing factor", summary.unbiasingUnavailable ? "none at 2 failures (E[m_hat/m] is infinite)" : summary.unbiasingFactor],
+    [summary.unbiasingUnavailable ? "modulus m (raw ML, not unbiased: no unbiasing factor exists at 2 failures)" : "modulus m", summary.shape],
     [`modulus, lower bound ${level}`, summary.shapeBounds.lower],
     [`modulus, upper bound ${level}`, summary.shapeBounds.upper],
     ["characteristic strength", summary.scale],
@@ -109,7 +109,9 @@ function fitFromCells(sample: { strengths: number[]; censored?: boolean[] }, con
  * Labelled two-column fit table for a supplier datasheet: counts, modulus and characteristic strength with
  * two-sided confidence bounds (ASTM C1239 pivotal method on the raw maximum-likelihood fit), mean, median, standard
  * deviation, Anderson-Darling A* and OSL, two single-population checks (plot bend, low value), a verdict in plain
- * words, and whether the fit converged. Example: =BRITTLE.FIT(B2:B31) spills 20 rows of labels and values.
+ * words, and whether the fit converged. With two failures the default "MLE" modulus row gives the raw ML modulus
+ * and says why (no unbiasing factor exists there: E[m_hat/m] is infinite; the factor is tabulated for N = 3 to 500).
+ * Example: =BRITTLE.FIT(B2:B31) spills 20 rows of labels and values.
  * @customfunction
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
  * @param [censored] Optional flags, same shape as strengths: TRUE or 1 where the specimen did not fail from the population being fitted.
