@@ -9,7 +9,7 @@
  * Pf = 1e-4 .. 1e-9, where `1 - exp(-x)` keeps only a few digits, so every
  * probability here goes through expm1/log1p.
  */
-import { ensure, ensurePositiveResult, ensurePositive, ensureProbability } from "../errors";
+import { ensure, ensurePositiveResult, ensurePositive, ensureProbability, notRepresentable } from "../errors";
 import { gamma, logGamma } from "../numeric/gamma";
 
 export interface WeibullParameters {
@@ -42,9 +42,15 @@ export function cumulativeHazard({ stress, shape, scale, sizeRatio = 1 }: AtStre
   return Math.exp(Math.log(sizeRatio) + shape * Math.log(stress / scale));
 }
 
-/** Probability of failure at or below `stress`: -expm1(-H), exact to rounding at tiny Pf. */
+/**
+ * Probability of failure at or below `stress`: -expm1(-H), exact to rounding
+ * at tiny Pf. Positive at any positive stress, so a 0 there is an underflow
+ * (below about 5e-324) and an error, not a probability.
+ */
 export function failureProbability(args: AtStress): number {
-  return -Math.expm1(-cumulativeHazard(args));
+  const pf = -Math.expm1(-cumulativeHazard(args));
+  if (pf === 0 && args.stress > 0) throw notRepresentable("failure probability", "small");
+  return pf;
 }
 
 /** Probability of survival at `stress`. */
