@@ -10,7 +10,7 @@
  * probability here goes through expm1/log1p.
  */
 import { ensure, ensurePositiveResult, ensurePositive, ensureProbability, notRepresentable } from "../errors";
-import { gamma, logGamma } from "../numeric/gamma";
+import { gamma, logGamma, logGammaRatioTwoOne } from "../numeric/gamma";
 
 export interface WeibullParameters {
   /** Weibull modulus m (dimensionless). */
@@ -122,9 +122,9 @@ export function scaleFromMedian({ median, shape }: { median: number; shape: numb
 export function strengthStandardDeviation({ shape, scale }: WeibullParameters): number {
   checkParameters({ shape, scale }, 1);
   const g1 = logGamma(1 + 1 / shape);
-  const g2 = logGamma(1 + 2 / shape);
-  // exp(g2) - exp(2 g1) = exp(2 g1) * expm1(g2 - 2 g1): no cancellation at large m.
-  return finite(scale * Math.exp(g1) * Math.sqrt(Math.expm1(g2 - 2 * g1)), "standard deviation");
+  // Gamma(1 + 2/m) - Gamma(1 + 1/m)^2 = Gamma(1 + 1/m)^2 expm1(D), with D = ln Gamma(1 + 2/m) - 2 ln Gamma(1 + 1/m)
+  // from a series whose Euler terms cancel exactly: no cancellation at any modulus.
+  return finite(scale * Math.exp(g1) * Math.sqrt(Math.expm1(logGammaRatioTwoOne(1 / shape))), "standard deviation");
 }
 
 function gammaOnePlusInverse(shape: number): number {
