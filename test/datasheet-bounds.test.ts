@@ -164,3 +164,19 @@ describe("DATASHEETBOUNDS in a cell", () => {
     expect(grids.S.slice(0, 6).map((r) => r.slice(0, 2))).toEqual(want);
   });
 });
+
+describe("the censoring range directly follows the strengths", () => {
+  it("MODULUSBOUNDS(strengths, flags) reads the flags as censoring (a range 2nd used to be taken for the confidence)", () => {
+    const strengths = [[312], [355], [371], [389], [398], [402], [415], [421], [433], [447]];
+    const flags = strengths.map((_, i) => [i === 3 || i === 7]);
+    const cell = guarded.MODULUSBOUNDS(strengths, flags) as unknown[][];
+    const core = parameterBounds({ strengths: strengths.map((r) => r[0]), censored: flags.map((r) => r[0]) });
+    expect(cell.map((r) => r[1])).toEqual([core.shape.lower, core.shape.upper]);
+    expect(guarded.CHARSTRENGTHBOUNDS(strengths, flags, 0.9, 1)).toEqual([
+      ["characteristic strength, lower bound (90 %, one-sided)", parameterBounds({ strengths: strengths.map((r) => r[0]), censored: flags.map((r) => r[0]), sides: 1 }).scale.lower],
+      ["characteristic strength, upper bound (90 %, one-sided)", parameterBounds({ strengths: strengths.map((r) => r[0]), censored: flags.map((r) => r[0]), sides: 1 }).scale.upper],
+    ]);
+    const bound = guarded.DESIGNSTRESSBOUND(0.999, strengths, flags, 0.95, 4);
+    expect(bound).toBe(designStressBound({ strengths: strengths.map((r) => r[0]), censored: flags.map((r) => r[0]), survival: 0.999, confidence: 0.95, sizeRatio: 4 }).lower);
+  });
+});
