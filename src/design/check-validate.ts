@@ -130,6 +130,8 @@ function list(value: unknown, field: string, lowest: number): unknown[] {
 /**
  * Checks a description (parsed JSON or built by the form) and returns it
  * typed, with defaults filled in. Throws CheckFieldError naming the field.
+ *
+ * @example validateCheckDescription(JSON.parse(text)) // throws CheckFieldError { field: "sizeUnit", ... } for mm^2 with volume flaws
  */
 export function validateCheckDescription(value: unknown): CheckDescription {
   const o = object(value, "");
