@@ -22,10 +22,10 @@
  * file is refused; neither leaves it open (whole numbers read either way, an
  * ambiguous `1,250` is then refused where it is used: number-text.ts).
  *
- * Refused with the place: a comma-delimited file in which no number has a
- * decimal point and two whole numbers stand side by side (`445,3`: split
- * decimal commas, or two columns?), unless a delimiter or decimal mark is
- * stated; a quoted field that never closes.
+ * Refused with the place: a comma-delimited file without a header line in
+ * which no number has a decimal point and two whole numbers stand side by
+ * side (`445,3`: split decimal commas, or two columns?), unless a delimiter
+ * or decimal mark is stated; a quoted field that never closes.
  */
 import { InputError } from "../errors";
 import { type DecimalMark, classifyNumber } from "./number-text";
@@ -234,8 +234,14 @@ export function settleDecimalMark(records: TextRecord[], delimiter: { delimiter:
   };
 }
 
-/** A comma file with no decimal point and two whole numbers side by side may be split decimal commas. */
+/**
+ * A comma file with no header, no decimal point and two whole numbers side
+ * by side may be split decimal commas. (With a header line of text, split
+ * decimals give rows wider than the header, which the field count catches.)
+ */
 function refuseSplitDecimals(records: TextRecord[]): void {
+  const first = records.find((r) => r.fields.length > 0);
+  if (!first || !first.fields.some((f) => classifyNumber(f.text).kind !== "not-a-number")) return;
   let pair: { line: number; text: string } | null = null;
   for (const r of records) {
     const f = r.fields;
