@@ -242,23 +242,28 @@ export function settleDecimalMark(records: TextRecord[], delimiter: { delimiter:
 function refuseSplitDecimals(records: TextRecord[]): void {
   const first = records.find((r) => r.fields.length > 0);
   if (!first || !first.fields.some((f) => classifyNumber(f.text).kind !== "not-a-number")) return;
-  let pair: { line: number; text: string } | null = null;
+  let suspect: { line: number; text: string } | null = null;
   for (const r of records) {
-    const f = r.fields;
-    for (let k = 0; k < f.length; k++) {
-      if (f[k].quoted) continue;
-      const shape = classifyNumber(f[k].text);
-      if (shape.kind === "decimal" || shape.kind === "ambiguous") return;
-      if (pair === null && k + 1 < f.length && !f[k + 1].quoted && /^[+-]?\d+$/.test(f[k].text) && /^\d+$/.test(f[k + 1].text)) {
-        pair = { line: r.line, text: `${f[k].text},${f[k + 1].text}` };
-      }
+    for (const f of r.fields) {
+      const shape = classifyNumber(f.text);
+      if ((shape.kind === "decimal" || shape.kind === "ambiguous") && !f.quoted) return;
+    }
+    if (suspect === null && r.fields.length > 1 && r.fields.every((f) => !f.quoted)) {
+      // Read with commas as decimal marks, would the line still be numbers (separated by blanks, if at all)?
+      const text = r.fields.map((f) => f.text).join(",");
+      const tokens = text.split(/[ \t\u00a0]+/);
+      const asDecimalComma = tokens.every((t) => {
+        const shape = classifyNumber(t);
+        return shape.kind === "integer" || (shape.kind === "decimal" && shape.mark === "comma") || (shape.kind === "ambiguous" && shape.separator === "comma");
+      });
+      if (asDecimalComma) suspect = { line: r.line, text };
     }
   }
-  if (pair) {
+  if (suspect) {
     throw new InputError(
       "value",
-      `line ${pair.line}: "${pair.text}" may be a number with a decimal comma split in two by the comma delimiter ` +
-        `(no number in the file has a decimal point); use semicolons or tabs between fields, or state the meaning: ` +
+      `line ${suspect.line}: "${suspect.text}" may hold numbers with decimal commas split apart by the comma delimiter ` +
+        `(no number in the file has a decimal point, and there is no header line); use semicolons or tabs between fields, or state the meaning: ` +
         `--decimal-comma (commas are decimal marks) or --decimal-point (commas separate fields)`,
     );
   }
