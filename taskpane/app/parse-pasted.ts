@@ -102,7 +102,8 @@ function chooseReading(lines: Line[], stated: DecimalMark | null): Reading {
   if (stated === "comma" || !lines.some((l) => l.text.includes(","))) return settle(attempt(lines, /\s+/, stated));
   // A comma and no other separator: a flag separator or a decimal comma.
   const asSeparator = attempt(lines, /\s*,\s*|\s+/, "point");
-  const asDecimal = attempt(lines, /\s+/, "comma");
+  // Commas as decimal marks: the numbers must settle it ("412,5"); "1,250" alone stays ambiguous and is refused.
+  const asDecimal = attempt(lines, /\s+/, null);
   if (asSeparator.ok && asDecimal.ok && stated === null) {
     const example = lines.find((l) => l.text.includes(","))!;
     throw new PasteError(
@@ -110,9 +111,9 @@ function chooseReading(lines: Line[], stated: DecimalMark | null): Reading {
         `Turn on "decimal comma" if the comma is a decimal mark, or separate flags with a tab.`,
     );
   }
-  if (stated === "point") return settle(asSeparator);
-  if (asDecimal.ok) return asDecimal.reading;
-  return settle(asSeparator);
+  if (asSeparator.ok) return asSeparator.reading;
+  // Neither reading works: the decimal reading's complaint ("1,250" could be two numbers) says more.
+  return settle(asDecimal);
 }
 
 function settle(a: Attempt): Reading {
