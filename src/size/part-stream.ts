@@ -9,7 +9,7 @@
  * arrays and summed by the same kernel as partRiskSum, so the streamed and
  * in-memory results agree to rounding.
  *
- * Text: the first 200 lines (or 64 KiB) are read ahead to settle the
+ * Text: the first 200 lines (or 4 MiB) are read ahead to settle the
  * encoding (UTF-8, UTF-16 LE/BE, with or without a byte-order mark), the
  * line ends (LF, CRLF or lone CR), the delimiter and the decimal mark by the
  * rules every input shares (src/input); UTF-16 is turned into UTF-8 on the
@@ -132,7 +132,8 @@ function delimiterByte(text: string | undefined): number | null {
 export const MAX_LINE_BYTES = 1 << 20;
 /** Lines (or bytes) read ahead to settle encoding, delimiter and decimal mark. */
 const SNIFF_LINES = 200;
-const SNIFF_BYTES = 1 << 16;
+// Bytes: enough for a few lines of the longest kind, so an overlong first comment does not leave the sample empty.
+const SNIFF_BYTES = 4 * MAX_LINE_BYTES;
 const MAX_SKIPPED_RUNS = 100;
 
 function delimiterName(b: number): string {
