@@ -126,7 +126,7 @@ export function splitRecords(text: string, delimiter: Delimiter): TextRecord[] {
       any = true;
     }
   }
-  if (inQuotes) throw new InputError("value", `line ${quoteLine}: a quoted field is not closed`);
+  if (inQuotes) throw new InputError("input", `line ${quoteLine}: a quoted field is not closed`);
   if (any || fields.length > 0) endRecord();
   return records;
 }
@@ -220,7 +220,7 @@ export function settleDecimalMark(records: TextRecord[], delimiter: { delimiter:
   }
   if (proof.point && proof.comma) {
     throw new InputError(
-      "value",
+      "input",
       `mixed decimal marks: line ${proof.point.line} has "${proof.point.text}", line ${proof.comma.line} has "${proof.comma.text}"; ` +
         `use one mark, or state it (--decimal-comma or --decimal-point; in the form, the decimal-comma switch)`,
     );
@@ -261,7 +261,7 @@ function refuseSplitDecimals(records: TextRecord[]): void {
   }
   if (suspect) {
     throw new InputError(
-      "value",
+      "input",
       `line ${suspect.line}: "${suspect.text}" may hold numbers with decimal commas split apart by the comma delimiter ` +
         `(no number in the file has a decimal point, and there is no header line); use semicolons or tabs between fields, or state the meaning: ` +
         `--decimal-comma (commas are decimal marks) or --decimal-point (commas separate fields)`,

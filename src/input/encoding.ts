@@ -29,7 +29,7 @@ export function detectEncoding(prefix: Uint8Array): EncodingGuess {
   if (prefix.length >= 2 && prefix[0] === 0xff && prefix[1] === 0xfe) return { encoding: "utf-16le", bom: 2 };
   if (prefix.length >= 2 && prefix[0] === 0xfe && prefix[1] === 0xff) return { encoding: "utf-16be", bom: 2 };
   if (prefix.length >= 4 && prefix[0] === 0x50 && prefix[1] === 0x4b && prefix[2] === 0x03 && prefix[3] === 0x04) {
-    throw new InputError("value", "the file is a zip archive (an .xlsx workbook?), not delimited text");
+    throw new InputError("input", "the file is a zip archive (an .xlsx workbook?), not delimited text");
   }
   const n = Math.min(prefix.length, 1024) & ~1;
   let evenZeros = 0;
@@ -57,7 +57,7 @@ export function decodeText(bytes: Uint8Array): DecodedText {
   }
   const body = bytes.subarray(guess.bom);
   const nul = body.indexOf(0);
-  if (nul >= 0) throw new InputError("value", `the file holds a NUL byte (at byte ${nul + guess.bom}): not a text file`);
+  if (nul >= 0) throw new InputError("input", `the file holds a NUL byte (at byte ${nul + guess.bom}): not a text file`);
   const utf8 = decodeUtf8(body);
   if (utf8 !== null) return { text: utf8, encoding: guess.bom ? "UTF-8 with BOM" : "UTF-8" };
   return { text: decodeWindows1252(body), encoding: "Windows-1252" };

@@ -37,7 +37,7 @@ export function readDelimited(text: string, choice: DialectChoice & { comments?:
   const { problem } = evenFieldCounts(records);
   if (problem) {
     const first = records.find((r) => r.fields.length > 0)!;
-    throw new InputError("value", fieldCountMessage(problem, dialect, first.line));
+    throw new InputError("input", fieldCountMessage(problem, dialect, first.line));
   }
   return { dialect, records };
 }
@@ -55,5 +55,5 @@ export function fieldNumber(text: string, mark: DecimalMark | null, line: number
   const r = readNumber(text, mark);
   if (r.ok) return r.value;
   if (r.reason === "is not a number") return null;
-  throw new InputError("value", `line ${line}, field ${field}: "${text}" ${r.reason}`);
+  throw new InputError("input", `line ${line}, field ${field}: "${text}" ${r.reason}`);
 }

@@ -25,7 +25,7 @@
  * ("1,250") is refused, never guessed. Nothing non-finite reaches the
  * result: a value too large to represent stops the read, naming the element.
  */
-import { InputError, requirePositive } from "../errors";
+import { ensurePositive, InputError } from "../errors";
 import { contentLines, detectDelimiter, settleDecimalMark, type TextRecord } from "../input/delimited-text";
 import { type EncodingGuess, Utf16ToUtf8, detectEncoding } from "../input/encoding";
 import { type DecimalMark, looksNumeric, readNumber } from "../input/number-text";
@@ -125,7 +125,7 @@ function delimiterByte(text: string | undefined): number | null {
   if (text === "space" || text === " ") return WHITESPACE;
   if (text === "tab" || text === "\\t" || text === "\t") return 0x09;
   if (text.length === 1) return text.charCodeAt(0);
-  throw new InputError("value", `delimiter must be one character, "tab", "space" or "auto" (got "${text}")`);
+  throw new InputError("input", `delimiter must be one character, "tab", "space" or "auto" (got "${text}")`);
 }
 
 /** The longest line an element table may have (bytes, line end excluded). */
@@ -199,8 +199,8 @@ export class PartTableReader {
   private held: Held[] = [];
 
   constructor(options: PartStreamOptions) {
-    requirePositive(options.shape, "modulus");
-    if (options.materialScale !== undefined) requirePositive(options.materialScale, "material scale");
+    ensurePositive(options.shape, "modulus");
+    if (options.materialScale !== undefined) ensurePositive(options.materialScale, "material scale");
     this.shape = options.shape;
     this.criterion = options.criterion ?? "PIA";
     this.materialScale = options.materialScale;
@@ -258,7 +258,7 @@ export class PartTableReader {
       text = all.subarray(guess.bom);
       this.encoding = guess.bom ? "UTF-8 with BOM" : "UTF-8";
       const nul = text.indexOf(0);
-      if (nul >= 0) throw new InputError("value", `the file holds a NUL byte (at byte ${nul + guess.bom}): not a text file`);
+      if (nul >= 0) throw new InputError("input", `the file holds a NUL byte (at byte ${nul + guess.bom}): not a text file`);
     } else {
       this.transcoder = new Utf16ToUtf8(guess);
       this.encoding = guess.encoding === "utf-16le" ? "UTF-16 LE" : "UTF-16 BE";
@@ -336,7 +336,7 @@ export class PartTableReader {
 
   private tooLong(line: number): never {
     throw new InputError(
-      "value",
+      "input",
       `line ${line} is longer than ${MAX_LINE_BYTES} bytes, the most an element table line may have (is this a table, with line ends?)`,
     );
   }
@@ -507,7 +507,7 @@ export class PartTableReader {
       if (r.proves) this.settleMark(r.proves, `detected: "${text}" on line ${this.lineNumber}`);
       return r.value;
     }
-    throw new InputError("value", `line ${this.lineNumber}: the ${what} field ${field + 1} ("${text}") ${r.reason}`);
+    throw new InputError("input", `line ${this.lineNumber}: the ${what} field ${field + 1} ("${text}") ${r.reason}`);
   }
 
   private dataLine(buf: Uint8Array, start: number, end: number): void {
@@ -554,17 +554,17 @@ export class PartTableReader {
       if (delimiter === WHITESPACE && i >= end) break;
     }
     if (field < this.fieldCount) {
-      throw new InputError("value", `line ${this.lineNumber}: expected at least ${this.fieldCount} fields as on line ${this.firstLineNumber}, found ${field}`);
+      throw new InputError("input", `line ${this.lineNumber}: expected at least ${this.fieldCount} fields as on line ${this.firstLineNumber}, found ${field}`);
     }
     if (extra) {
       throw new InputError(
-        "value",
+        "input",
         `line ${this.lineNumber}: found ${field} fields, more than the ${this.fieldCount} on line ${this.firstLineNumber} ` +
           `(a shifted column, or decimal commas in a comma-delimited file?)`,
       );
     }
     const size = this.sizes[row];
-    if (!(size >= 0)) throw new InputError("num", `line ${this.lineNumber}: the element size must be >= 0 (got ${size})`);
+    if (!(size >= 0)) throw new InputError("input", `line ${this.lineNumber}: the element size must be >= 0 (got ${size})`);
     this.lines[row] = this.lineNumber;
     this.rowsRead++;
     this.inBatch++;
@@ -589,7 +589,7 @@ export class PartTableReader {
         const b = r * 6;
         principalStresses(raw[b], raw[b + 1], raw[b + 2], raw[b + 3], raw[b + 4], raw[b + 5], out, r * 3);
         if (out[r * 3] - out[r * 3] !== 0 || out[r * 3 + 1] - out[r * 3 + 1] !== 0 || out[r * 3 + 2] - out[r * 3 + 2] !== 0) {
-          throw new InputError("num", `${this.elementName(r)}: its principal stresses are too large to represent; give the stresses in a larger unit`);
+          throw new InputError("notRepresentable", `${this.elementName(r)}: its principal stresses are too large to represent; give the stresses in a larger unit`);
         }
       }
     }
@@ -624,7 +624,7 @@ export class PartTableReader {
     let largest = 0;
     for (let r = 1; r < n; r++) if (this.sizes[r] > this.sizes[largest]) largest = r;
     throw new InputError(
-      "num",
+      "notRepresentable",
       `${this.elementName(largest)}: with its size ${this.sizes[largest]} the effective size is too large to represent; give the sizes in a larger unit`,
     );
   }
@@ -687,9 +687,9 @@ export class PartTableReader {
   finish(): PartStreamResult {
     if (!this.sniffed) this.sniff();
     if (this.carryLength > 0) this.feed(new Uint8Array([LF]));
-    if (this.columns === null) throw new InputError("value", "the table is empty: no line holds an element");
+    if (this.columns === null) throw new InputError("input", "the table is empty: no line holds an element");
     if (this.rowsRead === 0) {
-      throw new InputError("value", `the table is empty: ${this.lineNumber} line${this.lineNumber === 1 ? "" : "s"} read (header, blank or comment), no element`);
+      throw new InputError("input", `the table is empty: ${this.lineNumber} line${this.lineNumber === 1 ? "" : "s"} read (header, blank or comment), no element`);
     }
     this.flush();
     const effectiveSize = this.peak > 0 ? totalValue(this.total) : 0;
@@ -700,7 +700,7 @@ export class PartTableReader {
       if (!Number.isFinite(risk)) {
         const where = this.peakId !== null ? `element ${this.peakId} (line ${this.peakLine})` : `the element on line ${this.peakLine}`;
         throw new InputError(
-          "num",
+          "notRepresentable",
           `${where}: the risk of rupture is too large to represent (peak stress ${this.peak} against material scale ${this.materialScale}, ` +
             `modulus ${this.shape}): failure is certain to double precision; check the stress unit and the material scale`,
         );
