@@ -62,7 +62,10 @@ export interface Dialect {
   basis: { delimiter: string; decimalMark: string };
 }
 
-/** Splits text into records. Blank lines are records with no fields. */
+/**
+ * Splits text into records. Blank lines are records with no fields.
+ * @example splitRecords('a;"b;c"\n', ";") // [{ line: 1, fields: [{ text: "a", quoted: false }, { text: "b;c", quoted: true }] }]
+ */
 export function splitRecords(text: string, delimiter: Delimiter): TextRecord[] {
   if (delimiter === "space") return splitWhitespace(text);
   const records: TextRecord[] = [];
@@ -140,7 +143,10 @@ function splitWhitespace(text: string): TextRecord[] {
   });
 }
 
-/** Physical lines of a sample that carry content (no blank lines, no '#' comments when asked). */
+/**
+ * Physical lines of a sample that carry content (no blank lines, no '#' comments when asked).
+ * @example contentLines("# c\n\n1;2\n", true) // [{ line: 3, text: "1;2" }]
+ */
 export function contentLines(text: string, comments: boolean, limit = 200): { line: number; text: string }[] {
   const out: { line: number; text: string }[] = [];
   const lines = text.split(/\r\n|\n|\r/);
@@ -172,6 +178,7 @@ function delimiterName(d: Delimiter): string {
 /**
  * Settles the delimiter and decimal mark from sample lines (the content
  * lines of the first part of the input, in order).
+ * @example detectDialect([{ line: 1, text: "s;v" }, { line: 2, text: "445,3;2" }]) // delimiter ";", decimalMark "comma"
  */
 export function detectDialect(sample: { line: number; text: string }[], choice: DialectChoice = {}): Dialect {
   const delimiter = detectDelimiter(sample, choice);
@@ -185,7 +192,10 @@ export function detectDialect(sample: { line: number; text: string }[], choice: 
   return settleDecimalMark(records, delimiter, choice);
 }
 
-/** The delimiter, and how it was settled. */
+/**
+ * The delimiter, and how it was settled.
+ * @example detectDelimiter([{ line: 1, text: "a\tb, c" }]).delimiter // "\t"
+ */
 export function detectDelimiter(sample: { line: number; text: string }[], choice: DialectChoice = {}): { delimiter: Delimiter; basis: string } {
   const statedMark = choice.decimalMark && choice.decimalMark !== "auto" ? choice.decimalMark : null;
   if (choice.delimiter && choice.delimiter !== "auto") return { delimiter: choice.delimiter, basis: "stated" };
@@ -202,7 +212,10 @@ export function detectDelimiter(sample: { line: number; text: string }[], choice
   return { delimiter: statedMark === "comma" ? ";" : ",", basis: "no delimiter found: one column" };
 }
 
-/** The decimal mark from the records (all of a text, or a sample), under the delimiter. */
+/**
+ * The decimal mark from the records (all of a text, or a sample), under the delimiter.
+ * @example settleDecimalMark(splitRecords("445.3;1\n", ";"), { delimiter: ";", basis: "stated" }).decimalMark // "point"
+ */
 export function settleDecimalMark(records: TextRecord[], delimiter: { delimiter: Delimiter; basis: string }, choice: DialectChoice = {}): Dialect {
   const statedMark = choice.decimalMark && choice.decimalMark !== "auto" ? choice.decimalMark : null;
   const d = delimiter.delimiter;
@@ -279,6 +292,7 @@ export interface FieldCountProblem {
  * Every record with content must have as many fields as the first one.
  * Trailing empty fields beyond that count (spreadsheet exports pad rows to
  * the widest) are dropped; nothing else is.
+ * @example evenFieldCounts(splitRecords("a,b\n1\n", ",")).problem // { line: 2, found: 1, expected: 2 }
  */
 export function evenFieldCounts(records: TextRecord[]): { records: TextRecord[]; problem: FieldCountProblem | null } {
   const first = records.find((r) => r.fields.length > 0);
@@ -294,7 +308,10 @@ export function evenFieldCounts(records: TextRecord[]): { records: TextRecord[];
   return { records, problem: null };
 }
 
-/** The one-line message for a field-count problem, with the split-decimal hint when it fits. */
+/**
+ * The one-line message for a field-count problem, with the split-decimal hint when it fits.
+ * @example fieldCountMessage({ line: 2, found: 1, expected: 2 }, dialect, 1) // "line 2 has 1 field, but line 1 has 2 (delimiter: comma)"
+ */
 export function fieldCountMessage(p: FieldCountProblem, dialect: Dialect, firstLine: number): string {
   const hint =
     dialect.delimiter === "," && p.found > p.expected

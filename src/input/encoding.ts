@@ -23,7 +23,10 @@ export interface EncodingGuess {
   bom: number;
 }
 
-/** Guesses from the first bytes of a file (a few hundred are plenty). */
+/**
+ * Guesses from the first bytes of a file (a few hundred are plenty).
+ * @example detectEncoding(new Uint8Array([0xff, 0xfe, 0x31, 0x00])) // { encoding: "utf-16le", bom: 2 }
+ */
 export function detectEncoding(prefix: Uint8Array): EncodingGuess {
   if (prefix.length >= 3 && prefix[0] === 0xef && prefix[1] === 0xbb && prefix[2] === 0xbf) return { encoding: "utf-8", bom: 3 };
   if (prefix.length >= 2 && prefix[0] === 0xff && prefix[1] === 0xfe) return { encoding: "utf-16le", bom: 2 };
@@ -49,7 +52,10 @@ export interface DecodedText {
   encoding: TextEncodingName;
 }
 
-/** The text of a whole file. */
+/**
+ * The text of a whole file.
+ * @example decodeText(new Uint8Array([0xef, 0xbb, 0xbf, 0x61])) // { text: "a", encoding: "UTF-8 with BOM" }
+ */
 export function decodeText(bytes: Uint8Array): DecodedText {
   const guess = detectEncoding(bytes.subarray(0, 1024));
   if (guess.encoding !== "utf-8") {
@@ -72,7 +78,10 @@ function decodeUtf16(bytes: Uint8Array, little: boolean): string {
   return s;
 }
 
-/** Strict UTF-8 (RFC 3629): null when the bytes are not valid UTF-8. */
+/**
+ * Strict UTF-8 (RFC 3629): null when the bytes are not valid UTF-8.
+ * @example decodeUtf8(new Uint8Array([0xc2, 0xb5])) // "µ";  decodeUtf8(new Uint8Array([0xb5])) // null
+ */
 export function decodeUtf8(bytes: Uint8Array): string | null {
   const out: number[] = [];
   let s = "";
@@ -135,6 +144,7 @@ function decodeWindows1252(bytes: Uint8Array): string {
 /**
  * UTF-16 to UTF-8, chunk by chunk, for the streaming element-table reader:
  * a code unit or a surrogate pair split across chunks is carried over.
+ * @example new Utf16ToUtf8({ encoding: "utf-16le", bom: 0 }).push(new Uint8Array([0x31, 0x00])) // bytes [0x31]
  */
 export class Utf16ToUtf8 {
   private readonly little: boolean;

@@ -38,7 +38,10 @@ const NUMBER = /^[+-]?(\d+([.,]\d*)?|[.,]\d+)([eE][+-]?\d+)?$/;
 const AMBIGUOUS = /^[+-]?[1-9]\d{0,2}[.,]\d{3}$/;
 const GROUPED = /^[+-]?\d{1,3}([,.\u00a0\u202f' ]\d{3})+([.,]\d+)?([eE][+-]?\d+)?$/;
 
-/** Classifies trimmed text (no quotes). "-0" reads as 0 so no output ever shows a negative zero. */
+/**
+ * Classifies trimmed text (no quotes). "-0" reads as 0 so no output ever shows a negative zero.
+ * @example classifyNumber("1,250") // { kind: "ambiguous", separator: "comma", asDecimal: 1.25, asThousands: 1250 }
+ */
 export function classifyNumber(text: string): NumberShape {
   if (!NUMBER.test(text)) {
     return GROUPED.test(text) ? { kind: "grouped" } : { kind: "not-a-number" };
@@ -64,6 +67,7 @@ export type NumberReading =
 /**
  * Reads a token under the file's decimal mark (null: not yet known). The
  * reason of a refusal is a phrase to follow the token's place in a message.
+ * @example readNumber("445,3", null) // { ok: true, value: 445.3, proves: "comma" }
  */
 export function readNumber(text: string, mark: DecimalMark | null): NumberReading {
   const shape = classifyNumber(text);
@@ -98,7 +102,10 @@ export function readNumber(text: string, mark: DecimalMark | null): NumberReadin
   }
 }
 
-/** True when the text is number-shaped at all (for header detection): a number, ambiguous or grouped. */
+/**
+ * True when the text is number-shaped at all (for header detection): a number, ambiguous or grouped.
+ * @example looksNumeric("49S.3") // false
+ */
 export function looksNumeric(text: string): boolean {
   return classifyNumber(text).kind !== "not-a-number";
 }

@@ -27,6 +27,7 @@ export interface DelimitedTable {
 /**
  * Reads a text. `comments`: lines starting with '#' are no data (element
  * tables); the caller reports the lines it skips.
+ * @example readDelimited("s;v\n445,3;2\n").dialect // { delimiter: ";", decimalMark: "comma", basis: ... }
  */
 export function readDelimited(text: string, choice: DialectChoice & { comments?: boolean } = {}): DelimitedTable {
   const sample = contentLines(text, choice.comments ?? false, Number.POSITIVE_INFINITY);
@@ -50,6 +51,7 @@ function isComment(r: TextRecord): boolean {
  * The number in a field, under the file's decimal mark; throws an InputError
  * naming the line and field when the text is number-shaped but cannot be
  * read safely. Returns null for text that is not a number at all.
+ * @example fieldNumber("1,250", "comma", 3, 2) // 1.25;  fieldNumber("1,250", null, 3, 2) throws "line 3, field 2: ..."
  */
 export function fieldNumber(text: string, mark: DecimalMark | null, line: number, field: number): number | null {
   const r = readNumber(text, mark);
