@@ -489,16 +489,18 @@ export class PartTableReader {
 
   /** A stress or size field: bytes straight to a number, or the shared text rules where a mark is involved. */
   private numberField(buf: Uint8Array, i: number, e: number, what: string, field: number): number {
-    let hasMark = false;
+    let points = false;
+    let commas = false;
     for (let k = i; k < e; k++) {
       const b = buf[k];
-      if (b === 0x2e || b === COMMA) {
-        hasMark = true;
-        break;
-      }
+      if (b === 0x2e) points = true;
+      else if (b === COMMA) commas = true;
     }
-    if (!hasMark) {
-      const v = parseNumber(buf, i, e, -1);
+    // Bytes straight to a number where only the settled mark (or none) occurs; anything else goes
+    // through the shared text rules, which settle or refuse ("1,250" before any mark is known).
+    const direct = !commas && (!points || this.mark === "point") ? -1 : !points && this.mark === "comma" ? COMMA : -2;
+    if (direct !== -2) {
+      const v = parseNumber(buf, i, e, direct);
       if (v === v) return v === 0 ? 0 : v;
     }
     const text = decodeAscii(buf, i, e).trim().replace(/^"(.*)"$/, "$1").trim();
