@@ -6,6 +6,10 @@ import { detectDialect, splitRecords } from "../src/input/delimited-text";
 import { Utf16ToUtf8, decodeText, decodeUtf8, detectEncoding } from "../src/input/encoding";
 import { classifyNumber, readNumber } from "../src/input/number-text";
 import { readPartTable } from "../src/size/part-stream";
+import { readCsvBytes } from "../cli/workbook-io";
+import { InputError } from "../src/errors";
+import { parsePasted, PasteError } from "../taskpane/app/parse-pasted";
+import { parseElementTable, TableError } from "../taskpane/app/parse-table";
 
 function seeded(seed: number) {
   return () => (seed = (seed * 16807) % 2147483647) / 2147483647;
@@ -126,5 +130,63 @@ describe("delimiters and records", () => {
       [2, ["x\ny", 'say "hi"']],
       [4, []],
     ]);
+  });
+});
+
+describe("random hostile text", () => {
+  // Seeded, fixed count: texts from the characters that make CSV hard. Every reader either gives
+  // finite numbers or throws its own one-line error; nothing else escapes (common practice: fuzzing).
+  const ALPHABET = ["1", "2", "0", "9", ",", ".", ";", "\t", " ", '"', "\n", "\r\n", "\r", "e", "E", "-", "+", "\u00a0", "x", "#", "=", "\u00b5"];
+  const texts: string[] = [];
+  const rnd = seeded(2024);
+  for (let k = 0; k < 400; k++) {
+    let t = "";
+    const n = Math.floor(rnd() * 60);
+    for (let i = 0; i < n; i++) t += ALPHABET[Math.floor(rnd() * ALPHABET.length)];
+    texts.push(t);
+  }
+  const finite = (v: unknown) => typeof v !== "number" || Number.isFinite(v);
+
+  it("CSV sheets: values or InputError", () => {
+    for (const t of texts) {
+      try {
+        const rows = readCsvBytes(new TextEncoder().encode(t)).rows;
+        expect(rows.flat().every(finite), JSON.stringify(t)).toBe(true);
+      } catch (error) {
+        expect(error, JSON.stringify(t)).toBeInstanceOf(InputError);
+      }
+    }
+  });
+
+  it("element tables: finite results or InputError, whatever the chunking", async () => {
+    for (const t of texts) {
+      const bytes = new TextEncoder().encode(`s,v\n${t}`);
+      try {
+        const r = await readPartTable([bytes.subarray(0, 3), bytes.subarray(3)], { shape: 5, materialScale: 100 });
+        expect([r.effectiveSize, r.peak, r.failureProbability, r.risk].every(finite), JSON.stringify(t)).toBe(true);
+        expect(r.hotSpots.every((h) => Number.isFinite(h.share)), JSON.stringify(t)).toBe(true);
+      } catch (error) {
+        expect(error, JSON.stringify(t)).toBeInstanceOf(InputError);
+      }
+    }
+  });
+
+  it("pasted strengths and tables: values or the form's own error", () => {
+    for (const t of texts) {
+      for (const decimalComma of [false, true]) {
+        try {
+          const r = parsePasted(t, { decimalComma });
+          expect(r.strengths.every(Number.isFinite), JSON.stringify(t)).toBe(true);
+        } catch (error) {
+          expect(error, JSON.stringify(t)).toBeInstanceOf(PasteError);
+        }
+        try {
+          const r = parseElementTable(t, { decimalComma });
+          expect([...r.stresses.flat(), ...r.sizes].every(Number.isFinite), JSON.stringify(t)).toBe(true);
+        } catch (error) {
+          expect(error, JSON.stringify(t)).toBeInstanceOf(TableError);
+        }
+      }
+    }
   });
 });
