@@ -6,7 +6,7 @@
  * computed value beside it.
  */
 import { readFile } from "node:fs/promises";
-import ExcelJS from "exceljs";
+import { loadExcelJs, type ExcelJS } from "./exceljs-loader";
 
 export type Contents = number | string | boolean | null;
 
@@ -40,7 +40,7 @@ function sheetNameFor(path: string): string {
 }
 
 async function loadXlsx(path: string): Promise<LoadedWorkbook> {
-  const workbook = new ExcelJS.Workbook();
+  const workbook = new (await loadExcelJs()).Workbook();
   try {
     await workbook.xlsx.load((await readFile(path)) as never);
   } catch (error) {
