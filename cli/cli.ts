@@ -2,6 +2,7 @@
  * `brittle`: the add-in's functions with no spreadsheet application.
  *
  *   brittle calc FILE [--out FILE.xlsx] [--force] [--json]
+ *   brittle part FILE --modulus M [options]
  *   brittle demo
  *
  * calc evaluates every formula of an .xlsx or .csv workbook in the embedded
@@ -18,8 +19,11 @@ import type { FormulaResult } from "./evaluate-workbook";
 // imported where they are needed, so `brittle part` starts without them.
 
 const USAGE = `usage: brittle calc FILE [--out FILE.xlsx] [--force] [--json]
+       brittle part FILE --modulus M [options]   (brittle part --help lists them)
        brittle demo
-FILE is an .xlsx workbook or a .csv sheet whose cells may hold BRITTLE.* formulas.`;
+calc: FILE is an .xlsx workbook or a .csv sheet whose cells may hold BRITTLE.* formulas.
+part: FILE is a table of element stresses and sizes (effective size, failure probability, risk shares).
+demo: evaluates the invented supplier datasheet shipped with the package.`;
 
 export interface Io {
   out: (text: string) => void;
