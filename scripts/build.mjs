@@ -22,7 +22,7 @@ register();
 const ROOT = resolve(import.meta.dirname, "..");
 const started = Date.now();
 const step = (text) => process.stderr.write(`build: ${text}\n`);
-const { parseBuildOptions, manifestForBase, paneHtmlFor, BuildOptionError, BUILD_USAGE } = await import("./deploy.ts");
+const { parseBuildOptions, manifestForBase, paneHtmlFor, BuildOptionError, BUILD_USAGE, DIST_FILES } = await import("./deploy.ts");
 
 /** Sources the compiled command line is made of: any newer than lib/brittle.mjs makes it stale. */
 const CLI_SOURCES = ["src", "functions", "cli", "examples/demo.ts", "package.json", "scripts/build.mjs"];
@@ -113,6 +113,8 @@ async function buildAddIn(options, functionsJson, functions) {
   await cp(join(ROOT, "taskpane/assets"), join(dist, "assets"), { recursive: true });
   await writeFile(join(dist, "manifest.xml"), manifestForBase(await readFile(join(ROOT, "manifest.xml"), "utf8"), options.baseUrl));
   step(`icons and manifest.xml for ${options.baseUrl}`);
+  const missing = DIST_FILES.filter((file) => !existsSync(join(dist, file)));
+  if (missing.length) throw new Error(`dist/ lacks ${missing.join(", ")}`);
 }
 
 try {

@@ -15,6 +15,23 @@ export const OFFICE_JS_LOCAL = "./office-js/office.js";
 
 export type OfficeJsSource = "cdn" | "local";
 
+/**
+ * What the add-in build writes into dist/ (office-js/ only with --office-js local); the manifest names only these,
+ * and the build checks each one exists before it finishes.
+ */
+export const DIST_FILES = [
+  "taskpane.html",
+  "functions.json",
+  "functions.js",
+  "help.html",
+  "help.css",
+  "manifest.xml",
+  "assets/icon-16.png",
+  "assets/icon-32.png",
+  "assets/icon-64.png",
+  "assets/icon-80.png",
+] as const;
+
 export interface BuildOptions {
   baseUrl: string;
   officeJs: OfficeJsSource;

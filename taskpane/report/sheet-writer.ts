@@ -106,6 +106,15 @@ function style(range: Excel.Range, kind: BlockStyle): void {
   }
 }
 
+/**
+ * The manifest requires ExcelApi 1.4 (everything else here); adding series, their chart type and a logarithmic axis
+ * need 1.7. Outside a host (the tests' mock) there is no requirement check to ask, and the mock supports them.
+ */
+export function chartExtrasSupported(): boolean {
+  if (typeof Office === "undefined" || !Office.context?.requirements) return true;
+  return Office.context.requirements.isSetSupported("ExcelApi", "1.7");
+}
+
 function addChart(sheet: Excel.Worksheet, plan: SheetPlan): void {
   const { chart: spec } = plan;
   const [first, ...rest] = spec.series;
@@ -113,6 +122,13 @@ function addChart(sheet: Excel.Worksheet, plan: SheetPlan): void {
   chart.title.text = spec.title;
   chart.setPosition(spec.from, spec.to);
   chart.series.getItemAt(0).name = first.name;
+  chart.axes.valueAxis.title.text = spec.yTitle;
+  chart.legend.position = "Bottom";
+  // An older host gets the data points only: no fitted line, and a linear stress axis.
+  if (!chartExtrasSupported()) {
+    chart.axes.categoryAxis.title.text = spec.xTitle.replace(/, log scale$/, ""); // the axis stays linear here
+    return;
+  }
   for (const s of rest) {
     const series = chart.series.add(s.name);
     series.setXAxisValues(sheet.getRange(s.x));
@@ -122,8 +138,6 @@ function addChart(sheet: Excel.Worksheet, plan: SheetPlan): void {
   const x = chart.axes.categoryAxis;
   x.scaleType = "Logarithmic";
   x.title.text = spec.xTitle;
-  chart.axes.valueAxis.title.text = spec.yTitle;
-  chart.legend.position = "Bottom";
 }
 
 /** "$J$5:$J$28" -> "$J$5". */
