@@ -23,7 +23,7 @@
 //
 // A family's block runs when its functions are registered.
 import fc from "fast-check";
-import { afterAll, describe, it } from "vitest";
+import { afterAll, describe, it, vi } from "vitest";
 import { generateMetadata } from "../functions/metadata";
 import { assertNone } from "./properties-policy";
 import { evaluateCalls, type Arg, type Call, type Cell, type Shown } from "./properties-workbook";
@@ -63,18 +63,22 @@ function runChecks(checks: Check[]): string[] {
   return problems;
 }
 
-function property(check: fc.Arbitrary<Check>, perBuild: number, runs: number, budgetMs: number) {
+// A fixed number of cases per property, never a time budget (a budget made the count, and so the verdict, depend
+// on how busy the machine was: "interrupted after 0 tests"). Counts are sized so the file takes a few minutes on
+// a busy two-core machine; FC_SCALE multiplies them.
+function property(check: fc.Arbitrary<Check>, perBuild: number, runs: number) {
   fc.assert(
     fc.property(fc.array(check, { minLength: perBuild, maxLength: perBuild }), (checks) => assertNone(runChecks(checks))),
-    { numRuns: Math.max(1, Math.round(runs * scale)), interruptAfterTimeLimit: budgetMs * scale, markInterruptAsFailure: false, ...seed },
+    { numRuns: Math.max(1, Math.round(runs * scale)), ...seed },
   );
 }
+// Generous, and never a verdict: a slow machine takes longer, it does not fail.
+vi.setConfig({ testTimeout: 600_000 });
 
 const num = (x: number): Arg => ({ kind: "cell", value: x });
 const word = (w: string): Arg => ({ kind: "literal", text: JSON.stringify(w) });
 const omit: Arg = { kind: "omit" };
 const column = (xs: Cell[]): Arg => ({ kind: "range", cells: xs.map((x) => [x]) });
-const table = (rows: Cell[][]): Arg => ({ kind: "range", cells: rows });
 const call = (id: string, ...args: Arg[]): Call => ({ id, args });
 
 const top = (cells: Shown[][]): Shown => cells[0][0];
@@ -154,7 +158,7 @@ describe.runIf(has("MODULUS", "CHARSTRENGTH"))("fits", () => {
             same(top(cr), top(c0), 1e-10, "reordered characteristic strength "),
         };
       });
-    property(check, 12, 40, 4800);
+    property(check, 12, 12);
   });
 
   // Found by the property above: the bootstrap was once seeded by the strengths' bits in row order, so the
@@ -217,7 +221,7 @@ describe.runIf(has("FIT", "MODULUSBOUNDS", "CHARSTRENGTHBOUNDS", "FITQUALITY", "
         },
       };
     });
-    property(check, 8, 30, 3600);
+    property(check, 8, 12);
   });
 
   it("FIT: strength rows x k, every other row unchanged, when the strengths are scaled", () => {
@@ -244,7 +248,7 @@ describe.runIf(has("FIT", "MODULUSBOUNDS", "CHARSTRENGTHBOUNDS", "FITQUALITY", "
         return null;
       },
     }));
-    property(check, 6, 20, 3600);
+    property(check, 6, 20);
   });
 });
 
@@ -257,7 +261,7 @@ describe.runIf(has("FAILPROB", "DESIGNSTRESS", "SIZESCALE", "MATERIALSCALE", "ME
       verify: ([d, p]) => (isNum(top(d)) ? same(top(p), 1 - s, 1e-12, "failure probability ") : null),
     }));
     // One check per build: the second call reads the first by its address.
-    property(check, 1, 150, 2400);
+    property(check, 1, 150);
   });
 
   it("monotone: FAILPROB rises with stress and size, DESIGNSTRESS falls with survival and size", () => {
@@ -284,7 +288,7 @@ describe.runIf(has("FAILPROB", "DESIGNSTRESS", "SIZESCALE", "MATERIALSCALE", "ME
             notAbove(top(dSize), top(d), "DESIGNSTRESS at a larger size: "),
         };
       });
-    property(check, 25, 60, 2400);
+    property(check, 25, 30);
   });
 
   it("SIZESCALE round trips and composes; DESIGNSTRESS at a size ratio and MATERIALSCALE agree with it; mean and median conversions invert", () => {
@@ -303,7 +307,7 @@ describe.runIf(has("FAILPROB", "DESIGNSTRESS", "SIZESCALE", "MATERIALSCALE", "ME
         call("CHARFROMMEAN", { kind: "literal", text: "BRITTLE.MEANSTRENGTH(" + m + ", " + x + ")" }, num(m)),
         call("CHARFROMMEDIAN", { kind: "literal", text: "BRITTLE.DESIGNSTRESS(0.5, " + m + ", " + x + ")" }, num(m)),
       ],
-      verify: ([a, back, via, direct, dr, d1, d1scaled, ms, s1, cm, cmed]) =>
+      verify: ([a, back, via, direct, dr, _d1, d1scaled, ms, s1, cm, cmed]) =>
         (isNum(top(a)) ? same(top(back), x, 1e-13, "round trip ") ?? same(top(via), top(direct), 1e-13, "composition ") : null) ??
         same(top(dr), top(d1scaled), 1e-13, "DESIGNSTRESS at a size ratio vs SIZESCALE ") ??
         same(top(ms), top(s1), 1e-14, "MATERIALSCALE vs SIZESCALE to unit size ") ??
@@ -311,7 +315,7 @@ describe.runIf(has("FAILPROB", "DESIGNSTRESS", "SIZESCALE", "MATERIALSCALE", "ME
         (isNum(top(cmed)) ? same(top(cmed), x, 1e-13, "CHARFROMMEDIAN(median) ") : null),
     }));
     // One check per build: later calls read earlier cells by address.
-    property(check, 1, 150, 2400);
+    property(check, 1, 50);
   });
 
   it.runIf(has("LOTFAILURES"))("LOTFAILURES rises with the failure probability, the lot size and the confidence", () => {
@@ -338,7 +342,7 @@ describe.runIf(has("FAILPROB", "DESIGNSTRESS", "SIZESCALE", "MATERIALSCALE", "ME
             notAbove(top(e), top(ep), "expected count at a higher probability: "),
         };
       });
-    property(check, 25, 40, 1800);
+    property(check, 25, 4);
   });
 
   it.runIf(has("MODULUSFROMCV"))("MODULUSFROMCV depends on the coefficient of variation only, and falls as it rises", () => {
@@ -350,7 +354,7 @@ describe.runIf(has("FAILPROB", "DESIGNSTRESS", "SIZESCALE", "MATERIALSCALE", "ME
         verify: ([a, ak, b]) => same(top(ak), top(a), 1e-10, "scaled mean and stdev ") ?? notAbove(top(b), top(a), "modulus at a larger CV: "),
       };
     });
-    property(check, 25, 40, 1800);
+    property(check, 25, 20);
   });
 
   it.runIf(has("COMPETINGFAILPROB", "COMPETINGDESIGNSTRESS"))("two flaw populations: COMPETINGFAILPROB(COMPETINGDESIGNSTRESS(s)) = 1 - s, and never below either population alone", () => {
@@ -363,7 +367,7 @@ describe.runIf(has("FAILPROB", "DESIGNSTRESS", "SIZESCALE", "MATERIALSCALE", "ME
       ],
       verify: ([d, p, pA]) => (isNum(top(d)) ? same(top(p), 1 - s, 1e-11, "failure probability ") ?? notAbove(top(pA), top(p), "population A alone: ") : null),
     }));
-    property(check, 1, 100, 1800);
+    property(check, 1, 40);
   });
 });
 
@@ -399,7 +403,7 @@ describe.runIf(has("FLEXVOLUME", "FLEXAREA", "RODFLEXVOLUME", "RODFLEXAREA"))("f
             notAbove(top(vHi), top(vLo), "volume at a larger modulus: "),
         };
       });
-    property(check, 20, 40, 2400);
+    property(check, 20, 25);
   });
 });
 
@@ -444,7 +448,7 @@ describe.runIf(has("RINGAREA", "RINGVOLUME", "PISTONAREA", "PISTONVOLUME"))("dis
           },
         };
       });
-    property(check, 10, 30, 3000);
+    property(check, 10, 12);
   });
 });
 
@@ -473,7 +477,7 @@ describe.runIf(has("PARTEFFSIZE", "PARTFAILPROB", "RISKSHARE", "FAILPROB", "MATE
           same(top(esplit), top(e), 1e-12, "split element "),
       };
     });
-    property(check, 15, 40, 2400);
+    property(check, 15, 8);
   });
 
   it("PARTFAILPROB = FAILPROB at the part's effective size (PIA, one stress column); risk shares add up to 1; more stress, more risk", () => {
@@ -501,7 +505,7 @@ describe.runIf(has("PARTEFFSIZE", "PARTFAILPROB", "RISKSHARE", "FAILPROB", "MATE
       };
     });
     // One check per build: the FAILPROB formula names the first check's ranges (Data!A:B).
-    property(check, 1, 120, 2400);
+    property(check, 1, 30);
   });
 });
 
@@ -528,7 +532,7 @@ describe.runIf(has("LIFETIMESTRESS", "TIMETOFAILURE", "PROOFMINLIFE", "PROOFSTRE
           (isNum(top(ps)) && isNum(top(ml)) ? same(top(ml), L, 1e-8, "minimum life at the proof stress for that life ") : null) ??
           same(top(pb), top(fp), 1e-15, "PROOFBREAKS vs FAILPROB "),
       }));
-    property(check, 1, 150, 2400);
+    property(check, 1, 40);
   });
 
   it("a proof-tested part fails no more often than an untested one, never at or below the proof stress; lifetime design stresses fall with time", () => {
@@ -553,7 +557,7 @@ describe.runIf(has("LIFETIMESTRESS", "TIMETOFAILURE", "PROOFMINLIFE", "PROOFSTRE
             notAbove(top(lLo), top(inert), "lifetime design stress vs the inert design stress: "),
         };
       });
-    property(check, 20, 40, 2400);
+    property(check, 20, 25);
   });
 
   it.runIf(has("LOADHISTORYSTRESS", "SCGFIT", "SCGSTATICFIT"))("a constant load history is its own equivalent; load history and crack-growth fits follow a change of units", () => {
@@ -586,6 +590,6 @@ describe.runIf(has("LIFETIMESTRESS", "TIMETOFAILURE", "PROOFMINLIFE", "PROOFSTRE
               : null),
         };
       });
-    property(check, 15, 30, 2400);
+    property(check, 15, 3);
   });
 });
