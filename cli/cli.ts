@@ -3,6 +3,7 @@
  *
  *   brittle calc FILE [--out FILE.xlsx] [--force] [--json]
  *   brittle part FILE --modulus M [options]
+ *   brittle check FILE.check.json [--json]
  *   brittle demo
  *
  * calc evaluates every formula of an .xlsx or .csv workbook in the embedded
@@ -10,6 +11,7 @@
  * sheet as {"<sheet>": [[row values...], ...]}, errors as "#NUM!" text).
  * --out writes a copy with each formula and its computed value; the input
  * file is never written, and an existing output only with --force.
+ * check reruns a saved design check (exit 0 PASS, 1 FAIL, 2 bad input).
  */
 import { existsSync } from "node:fs";
 import { mkdir } from "node:fs/promises";
@@ -20,9 +22,11 @@ import type { FormulaResult } from "./evaluate-workbook";
 
 const USAGE = `usage: brittle calc FILE [--out FILE.xlsx] [--force] [--json]
        brittle part FILE --modulus M [options]   (brittle part --help lists them)
+       brittle check FILE.check.json [--json]
        brittle demo
 calc: FILE is an .xlsx workbook or a .csv sheet whose cells may hold BRITTLE.* formulas.
 part: FILE is a table of element stresses and sizes (effective size, failure probability, risk shares).
+check: reruns a saved design check and prints the verdict with its basis: exit 0 PASS, 1 FAIL, 2 bad input.
 demo: evaluates the invented supplier datasheet shipped with the package.`;
 
 export interface Io {
@@ -115,6 +119,10 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
       const { runDemo } = await import("../examples/demo");
       await runDemo(io);
       return 0;
+    }
+    if (command === "check") {
+      const { runCheckCommand } = await import("./check-command");
+      return await runCheckCommand(rest, io);
     }
     if (command === "part") {
       const { runPartCommand } = await import("./part-command");

@@ -70,14 +70,26 @@ export function renderHelpPage(functions: FunctionMetadata[], families: HelpFami
 <body>
 <header class="banner"><h1>Brittle design: function help</h1></header>
 <main>
-<p>Type <code>=BRITTLE.</code> in a cell to list the functions. Sizes are effective volumes or areas in any one
-consistent unit, stresses in any one consistent stress unit. In a range of strengths, blank cells and zeros are no
-specimen. A bad input (text, a value out of its domain, too few specimens, ranges of different shapes) gives #VALUE!
-with a message saying what is wrong; a result that does not apply gives #N/A with its message; #NUM! only for a result
-too large to represent.</p>
-<p>The design check on the Home tab walks from specimen strengths to an allowable stress for a part, with the
-assumptions and cautions in view. The results support, and do not replace, the judgement of a licensed engineer under
-the codes that govern the application.</p>
+<p>Type <code>=BRITTLE.</code> in a cell to list the functions; each function's section below gives its
+parameters with their units, what it returns and a worked example. Sizes are effective volumes or areas in any one
+consistent unit, stresses in any one consistent stress unit.</p>
+<p>Blank cells and zeros in a range of strengths are no specimen; text gives #VALUE! naming the cell; a negative or
+out-of-range number, too few specimens or ranges of different shapes give #VALUE! with a message; a result that does
+not apply gives #N/A with a message; #NUM! means a result beyond double precision (or a solve that did not
+converge).</p>
+<h2>The design-check form</h2>
+<p>Open <b>Design check</b> on the Home tab. Work through the four steps: material data (paste strengths, use the
+selected range, or type a modulus and characteristic strength), the test specimen (typed effective size, a standard
+configuration, or bar dimensions), the part (typed effective size or an element table of stresses and sizes) and the
+requirement (survival per part or failures per lot, the applied peak stress, and optionally a lifetime and a proof
+test). The result lists each number with the method and assumptions behind it, the cautions that apply, and a
+Weibull probability plot.</p>
+<p><b>Write to a new worksheet</b> adds a sheet with a fresh name (it never writes over an existing sheet or cell): the
+inputs, live BRITTLE formulas that recompute when the data change, a scatter chart of the plot points and the
+cautions. Opened in a plain browser, the same page works without a spreadsheet and exports the check as CSV or as a
+printable page.</p>
+<p>The results support, and do not replace, the judgement of a licensed engineer under the codes that govern the
+application.</p>
 <nav><h2>Functions</h2><ul>
 ${contents}
 </ul></nav>

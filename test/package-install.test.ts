@@ -19,6 +19,7 @@ import { join, resolve } from "node:path";
 import { promisify } from "node:util";
 import { main } from "../cli/cli";
 import { runPartCommand } from "../cli/part-command";
+import { runCheckCommand } from "../cli/check-command";
 
 const run = promisify(execFile);
 const ROOT = resolve(import.meta.dirname, "..");
@@ -94,10 +95,10 @@ describe("the packed package, installed with production dependencies only", { ti
     const help = await brittle("--help");
     expect(help.code).toBe(0);
     const commands = dispatchedCommands();
-    expect(commands).toEqual(expect.arrayContaining(["calc", "demo", "part"]));
+    expect(commands).toEqual(expect.arrayContaining(["calc", "check", "demo", "part"]));
     for (const name of commands) expect(help.stdout, `--help names ${name}`).toMatch(new RegExp(`brittle ${name}\\b`));
     // Every command is exercised below; a new command fails here until it is.
-    expect(commands).toEqual(["calc", "demo", "part"]);
+    expect(commands).toEqual(["calc", "check", "demo", "part"]);
   });
 
   it("calc on a .csv gives the grid the source gives", async () => {
@@ -129,6 +130,17 @@ describe("the packed package, installed with production dependencies only", { ti
     expect(got.code).toBe(0);
     expect(want.code).toBe(0);
     expect(JSON.parse(got.stdout)).toEqual(JSON.parse(want.stdout));
+  });
+
+  it("check reruns saved design checks (PASS exits 0, FAIL exits 1) with the verdict the source gives", async () => {
+    for (const [name, code] of [["check-pass", 0], ["check-fail", 1], ["check-lifetime-proof", null]] as const) {
+      const file = join(ROOT, `examples/${name}.check.json`);
+      const got = await brittle("check", file, "--json");
+      const want = await fromSource([file, "--json"], runCheckCommand);
+      if (code !== null) expect(got.code, name).toBe(code);
+      expect(got.code, name).toBe(want.code);
+      expect(JSON.parse(got.stdout), name).toEqual(JSON.parse(want.stdout));
+    }
   });
 
   it("demo evaluates the shipped datasheet with no errors and writes under the working folder", async () => {
