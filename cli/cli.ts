@@ -17,8 +17,9 @@ import { existsSync } from "node:fs";
 import { mkdir } from "node:fs/promises";
 import { dirname, resolve } from "node:path";
 import type { FormulaResult } from "./evaluate-workbook";
-// The workbook engine, exceljs and the metadata generator (which loads the TypeScript compiler) are
-// imported where they are needed, so `brittle part` starts without them.
+// The workbook engine, exceljs and the function catalogue are imported where they are needed, so `brittle part`
+// starts without them. Compiled (lib/), the catalogue is the built functions.json; from source, the metadata
+// generator (see scripts/build.mjs).
 
 const USAGE = `usage: brittle calc FILE [--out FILE.xlsx] [--force] [--json]
        brittle part FILE --modulus M [options]   (brittle part --help lists them)
