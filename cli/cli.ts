@@ -2,6 +2,7 @@
  * `brittle`: the add-in's functions with no spreadsheet application.
  *
  *   brittle calc FILE [--out FILE.xlsx] [--force] [--json]
+ *   brittle part FILE --modulus M [options]
  *   brittle check FILE.check.json [--json]
  *   brittle demo
  *
@@ -16,17 +17,20 @@ import { existsSync } from "node:fs";
 import { mkdir } from "node:fs/promises";
 import { dirname, resolve } from "node:path";
 import type { FormulaResult } from "./evaluate-workbook";
-// The workbook engine, exceljs and the metadata generator (which loads the TypeScript compiler) are
-// imported where they are needed, so `brittle part` starts without them.
+// The workbook engine, exceljs and the function catalogue are imported where they are needed, so `brittle part`
+// starts without them. Compiled (lib/), the catalogue is the built functions.json; from source, the metadata
+// generator (see scripts/build.mjs).
 
 const USAGE = `usage: brittle calc FILE [--out FILE.xlsx] [--force] [--json] [--decimal-comma | --decimal-point]
+       brittle part FILE --modulus M [options]   (brittle part --help lists them)
        brittle check FILE.check.json [--json]
        brittle demo
-FILE is an .xlsx workbook or a .csv sheet whose cells may hold BRITTLE.* formulas.
-A .csv's encoding, delimiter and decimal mark are detected; --decimal-comma or --decimal-point
-states the mark when the file leaves it ambiguous (docs/files-and-formats.md).
-check reruns a saved design check and prints the verdict with its basis:
-exit 0 PASS, 1 FAIL, 2 bad input.`;
+calc: FILE is an .xlsx workbook or a .csv sheet whose cells may hold BRITTLE.* formulas. A .csv's
+  encoding, delimiter and decimal mark are detected; --decimal-comma or --decimal-point states the
+  mark when the file leaves it ambiguous (docs/files-and-formats.md).
+part: FILE is a table of element stresses and sizes (effective size, failure probability, risk shares).
+check: reruns a saved design check and prints the verdict with its basis: exit 0 PASS, 1 FAIL, 2 bad input.
+demo: evaluates the invented supplier datasheet shipped with the package.`;
 
 export interface Io {
   out: (text: string) => void;

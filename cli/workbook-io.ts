@@ -6,11 +6,11 @@
  * computed value beside it.
  */
 import { readFile } from "node:fs/promises";
-import ExcelJS from "exceljs";
 import { InputError } from "../src/errors";
 import type { Dialect, DialectChoice } from "../src/input/delimited-text";
 import { type TextEncodingName, decodeText } from "../src/input/encoding";
 import { fieldNumber, readDelimited } from "../src/input/read-table";
+import { loadExcelJs, type ExcelJS } from "./exceljs-loader";
 
 export type Contents = number | string | boolean | null;
 
@@ -61,7 +61,7 @@ function sheetNameFor(path: string): string {
 }
 
 async function loadXlsx(path: string): Promise<LoadedWorkbook> {
-  const workbook = new ExcelJS.Workbook();
+  const workbook = new (await loadExcelJs()).Workbook();
   try {
     await workbook.xlsx.load((await readFile(path)) as never);
   } catch (error) {
