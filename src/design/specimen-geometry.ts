@@ -58,7 +58,9 @@ function bad(text: string, why: string): InputError {
 function readLength(token: string, text: string, name: string): number {
   const t = token.replace(",", ".");
   if (!/^(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t)) throw bad(text, `${name} "${token}" is not a number`);
-  return Number(t);
+  const value = Number(t);
+  if (!Number.isFinite(value)) throw bad(text, `${name} "${token}" is too large to represent`);
+  return value;
 }
 
 function pair(token: string | undefined, text: string, names: [string, string]): [number, number] {
