@@ -159,7 +159,7 @@ export function searchRange(laws: readonly SizeLaw[]): { lowest: number; highest
 
 /**
  * The pooled fit of one material over several specimen geometries.
- * @example fitMaterial({ groups: [{ label: "C1161-B-4PT", law: barLaw, strengths: [...] }, { label: "C1499-20/10", law: ringLaw, strengths: [...] }] }).shape
+ * @example fitMaterial({ groups: [bars, disks] }).shape // the pooled modulus; each group { label, law: sizeLaw(...), strengths }
  */
 export function fitMaterial({ groups }: { groups: readonly MaterialGroupInput[] }): MaterialFitResult {
   if (groups.length < 2) throw new InputError("value", `a pooled fit needs specimens of at least two configurations (got ${groups.length})`);

@@ -56,7 +56,7 @@ function check({ shape, survival, sizeRatio = 1, confidence = 0.95 }: PlanningIn
 
 /**
  * Planned ratio of the design-stress lower bound to its point estimate, for n specimens.
- * @example boundRatio({ specimens: 30, shape: 10, survival: 0.999 }) // about 0.83
+ * @example boundRatio({ specimens: 30, shape: 10, survival: 0.999 }) // about 0.784
  */
 export function boundRatio(inputs: PlanningInputs & { specimens: number }): number {
   const w = check(inputs);
@@ -76,7 +76,7 @@ export interface SpecimensNeeded {
 
 /**
  * Smallest complete sample whose planned bound ratio reaches targetRatio.
- * @example specimensNeeded({ targetRatio: 0.8, shape: 10, survival: 0.999 }).specimens // about 20
+ * @example specimensNeeded({ targetRatio: 0.8, shape: 10, survival: 0.999 }).specimens // 35
  */
 export function specimensNeeded(inputs: PlanningInputs & { targetRatio: number }): SpecimensNeeded {
   const w = check(inputs);
