@@ -10,7 +10,6 @@ import { fitMaterial, type MaterialFitResult } from "../src/design/material-fit"
 import { MATERIAL_SIMULATION, simulateMaterialFit, type MaterialSimulation } from "../src/design/material-fit-simulation";
 import { parseConfiguration, sizeLaw, type SizeLaw } from "../src/design/specimen-geometry";
 import { boundRatio, PLANNING_SIZES, specimensNeeded } from "../src/design/specimens-needed";
-import { InputError } from "../src/errors";
 import { CRITERIA } from "../src/size/criteria";
 import {
   CellError,
@@ -34,16 +33,6 @@ declareSpills({
   MATERIALFIT: { rows: MATERIALFIT_ROWS, cols: 2 },
   BOUNDRATIOTABLE: { rows: PLANNING_SIZES.length + 1, cols: 2 },
 });
-
-/** Core input errors are bad input here: #VALUE! with the core's message. */
-function asCellInput<T>(compute: () => T): T {
-  try {
-    return compute();
-  } catch (error) {
-    if (error instanceof InputError) throw new CellError("#VALUE!", error.message);
-    throw error;
-  }
-}
 
 function percent(confidence: number): string {
   return `${Number((confidence * 100).toPrecision(4))} %`;
@@ -71,7 +60,7 @@ function groupByConfiguration(strengths: unknown, configurations: unknown, censo
       throw new CellError("#VALUE!", `configurations, ${where}: a specimen's configuration must be text such as "C1161-B-4PT" or "BAR 40/20 4x3"`);
     }
     // Specimens described the same way by a preset name and by dimensions share one group.
-    const key = JSON.stringify(asCellInput(() => parseConfiguration(text)));
+    const key = JSON.stringify(parseConfiguration(text));
     let group = groups.get(key);
     if (!group) {
       group = { label: text.trim(), key, strengths: [], censored: [] };
@@ -129,7 +118,7 @@ function fitTable(fit: MaterialFitResult, sim: MaterialSimulation | null, confid
  * Example: =BRITTLE.MATERIALFIT(B2:B41, C2:C41, "VOLUME", , "PIA", 0.22) spills 44 rows of labels and values.
  * @customfunction
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
- * @param configurations Each specimen's test configuration, same shape as strengths: a preset name as SPECIMEN accepts it ("C1161-B-4PT", "C1499-20/10") or dimensions in mm: "BAR outer/inner width x depth", "ROD outer/inner diameter", "RING load/support disk x thickness", "PISTON piston/support disk x thickness".
+ * @param configurations Each specimen's configuration label, same shape as strengths: a preset name as SPECIMEN accepts it ("C1161-B-4PT", "C1499-20/10") or dimensions in mm: bar outer/inner span, width x depth ("BAR 40/20 4x3"); rod spans, diameter ("ROD 40/20 5"); ring-on-ring load/support ring, disk diameter x thickness ("RING 10/20 25x1"); piston-on-three-balls piston/support, disk x thickness ("PISTON 1.4/10 14x1.2").
  * @param [flaws] "VOLUME" (default) for volume-distributed flaws, "SURFACE" for surface flaws.
  * @param [censored] Optional flags, same shape as strengths: TRUE or 1 where the specimen broke from another flaw population (the fit then shows no simulated bounds or p-values).
  * @param [criterion] Multiaxial criterion for disk configurations: "PIA" (default), "NSA" or "MAXPRINCIPAL".
@@ -160,17 +149,17 @@ export function MATERIALFIT(
   const level = readOptionalNumber(confidence, "confidence", 0.9);
   if (!(level >= 0.5 && level <= 0.99)) throw new CellError("#VALUE!", `confidence must lie from 0.5 to 0.99 (got ${level})`);
   const laws: SizeLaw[] = grouped.map((g) =>
-    asCellInput(() => sizeLaw({ geometry: JSON.parse(g.key), flaws: flawKind, poisson: nu, criterion: crit })),
+    sizeLaw({ geometry: JSON.parse(g.key), flaws: flawKind, poisson: nu, criterion: crit }),
   );
-  const fit = asCellInput(() =>
-    fitMaterial({ groups: grouped.map((g, k) => ({ label: g.label, law: laws[k], strengths: g.strengths, censored: g.censored })) }),
-  );
+  const fit = fitMaterial({
+    groups: grouped.map((g, k) => ({ label: g.label, law: laws[k], strengths: g.strengths, censored: g.censored })),
+  });
   if (!fit.converged) {
     throw new CellError("#N/A", "the pooled likelihood has no maximum inside the moduli searched: these specimens do not fit one material model");
   }
   const sim = fit.censored
     ? null
-    : asCellInput(() => simulateMaterialFit({ fit, laws, confidence: level, seed: MATERIAL_SIMULATION.seed }));
+    : simulateMaterialFit({ fit, laws, confidence: level, seed: MATERIAL_SIMULATION.seed });
   const unit = flawKind === "surface" ? "effective area (mm^2 for presets and dimensions in mm)" : "effective volume (mm^3 for presets and dimensions in mm)";
   return fitTable(fit, sim, level, unit);
 }
@@ -199,7 +188,7 @@ function planningInputs(modulus: unknown, survival: unknown, sizeRatio: unknown,
  */
 export function SPECIMENSNEEDED(targetRatio: number, modulus: number, survival: number, sizeRatio?: number, confidence?: number): number {
   const inputs = planningInputs(modulus, survival, sizeRatio, confidence);
-  const result = asCellInput(() => specimensNeeded({ ...inputs, targetRatio: readNumber(targetRatio, "targetRatio") }));
+  const result = specimensNeeded({ ...inputs, targetRatio: readNumber(targetRatio, "targetRatio") });
   if (result.specimens === null) {
     throw new CellError(
       "#N/A",
@@ -223,6 +212,6 @@ export function SPECIMENSNEEDED(targetRatio: number, modulus: number, survival: 
 export function BOUNDRATIOTABLE(modulus: number, survival: number, sizeRatio?: number, confidence?: number): any[][] {
   const inputs = planningInputs(modulus, survival, sizeRatio, confidence);
   const rows: CellValue[][] = [["specimens", "planned ratio bound/estimate"]];
-  for (const n of PLANNING_SIZES) rows.push([n, asCellInput(() => boundRatio({ ...inputs, specimens: n }))]);
+  for (const n of PLANNING_SIZES) rows.push([n, boundRatio({ ...inputs, specimens: n })]);
   return rows;
 }

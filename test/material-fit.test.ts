@@ -123,7 +123,7 @@ describe("configurations: presets and the dimension syntax", () => {
         error = e;
       }
       expect(error, text).toBeInstanceOf(InputError);
-      expect((error as InputError).kind).toBe("value");
+      expect((error as InputError).kind).toBe("input");
     }
   });
 

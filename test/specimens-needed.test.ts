@@ -63,7 +63,7 @@ describe("specimensNeeded: its definition", () => {
     expect(r.ratio).toBeCloseTo(boundRatio({ specimens: MOST_SPECIMENS, shape: 5, survival: 0.999999 }), 12);
   });
 
-  it("rejects inputs outside the domain (InputError of kind value)", () => {
+  it("rejects inputs outside the domain (InputError of kind input)", () => {
     const bad = [
       () => specimensNeeded({ targetRatio: 1, shape: 10, survival: 0.999 }),
       () => specimensNeeded({ targetRatio: 0, shape: 10, survival: 0.999 }),
@@ -79,7 +79,7 @@ describe("specimensNeeded: its definition", () => {
       try {
         f();
       } catch (e) {
-        expect((e as InputError).kind).toBe("value");
+        expect((e as InputError).kind).toBe("input");
       }
     }
   });

@@ -58,9 +58,9 @@ export function simulateMaterialFit({
   seed?: number;
 }): MaterialSimulation {
   if (!(confidence >= 0.5 && confidence <= 0.99)) {
-    throw new InputError("value", `confidence must lie from 0.5 to 0.99 for the simulated bounds (got ${confidence})`);
+    throw new InputError("input", `confidence must lie from 0.5 to 0.99 for the simulated bounds (got ${confidence})`);
   }
-  if (fit.censored) throw new InputError("value", "the simulated bounds and p-values need complete samples (no censored specimens)");
+  if (fit.censored) throw new InputError("notApplicable", "the simulated bounds and p-values need complete samples (no censored specimens)");
   const m = fit.shape;
   const logScale = Math.log(fit.materialScale);
   const logTheta = laws.map((law) => logScale - law.logSize(m) / m);
@@ -87,7 +87,7 @@ export function simulateMaterialFit({
   }
   const used = q.length;
   if (used < 0.95 * replications) {
-    throw new InputError("value", `only ${used} of ${replications} simulated data sets could be fitted: the design is too small for simulated bounds`);
+    throw new InputError("notConverged", `only ${used} of ${replications} simulated data sets could be fitted: the design is too small for simulated bounds`);
   }
   q.sort((a, b) => a - b);
   t.sort((a, b) => a - b);

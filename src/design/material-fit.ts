@@ -162,12 +162,12 @@ export function searchRange(laws: readonly SizeLaw[]): { lowest: number; highest
  * @example fitMaterial({ groups: [bars, disks] }).shape // the pooled modulus; each group { label, law: sizeLaw(...), strengths }
  */
 export function fitMaterial({ groups }: { groups: readonly MaterialGroupInput[] }): MaterialFitResult {
-  if (groups.length < 2) throw new InputError("value", `a pooled fit needs specimens of at least two configurations (got ${groups.length})`);
+  if (groups.length < 2) throw new InputError("notApplicable", `a pooled fit needs specimens of at least two configurations (got ${groups.length})`);
   groups.forEach((g) => {
-    if (g.censored && g.censored.length !== g.strengths.length) throw new InputError("value", `${g.label}: censoring flags do not match the strengths`);
-    for (const s of g.strengths) if (!(Number.isFinite(s) && s > 0)) throw new InputError("value", `${g.label}: every strength must be a positive number`);
+    if (g.censored && g.censored.length !== g.strengths.length) throw new InputError("input", `${g.label}: censoring flags do not match the strengths`);
+    for (const s of g.strengths) if (!(Number.isFinite(s) && s > 0)) throw new InputError("input", `${g.label}: every strength must be a positive number`);
     const failures = g.strengths.length - (g.censored?.filter(Boolean).length ?? 0);
-    if (failures < 2) throw new InputError("value", `${g.label}: each configuration needs at least two failures for its own fit (got ${failures})`);
+    if (failures < 2) throw new InputError("input", `${g.label}: each configuration needs at least two failures for its own fit (got ${failures})`);
   });
   const data = pooledSample(groups);
   // A group whose failures all share one strength has no finite modulus of its own.
@@ -180,7 +180,7 @@ export function fitMaterial({ groups }: { groups: readonly MaterialGroupInput[] 
     else if (data.logStrength[i] !== first[g]) spread[g] = 1;
   }
   const flat = groups.findIndex((_, g) => !spread[g]);
-  if (flat >= 0) throw new InputError("value", `${groups[flat].label}: all failure strengths are equal, so no modulus can be fitted`);
+  if (flat >= 0) throw new InputError("input", `${groups[flat].label}: all failure strengths are equal, so no modulus can be fitted`);
   const laws = groups.map((g) => g.law);
   const range = searchRange(laws);
   const fits = threeFits(data, laws, { scan: true, ...range });

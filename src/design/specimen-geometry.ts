@@ -52,7 +52,7 @@ const SYNTAX =
   '"RING load/support disk x thickness", "PISTON piston/support disk x thickness" (e.g. "BAR 40/20 4x3")';
 
 function bad(text: string, why: string): InputError {
-  return new InputError("value", `configuration "${text}": ${why}; write ${SYNTAX}`);
+  return new InputError("input", `configuration "${text}": ${why}; write ${SYNTAX}`);
 }
 
 function readLength(token: string, text: string, name: string): number {
@@ -81,7 +81,7 @@ function section(token: string | undefined, text: string, names: [string, string
  * @example parseConfiguration("BAR 40/20 4x3") // { kind: "bar", outerSpan: 40, innerSpan: 20, width: 4, depth: 3 }
  */
 export function parseConfiguration(text: string): SpecimenGeometry {
-  if (typeof text !== "string" || text.trim() === "") throw new InputError("value", `a configuration is empty; write ${SYNTAX}`);
+  if (typeof text !== "string" || text.trim() === "") throw new InputError("input", `a configuration is empty; write ${SYNTAX}`);
   // Spaces around "/" and "x" are allowed: "BAR 40 / 20 4 x 3".
   const tokens = text
     .trim()
@@ -203,10 +203,10 @@ export function sizeLaw({ geometry: g, flaws, poisson, criterion = "PIA" }: Size
     };
   }
   if (poisson === undefined || poisson === null || !Number.isFinite(poisson)) {
-    throw new InputError("value", "a disk configuration needs Poisson's ratio (the poisson argument)");
+    throw new InputError("input", "a disk configuration needs Poisson's ratio (the poisson argument)");
   }
   if (flaws === "volume" && g.thickness === null) {
-    throw new InputError("value", "a disk configuration needs its thickness for volume flaws: write the disk as diameter x thickness");
+    throw new InputError("input", "a disk configuration needs its thickness for volume flaws: write the disk as diameter x thickness");
   }
   const base = { criterion, poisson, supportDiameter: g.supportDiameter, diskDiameter: g.diskDiameter };
   let size: (m: number) => number;

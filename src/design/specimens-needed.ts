@@ -43,12 +43,12 @@ export interface PlanningInputs {
 }
 
 function check({ shape, survival, sizeRatio = 1, confidence = 0.95 }: PlanningInputs): number {
-  if (!(Number.isFinite(shape) && shape > 0)) throw new InputError("value", `modulus must be a positive number (got ${shape})`);
-  if (!(survival > 0 && survival < 1)) throw new InputError("value", `survival must lie strictly between 0 and 1 (got ${survival})`);
-  if (!(Number.isFinite(sizeRatio) && sizeRatio > 0)) throw new InputError("value", `sizeRatio must be a positive number (got ${sizeRatio})`);
+  if (!(Number.isFinite(shape) && shape > 0)) throw new InputError("input", `modulus must be a positive number (got ${shape})`);
+  if (!(survival > 0 && survival < 1)) throw new InputError("input", `survival must lie strictly between 0 and 1 (got ${survival})`);
+  if (!(Number.isFinite(sizeRatio) && sizeRatio > 0)) throw new InputError("input", `sizeRatio must be a positive number (got ${sizeRatio})`);
   const { lowest, highest } = PIVOTAL_PROBABILITIES;
   if (!(confidence >= Math.max(lowest, 0.5) && confidence <= highest)) {
-    throw new InputError("value", `confidence must lie from 0.5 to ${highest} (got ${confidence})`);
+    throw new InputError("input", `confidence must lie from 0.5 to ${highest} (got ${confidence})`);
   }
   // -ln S without forming 1 - S, as the design-stress bound does.
   return Math.log(-Math.log(survival)) - Math.log(sizeRatio);
@@ -62,7 +62,7 @@ export function boundRatio(inputs: PlanningInputs & { specimens: number }): numb
   const w = check(inputs);
   const n = inputs.specimens;
   if (!(Number.isInteger(n) && n >= 2 && n <= MOST_SPECIMENS)) {
-    throw new InputError("value", `specimens must be a whole number from 2 to ${MOST_SPECIMENS} (got ${n})`);
+    throw new InputError("input", `specimens must be a whole number from 2 to ${MOST_SPECIMENS} (got ${n})`);
   }
   return Math.exp(-quantilePivotQuantile({ specimens: n, logHazard: w, probability: inputs.confidence ?? 0.95 }) / inputs.shape);
 }
@@ -82,7 +82,7 @@ export function specimensNeeded(inputs: PlanningInputs & { targetRatio: number }
   const w = check(inputs);
   const { targetRatio, shape, confidence = 0.95 } = inputs;
   if (!(targetRatio > 0 && targetRatio < 1)) {
-    throw new InputError("value", `targetRatio must lie strictly between 0 and 1: the bound is below the estimate (got ${targetRatio})`);
+    throw new InputError("input", `targetRatio must lie strictly between 0 and 1: the bound is below the estimate (got ${targetRatio})`);
   }
   const ratio = (n: number) => Math.exp(-quantilePivotQuantile({ specimens: n, logHazard: w, probability: confidence }) / shape);
   // Double until the target is met, then bisect: the ratio rises with n.
