@@ -118,7 +118,7 @@ function fitTable(fit: MaterialFitResult, sim: MaterialSimulation | null, confid
  * Example: =BRITTLE.MATERIALFIT(B2:B41, C2:C41, "VOLUME", , "PIA", 0.22) spills 44 rows of labels and values.
  * @customfunction
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
- * @param configurations Each specimen's configuration label, same shape as strengths: a preset name as SPECIMEN accepts it ("C1161-B-4PT", "C1499-20/10") or dimensions in mm: bar outer/inner span, width x depth ("BAR 40/20 4x3"); rod spans, diameter ("ROD 40/20 5"); ring-on-ring load/support ring, disk diameter x thickness ("RING 10/20 25x1"); piston-on-three-balls piston/support, disk x thickness ("PISTON 1.4/10 14x1.2").
+ * @param configurations Each specimen's configuration label, same shape as strengths: a preset name as SPECIMEN accepts it ("C1161-B-4PT", "C1499-20/10") or its dimensions in mm: BAR 40/20 4x3 (bar: outer/inner span, width x depth), ROD 40/20 5 (rod: spans, diameter), RING 10/20 25x1 (ring-on-ring: load/support ring, disk diameter x thickness), PISTON 1.4/10 14x1.2 (piston-on-three-balls).
  * @param [flaws] "VOLUME" (default) for volume-distributed flaws, "SURFACE" for surface flaws.
  * @param [censored] Optional flags, same shape as strengths: TRUE or 1 where the specimen broke from another flaw population (the fit then shows no simulated bounds or p-values).
  * @param [criterion] Multiaxial criterion for disk configurations: "PIA" (default), "NSA" or "MAXPRINCIPAL".

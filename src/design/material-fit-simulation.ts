@@ -26,6 +26,7 @@
 import { InputError } from "../errors";
 import { SeededRandom } from "../numeric/random";
 import { sortedQuantile } from "../weibull/pivotal-simulation";
+import { requireSimulationSize } from "../weibull/simulation-limits";
 import { type MaterialFitResult, ratioStatistics, searchRange, threeFits } from "./material-fit";
 import { pooledSample } from "./material-likelihood";
 import type { SizeLaw } from "./specimen-geometry";
@@ -61,6 +62,10 @@ export function simulateMaterialFit({
     throw new InputError("input", `confidence must lie from 0.5 to 0.99 for the simulated bounds (got ${confidence})`);
   }
   if (fit.censored) throw new InputError("notApplicable", "the simulated bounds and p-values need complete samples (no censored specimens)");
+  requireSimulationSize(
+    fit.groups.reduce((s, g) => s + g.specimens, 0),
+    "the pooled fit's bounds and p-values",
+  );
   const m = fit.shape;
   const logScale = Math.log(fit.materialScale);
   const logTheta = laws.map((law) => logScale - law.logSize(m) / m);
