@@ -146,3 +146,22 @@ describe("SPECIMENSNEEDED and BOUNDRATIOTABLE", () => {
     expect(failure(guarded.BOUNDRATIOTABLE(10, 0))).toMatchObject({ code: "#VALUE!", message: expect.stringMatching(/survival/) });
   });
 });
+
+describe("the invented example examples/material-fit-and-planning.csv", () => {
+  it("evaluates in the embedded engine: the pooled fit of bars and disks, and the planning cells", async () => {
+    const { loadWorkbook } = await import("../cli/workbook-io");
+    const { evaluateWorkbook } = await import("../cli/evaluate-workbook");
+    const { generateMetadata } = await import("../functions/metadata");
+    const book = await loadWorkbook(new URL("../examples/material-fit-and-planning.csv", import.meta.url).pathname);
+    const result = evaluateWorkbook(book, (await generateMetadata()).functions);
+    const grid = Object.values(result.grids)[0] as any[][];
+    expect(grid[1][2]).toBe("modulus m (maximum likelihood, no unbiasing)");
+    expect(typeof grid[1][3]).toBe("number");
+    expect(grid[2][3]).toBeGreaterThan(0); // material scale
+    expect(grid[24][3]).toBe(true); // converged
+    // Planning: the same as the core at the same inputs (checked against the simulation above).
+    expect(grid[1][6]).toBe(guarded.SPECIMENSNEEDED(0.8, 10, 0.999));
+    expect(grid[4][6]).toBe(guarded.SPECIMENSNEEDED(0.8, grid[3][6], 0.999));
+    expect(grid[1][8]).toBe("specimens");
+  }, 120_000);
+});
