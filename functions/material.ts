@@ -7,6 +7,7 @@
  * Only adapters are exported: the registry registers every export.
  */
 import { fitMaterial, type MaterialFitResult } from "../src/design/material-fit";
+import { materialFitCaution } from "../src/design/material-fit-caution";
 import { MATERIAL_SIMULATION, simulateMaterialFit, type MaterialSimulation } from "../src/design/material-fit-simulation";
 import { parseConfiguration, sizeLaw, type SizeLaw } from "../src/design/specimen-geometry";
 import { boundRatio, PLANNING_SIZES, specimensNeeded } from "../src/design/specimens-needed";
@@ -27,7 +28,7 @@ import { declareSpills } from "./spill-shapes";
 /** Most configurations one MATERIALFIT table has room for (the engine reserves the rows in advance). */
 const MAX_CONFIGURATIONS = 6;
 const ROWS_PER_CONFIGURATION = 5;
-const MATERIALFIT_ROWS = 6 + ROWS_PER_CONFIGURATION * MAX_CONFIGURATIONS + 8;
+const MATERIALFIT_ROWS = 6 + ROWS_PER_CONFIGURATION * MAX_CONFIGURATIONS + 9;
 
 declareSpills({
   MATERIALFIT: { rows: MATERIALFIT_ROWS, cols: 2 },
@@ -99,6 +100,7 @@ function fitTable(fit: MaterialFitResult, sim: MaterialSimulation | null, confid
     [`material scale, upper bound ${level}`, sim ? sim.scaleBounds.upper : notSimulated],
     ["p-value: one modulus (common m vs separate fits)", sim ? sim.oneModulusP : notSimulated],
     ["p-value: the size effect holds (tied by effective size vs free)", sim ? sim.sizeEffectP : notSimulated],
+    ["checks", sim ? materialFitCaution(sim) : notSimulated],
     [
       "bounds and p-values from",
       sim
@@ -115,7 +117,7 @@ function fitTable(fit: MaterialFitResult, sim: MaterialSimulation | null, confid
  * One Weibull modulus and one material scale from specimens of several geometries (bars, rods, disks): joint maximum
  * likelihood in which each configuration's characteristic strength is sigma_0 V_E(m)^(-1/m), its effective size
  * recomputed at every trial modulus; with each configuration's own fit, bounds and two p-values by seeded simulation.
- * Example: =BRITTLE.MATERIALFIT(B2:B41, C2:C41, "VOLUME", , "PIA", 0.22) spills 44 rows of labels and values.
+ * Example: =BRITTLE.MATERIALFIT(B2:B41, C2:C41, "VOLUME", , "PIA", 0.22) spills 45 rows of labels and values.
  * @customfunction
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
  * @param configurations Each specimen's configuration label, same shape as strengths: a preset name as SPECIMEN accepts it ("C1161-B-4PT", "C1499-20/10") or its dimensions in mm: BAR 40/20 4x3 (bar: outer/inner span, width x depth), ROD 40/20 5 (rod: spans, diameter), RING 10/20 25x1 (ring-on-ring: load/support ring, disk diameter x thickness), PISTON 1.4/10 14x1.2 (piston-on-three-balls).
@@ -124,7 +126,7 @@ function fitTable(fit: MaterialFitResult, sim: MaterialSimulation | null, confid
  * @param [criterion] Multiaxial criterion for disk configurations: "PIA" (default), "NSA" or "MAXPRINCIPAL".
  * @param [poisson] Poisson's ratio, between -1 and 0.5: required when a configuration is a disk.
  * @param [confidence] Two-sided confidence of the simulated bounds, from 0.5 to 0.99; default 0.90.
- * @returns 44 x 2 table of labels and values (blank rows at the end when fewer than 6 configurations).
+ * @returns 45 x 2 table of labels and values (blank rows at the end when fewer than 6 configurations).
  */
 export function MATERIALFIT(
   strengths: any[][],

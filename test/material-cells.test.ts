@@ -60,13 +60,14 @@ describe("MATERIALFIT table", () => {
     expect(p1).toBeGreaterThan(0);
     expect(p1).toBeLessThanOrEqual(1);
     expect(p2).toBeGreaterThan(0);
+    expect(value(rows, "checks")).toMatch(/^no evidence against one modulus \(p = .*\) or the size effect/);
     expect(value(rows, "bounds and p-values from")).toMatch(/parametric simulation .* 2000 data sets, seed/);
     expect(value(rows, "converged")).toBe(true);
     // Rows beyond the used ones are blank, so a host shows empty cells.
     expect(rows[rows.length - 1]).toEqual(["", ""]);
   }, 60_000);
 
-  it("a preset name and its dimensions are one group; the example in the JSDoc has 44 rows", () => {
+  it("a preset name and its dimensions are one group; the example in the JSDoc has 45 rows", () => {
     const c = fits.cases[0]; // C1161-A-4PT, C1161-B-4PT, C1161-C-3PT
     const { strengths, configs } = columns(c);
     const mixed = configs.map(([t]) => [t === "C1161-B-4PT" ? "bar 40/20 4 x 3" : t]);
@@ -74,7 +75,7 @@ describe("MATERIALFIT table", () => {
     const rows = table(guarded.MATERIALFIT(strengths, mixed));
     expect(value(rows, "configurations")).toBe(3);
     expect(relativeError(rows[0][1], c.reference.shapeFloat)).toBeLessThan(1e-12);
-    expect(rows.length).toBe(44);
+    expect(rows.length).toBe(45);
   }, 60_000);
 
   it("censored specimens: the fit equals mpmath's, and the simulated rows say why they are missing", () => {
@@ -158,7 +159,7 @@ describe("the invented example examples/material-fit-and-planning.csv", () => {
     expect(grid[1][2]).toBe("modulus m (maximum likelihood, no unbiasing)");
     expect(typeof grid[1][3]).toBe("number");
     expect(grid[2][3]).toBeGreaterThan(0); // material scale
-    expect(grid[24][3]).toBe(true); // converged
+    expect(grid[25][3]).toBe(true); // converged
     // Planning: the same as the core at the same inputs (checked against the simulation above).
     expect(grid[1][6]).toBe(guarded.SPECIMENSNEEDED(0.8, 10, 0.999));
     expect(grid[4][6]).toBe(guarded.SPECIMENSNEEDED(0.8, grid[3][6], 0.999));

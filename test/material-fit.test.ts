@@ -5,6 +5,7 @@
 import { describe, expect, it } from "vitest";
 import { fitMaterial } from "../src/design/material-fit";
 import { simulateMaterialFit } from "../src/design/material-fit-simulation";
+import { materialFitCaution } from "../src/design/material-fit-caution";
 import { parseConfiguration, sizeLaw, type FlawKind } from "../src/design/specimen-geometry";
 import { InputError } from "../src/errors";
 import { fixture, relativeError } from "./helpers";
@@ -89,6 +90,8 @@ describe("MATERIALFIT p-values and bounds against the generator's independent Mo
     const groups = groupsOf(c);
     const sim = simulateMaterialFit({ fit: fitMaterial({ groups }), laws: groups.map((g: any) => g.law) });
     expect(sim.sizeEffectP).toBeLessThan(0.01);
+    // ... and the table's checks row says so, with its basis.
+    expect(materialFitCaution(sim)).toMatch(/^CAUTION: the size effect fails \(p = [0-9.e-]+ < 0.05\)/);
   }, 60_000);
 
   it("gives the same numbers on every run (seeded)", () => {
@@ -145,5 +148,13 @@ describe("bad input to the pooled fit", () => {
     expect(() =>
       fitMaterial({ groups: [{ label: "B", law, strengths: [1, 2, 3] }, { label: "A", law: law2, strengths: [4, 4] }] }),
     ).toThrow(/all failure strengths are equal/);
+  });
+});
+
+describe("the checks row in words", () => {
+  it("names each failed check with its p-value and the 5 % level (common practice), and says when none failed", () => {
+    expect(materialFitCaution({ oneModulusP: 0.01, sizeEffectP: 0.5 })).toMatch(/^CAUTION: one modulus fails \(p = 0.01 < 0.05\)/);
+    expect(materialFitCaution({ oneModulusP: 0.01, sizeEffectP: 0.02 })).toMatch(/one modulus fails .*; the size effect fails \(p = 0.02 < 0.05\)/);
+    expect(materialFitCaution({ oneModulusP: 0.05, sizeEffectP: 0.3 })).toMatch(/^no evidence against one modulus \(p = 0.05\) or the size effect \(p = 0.3\)/);
   });
 });
