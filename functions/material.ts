@@ -73,6 +73,8 @@ function groupByConfiguration(strengths: unknown, configurations: unknown, censo
   return [...groups.values()];
 }
 
+const NO_OWN_FIT = "n/a (failures all equal in a configuration: no finite modulus of its own)";
+
 function fitTable(fit: MaterialFitResult, sim: MaterialSimulation | null, confidence: number, sizeUnit: string): CellValue[][] {
   const level = `(${percent(confidence)}, two-sided, simulated)`;
   const notSimulated = "n/a (censored specimens: simulation needs complete samples)";
@@ -89,8 +91,8 @@ function fitTable(fit: MaterialFitResult, sim: MaterialSimulation | null, confid
       [`${g.label}: specimens`, g.specimens],
       [`${g.label}: effective size at m`, g.effectiveSize],
       [`${g.label}: characteristic strength, material fit`, g.impliedScale],
-      [`${g.label}: characteristic strength, own fit`, g.ownScale],
-      [`${g.label}: modulus, own fit`, g.ownShape],
+      [`${g.label}: characteristic strength, own fit`, g.ownScale ?? NO_OWN_FIT],
+      [`${g.label}: modulus, own fit`, g.ownShape ?? NO_OWN_FIT],
     );
   }
   rows.push(
@@ -98,7 +100,7 @@ function fitTable(fit: MaterialFitResult, sim: MaterialSimulation | null, confid
     [`modulus, upper bound ${level}`, sim ? sim.shapeBounds.upper : notSimulated],
     [`material scale, lower bound ${level}`, sim ? sim.scaleBounds.lower : notSimulated],
     [`material scale, upper bound ${level}`, sim ? sim.scaleBounds.upper : notSimulated],
-    ["p-value: one modulus (common m vs separate fits)", sim ? sim.oneModulusP : notSimulated],
+    ["p-value: one modulus (common m vs separate fits)", sim ? (sim.oneModulusP ?? NO_OWN_FIT) : notSimulated],
     ["p-value: the size effect holds (tied by effective size vs free)", sim ? sim.sizeEffectP : notSimulated],
     ["checks", sim ? materialFitCaution(sim) : notSimulated],
     [

@@ -37,7 +37,8 @@ export interface MaterialSimulation {
   confidence: number;
   shapeBounds: { lower: number; upper: number };
   scaleBounds: { lower: number; upper: number };
-  oneModulusP: number;
+  /** null when the fit has no one-modulus statistic (a configuration's failures all equal). */
+  oneModulusP: number | null;
   sizeEffectP: number;
   /** Replicates whose three fits all converged (the others are left out). */
   replications: number;
@@ -85,7 +86,7 @@ export function simulateMaterialFit({
     const fits = threeFits(data, laws, { scan: false, ...range });
     if (!fits.pooled.converged || !fits.common.converged || !fits.separate.every((f) => f.converged)) continue;
     const stats = ratioStatistics(fits);
-    if (stats.oneModulus >= fit.oneModulusStatistic) above1++;
+    if (fit.oneModulusStatistic !== null && stats.oneModulus >= fit.oneModulusStatistic) above1++;
     if (stats.sizeEffect >= fit.sizeEffectStatistic) above2++;
     q.push(fits.pooled.shape / m);
     t.push(fits.pooled.shape * (fits.pooled.logScale - logScale));
@@ -105,7 +106,7 @@ export function simulateMaterialFit({
       lower: Math.exp(logScale - sortedQuantile(t, hi) / m),
       upper: Math.exp(logScale - sortedQuantile(t, lo) / m),
     },
-    oneModulusP: (1 + above1) / (1 + used),
+    oneModulusP: fit.oneModulusStatistic === null ? null : (1 + above1) / (1 + used),
     sizeEffectP: (1 + above2) / (1 + used),
     replications: used,
     requested: replications,

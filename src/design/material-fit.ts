@@ -51,9 +51,9 @@ export interface MaterialGroupResult {
   effectiveSize: number;
   /** sigma_0 V_g(m)^(-1/m): what the material fit says this group's characteristic strength is. */
   impliedScale: number;
-  /** This group's own maximum-likelihood fit. */
-  ownShape: number;
-  ownScale: number;
+  /** This group's own maximum-likelihood fit; null when its failures are all equal (no finite modulus). */
+  ownShape: number | null;
+  ownScale: number | null;
 }
 
 export interface MaterialFitResult {
@@ -63,9 +63,13 @@ export interface MaterialFitResult {
   groups: MaterialGroupResult[];
   /** Common modulus with free characteristic strengths. */
   commonShape: number;
-  logLikelihood: { pooled: number; commonModulus: number; separate: number };
-  /** Likelihood-ratio statistics (>= 0) and their large-sample degrees of freedom. */
-  oneModulusStatistic: number;
+  logLikelihood: { pooled: number; commonModulus: number; separate: number | null };
+  /**
+   * Likelihood-ratio statistics (>= 0) and their large-sample degrees of freedom. The one-modulus
+   * statistic is null when a configuration's failures are all equal (ties from rounding, say): its own
+   * fit has no finite modulus, so there is nothing to compare.
+   */
+  oneModulusStatistic: number | null;
   sizeEffectStatistic: number;
   degreesOfFreedom: number;
   censored: boolean;
@@ -179,8 +183,8 @@ export function fitMaterial({ groups }: { groups: readonly MaterialGroupInput[] 
     if (Number.isNaN(first[g])) first[g] = data.logStrength[i];
     else if (data.logStrength[i] !== first[g]) spread[g] = 1;
   }
-  const flat = groups.findIndex((_, g) => !spread[g]);
-  if (flat >= 0) throw new InputError("input", `${groups[flat].label}: all failure strengths are equal, so no modulus can be fitted`);
+  if (!spread.some(Boolean)) throw new InputError("input", "all failure strengths within each configuration are equal: no modulus can be fitted");
+  const flat = (g: number) => !spread[g];
   const laws = groups.map((g) => g.law);
   const range = searchRange(laws);
   const fits = threeFits(data, laws, { scan: true, ...range });
@@ -190,7 +194,7 @@ export function fitMaterial({ groups }: { groups: readonly MaterialGroupInput[] 
   return {
     shape: m,
     materialScale: Math.exp(logScale),
-    converged: fits.pooled.converged && fits.common.converged && fits.separate.every((f) => f.converged),
+    converged: fits.pooled.converged && fits.common.converged && fits.separate.every((f, g) => flat(g) || f.converged),
     groups: groups.map((g, k) => {
       const lnV = laws[k].logSize(m);
       return {
@@ -199,17 +203,17 @@ export function fitMaterial({ groups }: { groups: readonly MaterialGroupInput[] 
         failures: data.failures[k],
         effectiveSize: Math.exp(lnV),
         impliedScale: Math.exp(logScale - lnV / m),
-        ownShape: fits.separate[k].shape,
-        ownScale: Math.exp(fits.separate[k].logScale),
+        ownShape: flat(k) ? null : fits.separate[k].shape,
+        ownScale: flat(k) ? null : Math.exp(fits.separate[k].logScale),
       };
     }),
     commonShape: fits.common.shape,
     logLikelihood: {
       pooled: fits.pooled.logLikelihood,
       commonModulus: fits.common.logLikelihood,
-      separate: fits.separate.reduce((s, f) => s + f.logLikelihood, 0),
+      separate: groups.some((_, g) => flat(g)) ? null : fits.separate.reduce((s, f) => s + f.logLikelihood, 0),
     },
-    oneModulusStatistic: oneModulus,
+    oneModulusStatistic: groups.some((_, g) => flat(g)) ? null : oneModulus,
     sizeEffectStatistic: sizeEffect,
     degreesOfFreedom: groups.length - 1,
     censored: groups.some((g) => g.censored?.some(Boolean) ?? false),
