@@ -166,3 +166,41 @@ describe("the invented example examples/material-fit-and-planning.csv", () => {
     expect(grid[1][8]).toBe("specimens");
   }, 120_000);
 });
+
+describe("MATERIALFIT invariants (weakest-link scaling, common practice)", () => {
+  const c = fits.cases.find((x: any) => x.name.startsWith("bars and a rod")); // C1161-B-4PT, ROD 40/20 5, BAR 30/0 5x4, surface
+  const { strengths, configs } = columns(c);
+  const base = table(guarded.MATERIALFIT(strengths, configs, "SURFACE"));
+
+  it("strengths x k: modulus and p-values unchanged, material scale and characteristic strengths x k", () => {
+    const k = 7.3;
+    const scaled = table(guarded.MATERIALFIT(strengths.map(([s]) => [s * k]), configs, "SURFACE"));
+    for (let i = 0; i < base.length; i++) {
+      const label = String(base[i][0]);
+      expect(scaled[i][0]).toBe(base[i][0]);
+      if (typeof base[i][1] !== "number") continue;
+      const factor = /characteristic strength|material scale/.test(label) ? k : 1;
+      // p-values count replicate statistics at or above the observed one: equal up to a tie at rounding.
+      const tol = /^p-value/.test(label) ? 2 / 2001 : 1e-9;
+      expect(Math.abs(scaled[i][1] / (base[i][1] * factor) - 1), label).toBeLessThan(tol);
+    }
+  }, 60_000);
+
+  it("lengths x k (dimensions in another unit): modulus unchanged, areas x k^2, material scale x k^(2/m)", () => {
+    const k = 1 / 25.4; // mm to inches
+    const inches = (t: string) =>
+      t === "C1161-B-4PT" ? `BAR ${40 * k}/${20 * k} ${4 * k}x${3 * k}` : t.replace(/[\d.]+/g, (x) => String(Number(x) * k));
+    const scaled = table(guarded.MATERIALFIT(strengths, configs.map(([t]) => [inches(t)]), "SURFACE"));
+    const m = base[0][1];
+    expect(Math.abs(scaled[0][1] / m - 1)).toBeLessThan(1e-10);
+    expect(Math.abs(scaled[1][1] / (base[1][1] * k ** (2 / m)) - 1)).toBeLessThan(1e-10);
+    expect(Math.abs(scaled[7][1] / (base[7][1] * k * k) - 1)).toBeLessThan(1e-10); // first configuration's effective size
+  }, 60_000);
+
+  it("the order of the specimens does not matter", () => {
+    const order = strengths.map((_, i) => i).sort((a, b) => ((a * 7919) % 31) - ((b * 7919) % 31));
+    const shuffled = table(guarded.MATERIALFIT(order.map((i) => strengths[i]), order.map((i) => configs[i]), "SURFACE"));
+    expect(Math.abs(shuffled[0][1] / base[0][1] - 1)).toBeLessThan(1e-12);
+    expect(Math.abs(shuffled[1][1] / base[1][1] - 1)).toBeLessThan(1e-12);
+  }, 60_000);
+});
