@@ -76,10 +76,12 @@ export async function calc(options: CalcOptions, io: Io): Promise<FormulaResult[
   }
   const { loadWorkbook } = await import("./workbook-io");
   const { checkWorkbookSize } = await import("./workbook-limits");
+  const { checkRangeBudget } = await import("./range-budget");
   const { evaluateWorkbook } = await import("./evaluate-workbook");
   const { generateMetadata } = await import("../functions/metadata");
   const workbook = await loadWorkbook(options.file);
   checkWorkbookSize(workbook, options.file);
+  checkRangeBudget(workbook, options.file);
   const { functions } = await generateMetadata();
   const evaluation = evaluateWorkbook(workbook, functions);
   const errors = evaluation.formulas.filter((f) => f.error !== undefined);
@@ -87,7 +89,7 @@ export async function calc(options: CalcOptions, io: Io): Promise<FormulaResult[
   else io.out(formatResults(evaluation.formulas) + summaryLine(evaluation.formulas.length, errors.length));
   // With --json, stdout holds the grid alone: the messages of error cells go to stderr; --strict lists them either way.
   if (errors.length > 0 && (options.json || options.strict)) io.err(errorListing(errors));
-  for (const name of evaluation.refusedNames) io.err(`brittle: note: the defined name ${name} cannot be used here; formulas using it show #NAME?\n`);
+  for (const name of evaluation.refusedNames) io.err(`brittle: note: the defined name ${name} is not evaluated (invalid here, or its range is too large); formulas using it show #NAME?\n`);
   if (options.out) {
     const { writeEvaluated } = await import("./write-workbook");
     const { describeDropped } = await import("./xlsx-parts");

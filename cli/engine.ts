@@ -141,7 +141,11 @@ export function registerFunctions(metadata: FunctionMetadata[]): void {
 /**
  * What a spreadsheet accepts but the engine's parser does not, rewritten
  * outside string literals: saved add-in calls (_xldudf_BRITTLE_NAME( becomes
- * BRITTLE.NAME( ) and an upper-case exponent in a number (3.15E8 becomes 3.15e8).
+ * BRITTLE.NAME( ), the prefix a spreadsheet saves before newer built-ins
+ * (_xlfn.STDEV.S( becomes STDEV.S( ), an upper-case exponent in a number
+ * (3.15E8 becomes 3.15e8), and a range from row 1 to the sheet's last row
+ * (A1:A1048576), which the engine would build cell by cell, as the same
+ * column range (A:A), which it does not.
  */
 export function normaliseFormula(formula: string): string {
   return formula
@@ -151,7 +155,9 @@ export function normaliseFormula(formula: string): string {
         ? part
         : part
             .replace(/_xldudf_BRITTLE_([A-Za-z0-9]+)\s*\(/gi, (_, name: string) => `${NAMESPACE}.${name.toUpperCase()}(`)
-            .replace(/(?<![A-Za-z_$\d.])(\d+\.?\d*|\.\d+)E([+-]?\d+)/g, "$1e$2"),
+            .replace(/(?<![A-Za-z0-9_.])_xl(?:fn|ws)\.(?=[A-Za-z][A-Za-z0-9_.]*\s*\()/gi, "")
+            .replace(/(?<![A-Za-z_$\d.])(\d+\.?\d*|\.\d+)E([+-]?\d+)/g, "$1e$2")
+            .replace(/(?<![A-Za-z0-9_.$])(\$?[A-Za-z]{1,3})\$?1:(\$?[A-Za-z]{1,3})\$?1048576(?![0-9A-Za-z_(])/g, "$1:$2"),
     )
     .join("");
 }

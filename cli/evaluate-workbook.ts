@@ -8,6 +8,7 @@
 import { CellType, DetailedCellError, type HyperFormula } from "hyperformula";
 import { addNamedRanges, createEngine, type NamedRange } from "./engine";
 import { NOT_REPRESENTABLE, standardError, type StandardError } from "./error-values";
+import { fitsRangeBudget } from "./range-budget";
 import { EMPTY_ROW } from "./workbook-limits";
 import type { FunctionMetadata } from "../functions/metadata";
 import type { LoadedWorkbook } from "./workbook-io";
@@ -40,7 +41,8 @@ export interface ShownCell {
 
 export function evaluateWorkbook(workbook: LoadedWorkbook, metadata: FunctionMetadata[]): Evaluation {
   const engine = createEngine(workbook.sheets, metadata);
-  const refusedNames = addNamedRanges(engine, namedRanges(workbook, engine));
+  const { names, tooLarge } = namedRanges(workbook, engine);
+  const refusedNames = [...tooLarge, ...addNamedRanges(engine, names)];
   const grids: Record<string, Shown[][]> = {};
   const formulas: FormulaResult[] = [];
   for (const name of Object.keys(workbook.sheets)) {
@@ -88,16 +90,22 @@ export function shownCell(v: unknown): ShownCell {
  * sheet-scoped ones, not the file's own (_xlnm.Print_Area and such) nor
  * those that point into another file.
  */
-function namedRanges(workbook: LoadedWorkbook, engine: HyperFormula): NamedRange[] {
+function namedRanges(workbook: LoadedWorkbook, engine: HyperFormula): { names: NamedRange[]; tooLarge: string[] } {
   const out: NamedRange[] = [];
+  const tooLarge: string[] = [];
   for (const n of workbook.names ?? []) {
     if (/^_xlnm\./i.test(n.name) || n.formula.includes("[")) continue;
+    // A name over a whole sheet would cost the engine minutes; formulas using it show #NAME?.
+    if (!fitsRangeBudget(n.formula)) {
+      tooLarge.push(n.name);
+      continue;
+    }
     const sheetName = n.localSheet === undefined ? undefined : workbook.sheetOrder?.[n.localSheet];
     const scope = sheetName === undefined ? undefined : engine.getSheetId(sheetName);
     if (n.localSheet !== undefined && scope === undefined) continue;
     out.push({ name: n.name, expression: n.formula, ...(scope === undefined ? {} : { scope }) });
   }
-  return out;
+  return { names: out, tooLarge };
 }
 
 export function columnName(index: number): string {

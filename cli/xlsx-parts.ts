@@ -66,14 +66,14 @@ export interface ReadablePackage {
 }
 
 /** Checks the package's declared sizes, then removes the parts the reader cannot take. */
-export async function readablePackage(bytes: Uint8Array, path: string): Promise<ReadablePackage> {
+export async function readablePackage(bytes: Uint8Array, path: string, limits = { part: MAX_PART_BYTES, total: MAX_PACKAGE_BYTES }): Promise<ReadablePackage> {
   let zip: JSZip;
   try {
     zip = await JSZip.loadAsync(bytes);
   } catch (error) {
     throw new WorkbookError(`cannot read ${path} as an .xlsx workbook: ${firstLine(error)}`);
   }
-  checkSizes(zip, path);
+  checkSizes(zip, path, limits);
   const dropped: DroppedParts = { charts: 0, images: 0, comments: 0, "links to other workbooks": 0, "embedded objects": 0 };
   const removed = new Set<string>();
   for (const name of Object.keys(zip.files)) {
@@ -148,18 +148,18 @@ export async function restoreDefinedNames(bytes: Uint8Array, names: DefinedName[
   return zip.generateAsync({ type: "uint8array", compression: "DEFLATE" });
 }
 
-function checkSizes(zip: JSZip, path: string): void {
+function checkSizes(zip: JSZip, path: string, limits: { part: number; total: number }): void {
   let total = 0;
   for (const [name, file] of Object.entries(zip.files)) {
     // The central directory's uncompressed size: known before anything is inflated.
     const size = (file as unknown as { _data?: { uncompressedSize?: number } })._data?.uncompressedSize ?? 0;
-    if (size > MAX_PART_BYTES) {
-      throw new WorkbookError(`${path}: part ${name} unpacks to ${megabytes(size)} MB; brittle reads parts of at most ${megabytes(MAX_PART_BYTES)} MB`);
+    if (size > limits.part) {
+      throw new WorkbookError(`${path}: part ${name} unpacks to ${megabytes(size)} MB; brittle reads parts of at most ${megabytes(limits.part)} MB`);
     }
     total += size;
   }
-  if (total > MAX_PACKAGE_BYTES) {
-    throw new WorkbookError(`${path} unpacks to ${megabytes(total)} MB; brittle reads workbooks of at most ${megabytes(MAX_PACKAGE_BYTES)} MB unpacked`);
+  if (total > limits.total) {
+    throw new WorkbookError(`${path} unpacks to ${megabytes(total)} MB; brittle reads workbooks of at most ${megabytes(limits.total)} MB unpacked`);
   }
 }
 
@@ -179,7 +179,7 @@ async function rewrite(zip: JSZip, name: string, change: (xml: string) => string
 }
 
 function megabytes(bytes: number): string {
-  return (bytes / 1024 / 1024).toFixed(0);
+  return String(Math.ceil(bytes / 1024 / 1024));
 }
 
 function firstLine(error: unknown): string {
