@@ -2,6 +2,8 @@
  * `brittle`: the add-in's functions with no spreadsheet application.
  *
  *   brittle calc FILE [--out FILE.xlsx] [--force] [--json] [--strict]
+ *   brittle part FILE --modulus M [options]
+ *   brittle check FILE.check.json [--json]
  *   brittle demo
  *
  * calc evaluates every formula of an .xlsx or .csv workbook in the embedded
@@ -13,21 +15,30 @@
  * through a symbolic or hard link either), and an existing output only with
  * --force. --strict exits with EXIT_FORMULA_ERRORS when any formula evaluates
  * to an error, listing the cells on stderr.
+ * check reruns a saved design check (exit 0 PASS, 1 FAIL, 2 bad input).
  */
 import { existsSync } from "node:fs";
 import { mkdir } from "node:fs/promises";
 import { dirname, resolve } from "node:path";
 import type { FormulaResult } from "./evaluate-workbook";
 
-/** Exit codes: 1 a file that cannot be read or written, 2 a usage error, 3 --strict and a formula evaluated to an error. */
+/** calc's exit codes: 1 a file that cannot be read or written, 2 a usage error, 3 --strict and a formula evaluated to an error. */
 export const EXIT_FORMULA_ERRORS = 3;
-// The workbook engine, exceljs and the metadata generator (which loads the TypeScript compiler) are
-// imported where they are needed, so `brittle part` starts without them.
+// The workbook engine, exceljs and the function catalogue are imported where they are needed, so `brittle part`
+// starts without them. Compiled (lib/), the catalogue is the built functions.json; from source, the metadata
+// generator (see scripts/build.mjs).
 
-const USAGE = `usage: brittle calc FILE [--out FILE.xlsx] [--force] [--json] [--strict]
+const USAGE = `usage: brittle calc FILE [--out FILE.xlsx] [--force] [--json] [--strict] [--decimal-comma | --decimal-point]
+       brittle part FILE --modulus M [options]   (brittle part --help lists them)
+       brittle check FILE.check.json [--json]
        brittle demo
-FILE is an .xlsx workbook or a .csv sheet whose cells may hold BRITTLE.* formulas.
---strict: exit code ${EXIT_FORMULA_ERRORS} when any formula evaluates to an error (the cells are listed on stderr).`;
+calc: FILE is an .xlsx workbook or a .csv sheet whose cells may hold BRITTLE.* formulas. A .csv's
+  encoding, delimiter and decimal mark are detected; --decimal-comma or --decimal-point states the
+  mark when the file leaves it ambiguous (docs/files-and-formats.md). --strict: exit code 3 when any
+  formula evaluates to an error (the cells are listed on stderr).
+part: FILE is a table of element stresses and sizes (effective size, failure probability, risk shares).
+check: reruns a saved design check and prints the verdict with its basis: exit 0 PASS, 1 FAIL, 2 bad input.
+demo: evaluates the invented supplier datasheet shipped with the package.`;
 
 export interface Io {
   out: (text: string) => void;
@@ -47,6 +58,7 @@ interface CalcOptions {
   json: boolean;
   force: boolean;
   strict: boolean;
+  decimalMark?: "comma" | "point";
 }
 
 function parseCalc(args: string[]): CalcOptions {
@@ -56,6 +68,11 @@ function parseCalc(args: string[]): CalcOptions {
     if (a === "--json") options.json = true;
     else if (a === "--strict") options.strict = true;
     else if (a === "--force") options.force = true;
+    else if (a === "--decimal-comma" || a === "--decimal-point") {
+      const mark = a === "--decimal-comma" ? "comma" : "point";
+      if (options.decimalMark && options.decimalMark !== mark) throw new UsageError("give --decimal-comma or --decimal-point, not both");
+      options.decimalMark = mark;
+    }
     else if (a === "--out") {
       if (!args[i + 1] || args[i + 1].startsWith("--")) throw new UsageError("--out needs a file name");
       options.out = args[++i];
@@ -79,7 +96,8 @@ export async function calc(options: CalcOptions, io: Io): Promise<FormulaResult[
   const { checkRangeBudget } = await import("./range-budget");
   const { evaluateWorkbook } = await import("./evaluate-workbook");
   const { generateMetadata } = await import("../functions/metadata");
-  const workbook = await loadWorkbook(options.file);
+  const workbook = await loadWorkbook(options.file, { decimalMark: options.decimalMark });
+  if (workbook.readAs) io.err(`brittle: read ${options.file} as ${workbook.readAs}\n`);
   checkWorkbookSize(workbook, options.file);
   checkRangeBudget(workbook, options.file);
   const { functions } = await generateMetadata();
@@ -159,6 +177,10 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
       const { runDemo } = await import("../examples/demo");
       await runDemo(io);
       return 0;
+    }
+    if (command === "check") {
+      const { runCheckCommand } = await import("./check-command");
+      return await runCheckCommand(rest, io);
     }
     if (command === "part") {
       const { runPartCommand } = await import("./part-command");

@@ -34,7 +34,13 @@ const ERROR_TYPES = { "#VALUE!": ErrorType.VALUE, "#NUM!": ErrorType.NUM, "#N/A"
 function toEngineValue(result: CellResult): unknown {
   if (isCellFailure(result)) return new CellError(ERROR_TYPES[result.cellError], result.message);
   if (Array.isArray(result)) {
-    return SimpleRangeValue.onlyValues(result.map((row) => row.map((v) => (v === null || v === undefined ? EmptyValue : v))) as never);
+    return SimpleRangeValue.onlyValues(
+      result.map((row) =>
+        row.map((v) =>
+          v === null || v === undefined ? EmptyValue : isCellFailure(v) ? new CellError(ERROR_TYPES[v.cellError], v.message) : v,
+        ),
+      ) as never,
+    );
   }
   return result;
 }
@@ -119,12 +125,13 @@ export function createPlugin(metadata: FunctionMetadata[]) {
 
 function spillSize(shape: SpillShape, sizeOf: (k: number) => ArraySize | undefined): ArraySize {
   const { rows, cols } = shape;
-  if (typeof rows === "number") return new ArraySize(cols, rows);
+  const header = shape.headerRows ?? 0;
+  if (typeof rows === "number") return new ArraySize(cols, rows + header);
   const k = "cellsOf" in rows ? rows.cellsOf : rows.rowsOf;
   const size = sizeOf(k);
   // A range argument's size carries isRef, for which isScalar() is true: use its dimensions, not that flag.
-  if (!size) return new ArraySize(cols, 1);
-  return new ArraySize(cols, "cellsOf" in rows ? size.width * size.height : size.height);
+  if (!size) return new ArraySize(cols, 1 + header);
+  return new ArraySize(cols, ("cellsOf" in rows ? size.width * size.height : size.height) + header);
 }
 
 let registered = false;

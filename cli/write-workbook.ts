@@ -9,7 +9,7 @@
  * file format's standard values. The file appears whole or not at all
  * (atomic-write.ts).
  */
-import ExcelJS from "exceljs";
+import { loadExcelJs, type ExcelJS } from "./exceljs-loader";
 import { writeAtomically } from "./atomic-write";
 import { shownCell, columnName, spillExtent, type Evaluation } from "./evaluate-workbook";
 import { judgeFormula, writtenText } from "./formula-safety";
@@ -24,7 +24,7 @@ export interface WriteReport {
 }
 
 export async function writeEvaluated(workbook: LoadedWorkbook, evaluation: Evaluation, outPath: string): Promise<WriteReport> {
-  const book = workbook.source ?? new ExcelJS.Workbook();
+  const book = workbook.source ?? new (await loadExcelJs()).Workbook();
   const { engine, addInNames } = evaluation;
   const report: WriteReport = { asText: [], namesLeftOut: [] };
   for (const [name, contents] of Object.entries(workbook.sheets)) {

@@ -4,8 +4,8 @@
  * rows are sparse arrays (a value in XFD1048576 costs one slot, not the 17
  * billion of the rectangle), and rows with nothing share one empty array.
  */
-import ExcelJS from "exceljs";
 import { readFile } from "node:fs/promises";
+import { loadExcelJs, type ExcelJS } from "./exceljs-loader";
 import { checkCellCount, EMPTY_ROW, MAX_CONTENT_CELLS } from "./workbook-limits";
 import { WorkbookError } from "./workbook-errors";
 import { readablePackage } from "./xlsx-parts";
@@ -25,7 +25,8 @@ export async function loadXlsx(path: string, options: XlsxOptions = {}): Promise
     throw new WorkbookError(`cannot read ${path}: ${(error as NodeJS.ErrnoException).code ?? String(error)}`);
   }
   const pkg = await readablePackage(bytes, path);
-  const workbook = new ExcelJS.Workbook();
+  const excel = await loadExcelJs();
+  const workbook = new excel.Workbook();
   try {
     await workbook.xlsx.load(pkg.bytes as never);
   } catch (error) {
@@ -42,7 +43,7 @@ export async function loadXlsx(path: string, options: XlsxOptions = {}): Promise
       row.eachCell({ includeEmpty: false }, (cell, c) => {
         // The other cells of a merged range repeat its first cell's value in the reader, but hold nothing:
         // read as values they would count one specimen several times.
-        if (cell.type === ExcelJS.ValueType.Merge) return;
+        if (cell.type === excel.ValueType.Merge) return;
         const contents = cellContents(cell);
         if (contents === null) return;
         if (++cells > maxCells) checkCellCount(cells, maxCells, path);

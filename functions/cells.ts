@@ -3,20 +3,39 @@
  * Every adapter reads its arguments through these readers, and every adapter
  * a host sees is wrapped by `guard`, so:
  *
+ * - The spreadsheet host shows a custom message only with #VALUE! and #N/A,
+ *   so every error a user can act on uses one of those two:
+ *   - a bad input (wrong type, outside the domain, too few specimens,
+ *     mismatched ranges, a negative value) -> #VALUE! with its message;
+ *   - a result that does not apply to these inputs (the fit quality of a
+ *     censored sample, the effective size of a part with no tensile stress)
+ *     -> #N/A with its message;
+ *   - #NUM! only for a result beyond double precision (an overflow, or a
+ *     nonzero result that underflows) and for a solve that did not converge:
+ *     there is nothing to change in the inputs, and the pane's "explain the
+ *     selected cell" shows the message the host drops.
  * - In a range of values, empty cells, empty strings and zeros are "no
  *   specimen" (desktop hosts pass empty cells as 0, web hosts as null);
- *   text or TRUE/FALSE -> #VALUE! naming the position; a negative -> #NUM!.
+ *   text or TRUE/FALSE -> #VALUE! naming the position.
  * - A second range that pairs with the first (censoring flags, element
  *   sizes) must have the same rows and columns, else #VALUE!.
- * - A scalar outside its domain -> #NUM! with a message; only #VALUE! and
- *   #N/A messages reach the user in every host, so use #VALUE! where the
- *   message matters most.
  * - Nothing throws out of a guarded adapter, and a number going back to a
- *   cell is never NaN or Infinity.
+ *   cell is never NaN or Infinity; no message prints them either.
+ *
+ * The core throws `InputError` with a kind; `CODE_OF_KIND` is the only place
+ * that turns a kind into a cell code.
  */
-import { InputError } from "../src/errors";
+import { InputError, type FailureKind } from "../src/errors";
 
 export type ErrorCode = "#VALUE!" | "#NUM!" | "#N/A";
+
+/** The cell code for each kind of failure the core reports. */
+export const CODE_OF_KIND: Record<FailureKind, ErrorCode> = {
+  input: "#VALUE!",
+  notApplicable: "#N/A",
+  notRepresentable: "#NUM!",
+  notConverged: "#NUM!",
+};
 
 export class CellError extends Error {
   readonly code: ErrorCode;
@@ -81,8 +100,8 @@ export function readPositiveNumbers(value: unknown, name: string): RangeNumbers 
       const v = range[r][c];
       if (isBlank(v)) continue;
       if (typeof v !== "number") throw new CellError("#VALUE!", `${describePosition(name, r, c, cols)} is not a number`);
-      if (!Number.isFinite(v)) throw new CellError("#NUM!", `${describePosition(name, r, c, cols)} is not a finite number`);
-      if (v < 0) throw new CellError("#NUM!", `${describePosition(name, r, c, cols)} is negative`);
+      if (!Number.isFinite(v)) throw new CellError("#VALUE!", `${describePosition(name, r, c, cols)} is too large to represent`);
+      if (v < 0) throw new CellError("#VALUE!", `${describePosition(name, r, c, cols)} is negative`);
       values.push(v);
       indices.push(r * cols + c);
     }
@@ -142,7 +161,7 @@ export function readLabels(value: unknown, name: string, like: RangeNumbers, lik
 /**
  * Two ranges of the same shape read as pairs (stress rates with strengths,
  * stresses with durations): a position blank or zero on both sides is no
- * pair; blank on one side only is #NUM!, except a blank first value where
+ * pair; blank on one side only is #VALUE!, except a blank first value where
  * `firstMayBeZero` (e.g. an unloaded block in a load history).
  */
 export function readPairs(
@@ -164,9 +183,9 @@ export function readPairs(
     const c = index % a.cols;
     const va = byIndexA.get(index);
     const vb = byIndexB.get(index);
-    if (vb === undefined) throw new CellError("#NUM!", `${describePosition(secondName, r, c, a.cols)} is blank or zero beside a value in ${firstName}`);
+    if (vb === undefined) throw new CellError("#VALUE!", `${describePosition(secondName, r, c, a.cols)} is blank or zero beside a value in ${firstName}`);
     if (va === undefined && !firstMayBeZero) {
-      throw new CellError("#NUM!", `${describePosition(firstName, r, c, a.cols)} is blank or zero beside a value in ${secondName}`);
+      throw new CellError("#VALUE!", `${describePosition(firstName, r, c, a.cols)} is blank or zero beside a value in ${secondName}`);
     }
     x.push(va ?? 0);
     y.push(vb);
@@ -183,7 +202,7 @@ export interface CellSample {
 export function readSample(strengths: unknown, censored: unknown): CellSample {
   const numbers = readPositiveNumbers(strengths, "strengths");
   if (numbers.values.length < 2) {
-    throw new CellError("#NUM!", `strengths: a fit needs at least two specimens (found ${numbers.values.length})`);
+    throw new CellError("#VALUE!", `strengths: a fit needs at least two specimens (found ${numbers.values.length})`);
   }
   if (censored === null || censored === undefined) return { strengths: numbers.values };
   return { strengths: numbers.values, censored: readFlags(censored, "censored", numbers, "strengths") };
@@ -192,7 +211,7 @@ export function readSample(strengths: unknown, censored: unknown): CellSample {
 /** A required number; hosts coerce typed parameters, so only blanks and odd types arrive here. */
 export function readNumber(value: unknown, name: string): number {
   if (typeof value === "number") {
-    if (!Number.isFinite(value)) throw new CellError("#NUM!", `${name} is not a finite number`);
+    if (!Number.isFinite(value)) throw new CellError("#VALUE!", `${name} is too large to represent`);
     return value;
   }
   if (value === null || value === undefined || value === "") throw new CellError("#VALUE!", `${name} is required`);
@@ -202,6 +221,19 @@ export function readNumber(value: unknown, name: string): number {
 /** An optional number: a missing or blank argument gives the default. */
 export function readOptionalNumber(value: unknown, name: string, fallback: number): number {
   return value === null || value === undefined || value === "" ? fallback : readNumber(value, name);
+}
+
+/** An optional TRUE/FALSE: a missing or blank argument gives the default; 1/0 and the words TRUE/FALSE also count. */
+export function readOptionalBoolean(value: unknown, name: string, fallback: boolean): boolean {
+  if (value === null || value === undefined || value === "") return fallback;
+  if (value === true || value === 1) return true;
+  if (value === false || value === 0) return false;
+  if (typeof value === "string") {
+    const word = value.trim().toUpperCase();
+    if (word === "TRUE") return true;
+    if (word === "FALSE") return false;
+  }
+  throw new CellError("#VALUE!", `${name} must be TRUE or FALSE`);
 }
 
 /** An optional keyword, matched case-insensitively against the allowed words. */
@@ -217,28 +249,31 @@ export function readChoice<T extends string>(value: unknown, name: string, allow
 /** Turn any error into a CellFailure; nothing escapes to the host. */
 export function toFailure(error: unknown): CellFailure {
   if (error instanceof CellError) return { cellError: error.code, message: error.message };
-  if (error instanceof InputError) return { cellError: error.kind === "num" ? "#NUM!" : "#VALUE!", message: error.message };
+  if (error instanceof InputError) return { cellError: CODE_OF_KIND[error.kind], message: error.message };
   const text = error instanceof Error ? error.message : String(error);
   return { cellError: "#VALUE!", message: `internal error: ${text}` };
 }
 
-export type CellResult = number | string | boolean | CellValue[][] | CellFailure;
+/** One cell of a spilled result: a value, or an error in that cell alone (e.g. one specimen outside a formula's limits). */
+export type SpillCell = CellValue | CellFailure;
+
+export type CellResult = number | string | boolean | SpillCell[][] | CellFailure;
 
 /** Check a result before it reaches a cell: no NaN, no Infinity, anywhere in a spill. */
 export function checkResult(result: unknown): CellResult {
   if (typeof result === "number") {
-    return Number.isFinite(result) ? result : { cellError: "#NUM!", message: "the result is outside the range of double-precision numbers" };
+    return Number.isFinite(result) ? result : { cellError: "#NUM!", message: "the result is too large to represent in double precision" };
   }
   if (typeof result === "string" || typeof result === "boolean") return result;
   if (Array.isArray(result)) {
     for (const row of result) {
       for (const v of row as unknown[]) {
         if (typeof v === "number" && !Number.isFinite(v)) {
-          return { cellError: "#NUM!", message: "a result is outside the range of double-precision numbers" };
+          return { cellError: "#NUM!", message: "a result is too large to represent in double precision" };
         }
       }
     }
-    return result as CellValue[][];
+    return result as SpillCell[][];
   }
   if (isCellFailure(result)) return result;
   return { cellError: "#VALUE!", message: "internal error: the function produced no value" };
@@ -253,4 +288,47 @@ export function guard<A extends unknown[]>(adapter: (...args: A) => unknown): (.
       return toFailure(error);
     }
   };
+}
+
+/**
+ * An argument given either as one value for every row or as a column with one
+ * value per row (loads, dimensions of each specimen). Cells are returned as they
+ * are, for the adapter to read row by row, so that a bad cell fails its own row
+ * of a spilled result and not the others.
+ */
+export interface PerRowArgument {
+  readonly name: string;
+  /** One entry per row; a single entry when one value serves every row. */
+  readonly cells: readonly CellValue[];
+}
+
+export function readPerRow(value: unknown, name: string): PerRowArgument {
+  const range = asRange(value, name);
+  if (range.length > 1 && range[0].length > 1) throw new CellError("#VALUE!", `${name} must be one value or one column`);
+  // A single row of several cells is taken as a column typed across.
+  const cells = range.length === 1 ? range[0] : range.map((row) => row[0]);
+  return { name, cells };
+}
+
+/** The rows a set of per-row arguments describes: the length of their columns, which must agree. */
+export function perRowCount(args: readonly PerRowArgument[]): number {
+  let rows = 1;
+  for (const a of args) {
+    if (a.cells.length === 1) continue;
+    if (rows !== 1 && a.cells.length !== rows) {
+      const first = args.find((b) => b.cells.length === rows)!;
+      throw new CellError("#VALUE!", `${a.name} has ${a.cells.length} rows but ${first.name} has ${rows}: give one value or a column of the same length`);
+    }
+    rows = a.cells.length;
+  }
+  return rows;
+}
+
+/** The number an argument holds for a row; blank is null (no specimen in that row). */
+export function perRowNumber(arg: PerRowArgument, row: number): number | null {
+  const v = arg.cells.length === 1 ? arg.cells[0] : arg.cells[row];
+  if (v === null || v === undefined || (typeof v === "string" && v.trim() === "")) return null;
+  if (typeof v !== "number") throw new CellError("#VALUE!", `${arg.name}, row ${row + 1} is not a number`);
+  if (!Number.isFinite(v)) throw new CellError("#VALUE!", `${arg.name}, row ${row + 1} is not a finite number`);
+  return v;
 }

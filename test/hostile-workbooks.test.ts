@@ -46,7 +46,7 @@ async function readBack(path: string): Promise<ExcelJS.Workbook> {
 describe("sheet extent: memory follows the filled cells, not the rectangle they span", () => {
   it("xlsx-far-corner: A1 and XFD1048576 evaluate under a 1 GB heap (once minutes and an out-of-memory abort at 4 GB)", () => {
     // A child process with a capped heap: a dense grid of 17 billion cells cannot fit, so this fails if one is built.
-    const run = spawnSync(process.execPath, ["--max-old-space-size=1024", "bin/brittle.js", "calc", corpus("xlsx-far-corner.xlsx"), "--json"], {
+    const run = spawnSync(process.execPath, ["--max-old-space-size=1024", "bin/run-ts.js", "cli/run.ts", "calc", corpus("xlsx-far-corner.xlsx"), "--json"], {
       encoding: "utf8",
       maxBuffer: 64 * 1024 * 1024,
     });

@@ -21,16 +21,59 @@
 //   the inert design stress and fall with the lifetime; a constant load
 //   history is its own equivalent; crack-growth fits are unit-equivariant.
 //
-// A family's block runs when its functions are registered.
+// Every family's functions must be registered: a renamed or missing function fails, never skips.
 import fc from "fast-check";
-import { afterAll, describe, it } from "vitest";
+import { afterAll, describe, it, vi } from "vitest";
 import { generateMetadata } from "../functions/metadata";
 import { assertNone } from "./properties-policy";
 import { evaluateCalls, type Arg, type Call, type Cell, type Shown } from "./properties-workbook";
 
 const { functions: metadata } = await generateMetadata();
 const registered = new Set(metadata.map((f) => f.id));
-const has = (...ids: string[]) => ids.every((id) => registered.has(id));
+// The functions these invariants call; each must be registered (see the first test).
+const EXERCISED = [
+  "CHARFROMMEAN",
+  "CHARFROMMEDIAN",
+  "CHARSTRENGTH",
+  "CHARSTRENGTHBOUNDS",
+  "COMPETINGDESIGNSTRESS",
+  "COMPETINGFAILPROB",
+  "DESIGNSTRESS",
+  "DESIGNSTRESSBOUND",
+  "FAILPROB",
+  "FIT",
+  "FITQUALITY",
+  "FLEXAREA",
+  "FLEXVOLUME",
+  "LIFEDESIGNSTRESS",
+  "LIFETIMESTRESS",
+  "LOADHISTORYSTRESS",
+  "LOTFAILURES",
+  "MATERIALSCALE",
+  "MEANSTRENGTH",
+  "MODULUS",
+  "MODULUSBOUNDS",
+  "MODULUSFROMCV",
+  "PARTEFFSIZE",
+  "PARTFAILPROB",
+  "PISTONAREA",
+  "PISTONVOLUME",
+  "PLOTPOINTS",
+  "POSTPROOFFAILPROB",
+  "PROOFBREAKS",
+  "PROOFMINLIFE",
+  "PROOFSTRESSFORLIFE",
+  "RINGAREA",
+  "RINGVOLUME",
+  "RISKSHARE",
+  "RODFLEXAREA",
+  "RODFLEXVOLUME",
+  "SCGFIT",
+  "SCGSTATICFIT",
+  "SIZESCALE",
+  "TIMETOFAILURE",
+
+];
 const scale = Number(process.env.FC_SCALE ?? 1);
 const seed = process.env.FC_SEED ? { seed: Number(process.env.FC_SEED), path: process.env.FC_PATH } : {};
 
@@ -63,18 +106,23 @@ function runChecks(checks: Check[]): string[] {
   return problems;
 }
 
-function property(check: fc.Arbitrary<Check>, perBuild: number, runs: number, budgetMs: number) {
+/**
+ * A fixed number of cases, never a time budget, so the same seed always checks the same cases (the counts
+ * are what the former budgets ran on a loaded two-core machine; FC_SCALE=5 runs the earlier maxima).
+ */
+function property(check: fc.Arbitrary<Check>, perBuild: number, runs: number) {
   fc.assert(
     fc.property(fc.array(check, { minLength: perBuild, maxLength: perBuild }), (checks) => assertNone(runChecks(checks))),
-    { numRuns: Math.max(1, Math.round(runs * scale)), interruptAfterTimeLimit: budgetMs * scale, markInterruptAsFailure: false, ...seed },
+    { numRuns: Math.max(1, Math.round(runs * scale)), ...seed },
   );
 }
+// Generous, and never a verdict: a slow machine takes longer, it does not fail.
+vi.setConfig({ testTimeout: 600_000 });
 
 const num = (x: number): Arg => ({ kind: "cell", value: x });
 const word = (w: string): Arg => ({ kind: "literal", text: JSON.stringify(w) });
 const omit: Arg = { kind: "omit" };
 const column = (xs: Cell[]): Arg => ({ kind: "range", cells: xs.map((x) => [x]) });
-const table = (rows: Cell[][]): Arg => ({ kind: "range", cells: rows });
 const call = (id: string, ...args: Arg[]): Call => ({ id, args });
 
 const top = (cells: Shown[][]): Shown => cells[0][0];
@@ -127,7 +175,14 @@ const sample = (nMin: number, nMax: number) =>
 
 const FIT_METHODS = ["MLE", "MLE-RAW", "LSQ", "LSQ-MEANRANK", "LSQ-MEDIANRANK"];
 
-describe.runIf(has("MODULUS", "CHARSTRENGTH"))("fits", () => {
+describe("the functions the invariants exercise", () => {
+  it("are all registered (a rename must fail a test, not skip it)", () => {
+    const missing = EXERCISED.filter((id) => !registered.has(id));
+    if (missing.length) throw new Error(`not registered: ${missing.join(", ")}`);
+  });
+});
+
+describe("fits", () => {
   it("strengths x k: modulus unchanged, characteristic strength x k; the order of specimens does not matter (every method)", () => {
     const check = fc
       .record({ xs: sample(3, 30), k: factor, method: fc.constantFrom(...FIT_METHODS), censor: fc.oneof({ arbitrary: fc.constant(false), weight: 12 }, { arbitrary: fc.constant(true), weight: 1 }), shift: fc.nat() })
@@ -154,7 +209,7 @@ describe.runIf(has("MODULUS", "CHARSTRENGTH"))("fits", () => {
             same(top(cr), top(c0), 1e-10, "reordered characteristic strength "),
         };
       });
-    property(check, 12, 40, 4800);
+    property(check, 12, 8);
   });
 
   // Found by the property above: the bootstrap was once seeded by the strengths' bits in row order, so the
@@ -178,7 +233,7 @@ describe.runIf(has("MODULUS", "CHARSTRENGTH"))("fits", () => {
   });
 });
 
-describe.runIf(has("FIT", "MODULUSBOUNDS", "CHARSTRENGTHBOUNDS", "FITQUALITY", "DESIGNSTRESSBOUND", "PLOTPOINTS"))("bounds and fit quality", () => {
+describe("bounds and fit quality", () => {
   it("strengths x k: bounds on the modulus, A* and OSL unchanged; strength bounds, design-stress bound x k; plot X shifts by ln k", () => {
     const check = fc.record({ xs: sample(5, 25), k: factor, s: survival, r: sizeRatio }).map(({ xs, k, s, r }): Check => {
       const scaled = xs.map((x) => x * k);
@@ -191,33 +246,36 @@ describe.runIf(has("FIT", "MODULUSBOUNDS", "CHARSTRENGTHBOUNDS", "FITQUALITY", "
           call("CHARSTRENGTHBOUNDS", column(scaled)),
           call("FITQUALITY", column(xs)),
           call("FITQUALITY", column(scaled)),
-          call("DESIGNSTRESSBOUND", num(s), column(xs), omit, num(r)),
-          call("DESIGNSTRESSBOUND", num(s), column(scaled), omit, num(r)),
+          call("DESIGNSTRESSBOUND", num(s), column(xs), omit, omit, num(r)),
+          call("DESIGNSTRESSBOUND", num(s), column(scaled), omit, omit, num(r)),
           call("PLOTPOINTS", column(xs)),
           call("PLOTPOINTS", column(scaled)),
         ],
         verify: ([mb0, mbk, cb0, cbk, q0, qk, d0, dk, p0, pk]) => {
           const times = (v: Shown) => (isNum(v) ? v * k : v);
           for (let j = 0; j < 2; j++) {
+            // Labelled blocks: row j holds (label, value).
             const problem =
-              same(mbk[0][j], mb0[0][j], 1e-9, "modulus bound ") ??
-              same(cbk[0][j], times(cb0[0][j]), 1e-9, "strength bound ") ??
-              same(qk[0][j], q0[0][j], 1e-7, "fit quality ");
+              same(mbk[j][1], mb0[j][1], 1e-9, "modulus bound ") ??
+              same(cbk[j][1], times(cb0[j][1]), 1e-9, "strength bound ") ??
+              same(qk[j][1], q0[j][1], 1e-7, "fit quality ");
             if (problem) return problem;
           }
           const d = same(top(dk), times(top(d0)), 1e-9, "design-stress bound ");
           if (d) return d;
-          for (let i = 0; i < p0.length; i++) {
+          // Row 0 is the header; P (third column) is free of the unit like Y.
+          for (let i = 1; i < p0.length; i++) {
             const x0 = p0[i][0];
             const x = same(pk[i][0], isNum(x0) ? x0 + Math.log(k) : x0, 1e-9, `plot X row ${i + 1} `);
             const y = same(pk[i][1], p0[i][1], 1e-12, `plot Y row ${i + 1} `);
-            if (x || y) return x ?? y;
+            const p = same(pk[i][2], p0[i][2], 1e-15, `plot P row ${i + 1} `);
+            if (x || y || p) return x ?? y ?? p;
           }
           return null;
         },
       };
     });
-    property(check, 8, 30, 3600);
+    property(check, 8, 6);
   });
 
   it("FIT: strength rows x k, every other row unchanged, when the strengths are scaled", () => {
@@ -244,11 +302,11 @@ describe.runIf(has("FIT", "MODULUSBOUNDS", "CHARSTRENGTHBOUNDS", "FITQUALITY", "
         return null;
       },
     }));
-    property(check, 6, 20, 3600);
+    property(check, 6, 4);
   });
 });
 
-describe.runIf(has("FAILPROB", "DESIGNSTRESS", "SIZESCALE", "MATERIALSCALE", "MEANSTRENGTH", "CHARFROMMEAN", "CHARFROMMEDIAN"))("design with the fit", () => {
+describe("design with the fit", () => {
   it("FAILPROB(DESIGNSTRESS(s)) = 1 - s, from s = 1e-9 to 1 - 1e-9", () => {
     const check = fc.record({ s: survival, m: modulus, c: charStrength, r: sizeRatio }).map(({ s, m, c, r }): Check => ({
       what: `s = ${s}, m = ${m}, c = ${c}, r = ${r}`,
@@ -257,7 +315,7 @@ describe.runIf(has("FAILPROB", "DESIGNSTRESS", "SIZESCALE", "MATERIALSCALE", "ME
       verify: ([d, p]) => (isNum(top(d)) ? same(top(p), 1 - s, 1e-12, "failure probability ") : null),
     }));
     // One check per build: the second call reads the first by its address.
-    property(check, 1, 150, 2400);
+    property(check, 1, 30);
   });
 
   it("monotone: FAILPROB rises with stress and size, DESIGNSTRESS falls with survival and size", () => {
@@ -284,7 +342,7 @@ describe.runIf(has("FAILPROB", "DESIGNSTRESS", "SIZESCALE", "MATERIALSCALE", "ME
             notAbove(top(dSize), top(d), "DESIGNSTRESS at a larger size: "),
         };
       });
-    property(check, 25, 60, 2400);
+    property(check, 25, 12);
   });
 
   it("SIZESCALE round trips and composes; DESIGNSTRESS at a size ratio and MATERIALSCALE agree with it; mean and median conversions invert", () => {
@@ -303,7 +361,7 @@ describe.runIf(has("FAILPROB", "DESIGNSTRESS", "SIZESCALE", "MATERIALSCALE", "ME
         call("CHARFROMMEAN", { kind: "literal", text: "BRITTLE.MEANSTRENGTH(" + m + ", " + x + ")" }, num(m)),
         call("CHARFROMMEDIAN", { kind: "literal", text: "BRITTLE.DESIGNSTRESS(0.5, " + m + ", " + x + ")" }, num(m)),
       ],
-      verify: ([a, back, via, direct, dr, d1, d1scaled, ms, s1, cm, cmed]) =>
+      verify: ([a, back, via, direct, dr, _d1, d1scaled, ms, s1, cm, cmed]) =>
         (isNum(top(a)) ? same(top(back), x, 1e-13, "round trip ") ?? same(top(via), top(direct), 1e-13, "composition ") : null) ??
         same(top(dr), top(d1scaled), 1e-13, "DESIGNSTRESS at a size ratio vs SIZESCALE ") ??
         same(top(ms), top(s1), 1e-14, "MATERIALSCALE vs SIZESCALE to unit size ") ??
@@ -311,10 +369,10 @@ describe.runIf(has("FAILPROB", "DESIGNSTRESS", "SIZESCALE", "MATERIALSCALE", "ME
         (isNum(top(cmed)) ? same(top(cmed), x, 1e-13, "CHARFROMMEDIAN(median) ") : null),
     }));
     // One check per build: later calls read earlier cells by address.
-    property(check, 1, 150, 2400);
+    property(check, 1, 30);
   });
 
-  it.runIf(has("LOTFAILURES"))("LOTFAILURES rises with the failure probability, the lot size and the confidence", () => {
+  it("LOTFAILURES rises with the failure probability, the lot size and the confidence", () => {
     const check = fc
       .record({ p1: logU(-9, -0.01), p2: logU(-9, -0.01), n1: fc.integer({ min: 1, max: 1e9 }), n2: fc.integer({ min: 1, max: 1e9 }), c1: fc.double({ min: 0.01, max: 0.999, noNaN: true }), c2: fc.double({ min: 0.01, max: 0.999, noNaN: true }) })
       .map(({ p1, p2, n1, n2, c1, c2 }): Check => {
@@ -338,10 +396,10 @@ describe.runIf(has("FAILPROB", "DESIGNSTRESS", "SIZESCALE", "MATERIALSCALE", "ME
             notAbove(top(e), top(ep), "expected count at a higher probability: "),
         };
       });
-    property(check, 25, 40, 1800);
+    property(check, 25, 8);
   });
 
-  it.runIf(has("MODULUSFROMCV"))("MODULUSFROMCV depends on the coefficient of variation only, and falls as it rises", () => {
+  it("MODULUSFROMCV depends on the coefficient of variation only, and falls as it rises", () => {
     const check = fc.record({ mean: logU(0, 4), cv1: logU(-2.5, 0), cv2: logU(-2.5, 0), k: factor }).map(({ mean, cv1, cv2, k }): Check => {
       const [lo, hi] = [Math.min(cv1, cv2), Math.max(cv1, cv2)];
       return {
@@ -350,10 +408,10 @@ describe.runIf(has("FAILPROB", "DESIGNSTRESS", "SIZESCALE", "MATERIALSCALE", "ME
         verify: ([a, ak, b]) => same(top(ak), top(a), 1e-10, "scaled mean and stdev ") ?? notAbove(top(b), top(a), "modulus at a larger CV: "),
       };
     });
-    property(check, 25, 40, 1800);
+    property(check, 25, 8);
   });
 
-  it.runIf(has("COMPETINGFAILPROB", "COMPETINGDESIGNSTRESS"))("two flaw populations: COMPETINGFAILPROB(COMPETINGDESIGNSTRESS(s)) = 1 - s, and never below either population alone", () => {
+  it("two flaw populations: COMPETINGFAILPROB(COMPETINGDESIGNSTRESS(s)) = 1 - s, and never below either population alone", () => {
     const check = fc.record({ s: survival, mA: modulus, cA: charStrength, mB: modulus, cB: charStrength, rA: sizeRatio, rB: sizeRatio }).map(({ s, mA, cA, mB, cB, rA, rB }): Check => ({
       what: `s = ${s}, A (${mA}, ${cA}, ${rA}), B (${mB}, ${cB}, ${rB})`,
       calls: [
@@ -363,14 +421,14 @@ describe.runIf(has("FAILPROB", "DESIGNSTRESS", "SIZESCALE", "MATERIALSCALE", "ME
       ],
       verify: ([d, p, pA]) => (isNum(top(d)) ? same(top(p), 1 - s, 1e-11, "failure probability ") ?? notAbove(top(pA), top(p), "population A alone: ") : null),
     }));
-    property(check, 1, 100, 1800);
+    property(check, 1, 20);
   });
 });
 
 // ---------------------------------------------------------------------------
 // Effective sizes
 
-describe.runIf(has("FLEXVOLUME", "FLEXAREA", "RODFLEXVOLUME", "RODFLEXAREA"))("flexure effective sizes", () => {
+describe("flexure effective sizes", () => {
   it("lengths x k: volumes x k^3, areas x k^2; a larger modulus gives a smaller effective size", () => {
     const check = fc
       .record({ m: modulus, m2: modulus, L: logU(0, 2), frac: fc.oneof(fc.constant(0), fc.double({ min: 0.05, max: 0.95, noNaN: true })), b: logU(-0.5, 1), d: logU(-0.5, 1), k: logU(-3, 3) })
@@ -399,11 +457,11 @@ describe.runIf(has("FLEXVOLUME", "FLEXAREA", "RODFLEXVOLUME", "RODFLEXAREA"))("f
             notAbove(top(vHi), top(vLo), "volume at a larger modulus: "),
         };
       });
-    property(check, 20, 40, 2400);
+    property(check, 20, 8);
   });
 });
 
-describe.runIf(has("RINGAREA", "RINGVOLUME", "PISTONAREA", "PISTONVOLUME"))("disk effective sizes", () => {
+describe("disk effective sizes", () => {
   it("lengths x k: areas x k^2, volumes x k^3, under every criterion", () => {
     const check = fc
       .record({
@@ -444,11 +502,11 @@ describe.runIf(has("RINGAREA", "RINGVOLUME", "PISTONAREA", "PISTONVOLUME"))("dis
           },
         };
       });
-    property(check, 10, 30, 3000);
+    property(check, 10, 6);
   });
 });
 
-describe.runIf(has("PARTEFFSIZE", "PARTFAILPROB", "RISKSHARE", "FAILPROB", "MATERIALSCALE"))("element tables", () => {
+describe("element tables", () => {
   const elements = fc.array(fc.record({ s: logU(0, 3), v: logU(-3, 1) }), { minLength: 1, maxLength: 25 });
   it("stresses x k: effective size unchanged; sizes x k: x k; uniform stress: the total size; an element split in two: no change", () => {
     const check = fc.record({ els: elements, m: modulus, k: factor, criterion: fc.constantFrom("PIA", "NSA", "MAXPRINCIPAL") }).map(({ els, m, k, criterion }): Check => {
@@ -473,7 +531,7 @@ describe.runIf(has("PARTEFFSIZE", "PARTFAILPROB", "RISKSHARE", "FAILPROB", "MATE
           same(top(esplit), top(e), 1e-12, "split element "),
       };
     });
-    property(check, 15, 40, 2400);
+    property(check, 15, 8);
   });
 
   it("PARTFAILPROB = FAILPROB at the part's effective size (PIA, one stress column); risk shares add up to 1; more stress, more risk", () => {
@@ -501,14 +559,14 @@ describe.runIf(has("PARTEFFSIZE", "PARTFAILPROB", "RISKSHARE", "FAILPROB", "MATE
       };
     });
     // One check per build: the FAILPROB formula names the first check's ranges (Data!A:B).
-    property(check, 1, 120, 2400);
+    property(check, 1, 24);
   });
 });
 
 // ---------------------------------------------------------------------------
 // Slow crack growth, lifetime and proof testing
 
-describe.runIf(has("LIFETIMESTRESS", "TIMETOFAILURE", "PROOFMINLIFE", "PROOFSTRESSFORLIFE", "PROOFBREAKS", "POSTPROOFFAILPROB", "LIFEDESIGNSTRESS"))("time under load", () => {
+describe("time under load", () => {
   const n = fc.double({ min: 5, max: 80, noNaN: true });
   it("TIMETOFAILURE inverts LIFETIMESTRESS; PROOFMINLIFE inverts PROOFSTRESSFORLIFE; PROOFBREAKS = FAILPROB", () => {
     const check = fc
@@ -528,7 +586,7 @@ describe.runIf(has("LIFETIMESTRESS", "TIMETOFAILURE", "PROOFMINLIFE", "PROOFSTRE
           (isNum(top(ps)) && isNum(top(ml)) ? same(top(ml), L, 1e-8, "minimum life at the proof stress for that life ") : null) ??
           same(top(pb), top(fp), 1e-15, "PROOFBREAKS vs FAILPROB "),
       }));
-    property(check, 1, 150, 2400);
+    property(check, 1, 30);
   });
 
   it("a proof-tested part fails no more often than an untested one, never at or below the proof stress; lifetime design stresses fall with time", () => {
@@ -553,10 +611,10 @@ describe.runIf(has("LIFETIMESTRESS", "TIMETOFAILURE", "PROOFMINLIFE", "PROOFSTRE
             notAbove(top(lLo), top(inert), "lifetime design stress vs the inert design stress: "),
         };
       });
-    property(check, 20, 40, 2400);
+    property(check, 20, 8);
   });
 
-  it.runIf(has("LOADHISTORYSTRESS", "SCGFIT", "SCGSTATICFIT"))("a constant load history is its own equivalent; load history and crack-growth fits follow a change of units", () => {
+  it("a constant load history is its own equivalent; load history and crack-growth fits follow a change of units", () => {
     const check = fc
       .record({ sigma: charStrength, durations: fc.array(logU(-1, 4), { minLength: 1, maxLength: 10 }), n, k: factor, rates: fc.array(logU(-3, 3), { minLength: 4, maxLength: 20 }).filter((r) => wellSpread(r, 1e-6)), noise: fc.array(fc.double({ min: -0.02, max: 0.02, noNaN: true }), { minLength: 20, maxLength: 20 }) })
       .map(({ sigma, durations, n, k, rates, noise }): Check => {
@@ -578,14 +636,15 @@ describe.runIf(has("LIFETIMESTRESS", "TIMETOFAILURE", "PROOFMINLIFE", "PROOFSTRE
           verify: ([constant, h, hk, f, fk, st, stk]) =>
             same(top(constant), sigma, 1e-13, "constant history ") ??
             same(top(hk), isNum(top(h)) ? (top(h) as number) * k : top(h), 1e-12, "history stresses scaled ") ??
-            same(fk[0][0], f[0][0], 1e-9, "SCGFIT n ") ??
-            same(fk[0][1], isNum(f[0][1]) ? f[0][1] * k : f[0][1], 1e-9, "SCGFIT D ") ??
-            same(stk[0][0], st[0][0], 1e-9, "SCGSTATICFIT n ") ??
-            (isNum(st[0][1]) && isNum(stk[0][1]) && Math.abs(stk[0][1] - st[0][1] - Math.log10(k)) > 1e-9 * Math.max(1, Math.abs(st[0][1]))
-              ? `SCGSTATICFIT log10 Ds ${stk[0][1]} vs ${st[0][1]} + log10 k`
+            // Labelled blocks: row 0 (label, n), row 1 (label, D or log10 Ds).
+            same(fk[0][1], f[0][1], 1e-9, "SCGFIT n ") ??
+            same(fk[1][1], isNum(f[1][1]) ? f[1][1] * k : f[1][1], 1e-9, "SCGFIT D ") ??
+            same(stk[0][1], st[0][1], 1e-9, "SCGSTATICFIT n ") ??
+            (isNum(st[1][1]) && isNum(stk[1][1]) && Math.abs(stk[1][1] - st[1][1] - Math.log10(k)) > 1e-9 * Math.max(1, Math.abs(st[1][1]))
+              ? `SCGSTATICFIT log10 Ds ${stk[1][1]} vs ${st[1][1]} + log10 k`
               : null),
         };
       });
-    property(check, 15, 30, 2400);
+    property(check, 15, 6);
   });
 });

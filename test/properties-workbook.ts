@@ -67,13 +67,14 @@ function spillArea(call: Call): { rows: number; cols: number } {
   const shape = spillShapes[call.id];
   if (!shape) return { rows: 1, cols: 1 };
   const { rows, cols } = shape;
-  if (typeof rows === "number") return { rows, cols };
+  const header = shape.headerRows ?? 0;
+  if (typeof rows === "number") return { rows: rows + header, cols };
   const k = "cellsOf" in rows ? rows.cellsOf : rows.rowsOf;
   const arg = call.args[k];
-  if (!arg || arg.kind !== "range") return { rows: 1, cols };
+  if (!arg || arg.kind !== "range") return { rows: 1 + header, cols };
   const height = arg.cells.length;
   const width = arg.cells[0]?.length ?? 1;
-  return { rows: "cellsOf" in rows ? height * width : height, cols };
+  return { rows: ("cellsOf" in rows ? height * width : height) + header, cols };
 }
 
 /** The formula text for a call whose range and cell arguments sit where `place` puts them. */
@@ -203,6 +204,9 @@ function inputErrors(call: Call): Set<string> {
   return codes;
 }
 
+/** What a #NUM! of ours may say: the result is beyond double precision, or a solve did not converge. */
+export const NUM_MESSAGE = /too (large|small) to represent|double precision|did not converge/;
+
 /** HyperFormula's own message when a function hands it NaN or Infinity: it shows #NUM! instead. */
 export const ENGINE_NON_FINITE = "NaN or infinite value encountered.";
 
@@ -233,6 +237,11 @@ export function safetyViolations(evaluated: Evaluated, metadata: FunctionMetadat
       if (/internal error/i.test(o.error.message)) problems.push(`an adapter threw: ${o.error.message}: ${where}`);
       if (o.error.message === ENGINE_NON_FINITE && !passedThrough && !hasInfiniteInput(o.call)) problems.push(`the function returned NaN or Infinity (the engine shows #NUM!): ${where}`);
       if (!passedThrough && o.error.code !== "#N/A" && !o.error.message.trim()) problems.push(`${o.error.code} without a message: ${where}`);
+      // The host drops #NUM!'s message, so the policy keeps #NUM! for results beyond double precision and
+      // solves that did not converge: nothing the user could correct in the inputs.
+      if (o.error.code === "#NUM!" && !passedThrough && o.error.message !== ENGINE_NON_FINITE && !NUM_MESSAGE.test(o.error.message)) {
+        problems.push(`#NUM! for something other than a result beyond double precision (${o.error.message}): ${where}`);
+      }
       continue;
     }
     const fn = byId.get(o.call.id)!;
@@ -259,8 +268,18 @@ export function hostViolations(result: CellResult | unknown, fn: FunctionMetadat
   } else if (Array.isArray(result)) {
     if (fn.result.dimensionality !== "matrix") problems.push("a scalar function returned an array");
     if (!result.every(Array.isArray)) problems.push("an array result is not a list of rows");
-    else if (!result.flat().every((v) => (v === null || ["number", "string", "boolean"].includes(typeof v)) && finite(v))) {
-      problems.push(`an array result holds NaN, Infinity or a non-cell value: ${JSON.stringify(result)}`);
+    else {
+      const cells = result.flat();
+      if (!cells.every((v) => isCellFailure(v) || ((v === null || ["number", "string", "boolean"].includes(typeof v)) && finite(v)))) {
+        problems.push(`an array result holds NaN, Infinity or a non-cell value: ${JSON.stringify(result)}`);
+      }
+      // An error in one cell of a spill (one specimen outside a formula's limits) follows the policy too.
+      for (const v of cells) {
+        if (!isCellFailure(v)) continue;
+        if (!POLICY_ERRORS.has(v.cellError)) problems.push(`error ${v.cellError} inside a spill is not a policy error`);
+        if (typeof v.message !== "string" || !v.message.trim()) problems.push(`${v.cellError} inside a spill without a message`);
+        if (/internal error/i.test(v.message)) problems.push(`an adapter threw inside a spill: ${v.message}`);
+      }
     }
   } else if (typeof result === "number") {
     if (!Number.isFinite(result)) problems.push(`returned ${result}`);

@@ -23,7 +23,7 @@
  * censoring values sit), so censored bounds are approximate; the bootstrap is
  * seeded by the data, so a recalculation never changes the result.
  */
-import { require, requireProbability } from "../errors";
+import { ensure, ensureConverged, ensurePositiveResult, ensureProbability } from "../errors";
 import { bootstrapCensored } from "./censored-bootstrap";
 import { fitMaximumLikelihood, type MaximumLikelihoodFit } from "./maximum-likelihood";
 import { pivotalTable } from "./pivotal-table";
@@ -87,14 +87,7 @@ const sortedDraws = new WeakMap<object, { q: Float64Array; t: Float64Array }>();
  */
 export function pivotalSource(sample: StrengthSample, fit?: MaximumLikelihoodFit): PivotalSource {
   const n = sample.strengths.length;
-  if (!isCensored(sample)) {
-    const table = pivotalTable();
-    return {
-      kind: "table",
-      shapeQuantile: (p) => table.shapeQuantile(n, p),
-      scaleQuantile: (p) => table.scaleQuantile(n, p),
-    };
-  }
+  if (!isCensored(sample)) return tablePivotalSource(n);
   const censored = sample.censored ?? [];
   const draws = bootstrapCensored({
     strengths: sample.strengths,
@@ -109,7 +102,7 @@ export function pivotalSource(sample: StrengthSample, fit?: MaximumLikelihoodFit
   }
   const { q, t } = sorted;
   const inTail = (p: number) => {
-    require(
+    ensure(
       Math.min(p, 1 - p) * q.length >= MIN_TAIL_DRAWS,
       `the bootstrap of this censored sample has ${q.length} draws, too few beyond the ${p} quantile for a bound at this confidence: lower the confidence`,
     );
@@ -124,18 +117,52 @@ export function pivotalSource(sample: StrengthSample, fit?: MaximumLikelihoodFit
   };
 }
 
+/** The q and t quantiles of a complete sample of n specimens, from the seeded table. */
+export function tablePivotalSource(n: number): PivotalSource {
+  const table = pivotalTable();
+  return {
+    kind: "table",
+    shapeQuantile: (p) => table.shapeQuantile(n, p),
+    scaleQuantile: (p) => table.scaleQuantile(n, p),
+  };
+}
+
+/**
+ * The bounds themselves, from raw ML estimates and the pivotal quantiles:
+ * the one piece of arithmetic shared by bounds from data and bounds from
+ * datasheet values, so both give the same numbers for the same estimates.
+ */
+export function boundsFromPivots(
+  fit: { shape: number; scale: number },
+  source: PivotalSource,
+  confidence: number,
+  sides: BoundSides,
+): { shape: Interval; scale: Interval } {
+  const { forLower, forUpper } = tailProbabilities(confidence, sides);
+  const m = fit.shape;
+  const shape = { lower: m / source.shapeQuantile(forLower), upper: m / source.shapeQuantile(forUpper) };
+  const scale = {
+    lower: fit.scale * Math.exp(-source.scaleQuantile(forLower) / m),
+    upper: fit.scale * Math.exp(-source.scaleQuantile(forUpper) / m),
+  };
+  for (const v of [shape.lower, shape.upper, scale.lower, scale.upper]) {
+    ensurePositiveResult(v, "confidence bound");
+  }
+  return { shape, scale };
+}
+
 /**
  * Probabilities of the pivotal quantiles a bound at `confidence` uses: the
  * lower bound takes the quantile at `forLower`, the upper at `forUpper`.
  */
 export function tailProbabilities(confidence: number, sides: BoundSides): { forLower: number; forUpper: number } {
-  requireProbability(confidence, "confidence");
-  require(sides === 1 || sides === 2, `sides must be 1 or 2 (got ${sides})`);
+  ensureProbability(confidence, "confidence");
+  ensure(sides === 1 || sides === 2, `sides must be 1 or 2 (got ${sides})`);
   const a = sides === 2 ? (1 - confidence) / 2 : 1 - confidence;
   const { lowest, highest } = PIVOTAL_PROBABILITIES;
   // 1e-12 absorbs the rounding of (1 - C)/2 at the table's end points.
   const inside = (p: number) => p >= lowest - 1e-12 && p <= highest + 1e-12;
-  require(
+  ensure(
     inside(a) && inside(1 - a),
     sides === 2
       ? `a two-sided bound needs a confidence of at most 0.99 (got ${confidence}): the pivotal quantiles are simulated from probability ${lowest} to ${highest}`
@@ -156,19 +183,11 @@ export function parameterBounds({
   confidence = 0.9,
   sides = 2,
 }: StrengthSample & { confidence?: number; sides?: BoundSides }): ParameterBounds {
-  const { forLower, forUpper } = tailProbabilities(confidence, sides);
+  tailProbabilities(confidence, sides); // refuse a bad confidence before any fitting or simulation
   const sample = { strengths, censored };
   const fit = fitMaximumLikelihood(sample);
-  require(fit.converged, "the maximum-likelihood fit did not converge");
+  ensureConverged(fit.converged, "the maximum-likelihood fit did not converge");
   const source = pivotalSource(sample, fit);
-  const m = fit.shape;
-  const shape = { lower: m / source.shapeQuantile(forLower), upper: m / source.shapeQuantile(forUpper) };
-  const scale = {
-    lower: fit.scale * Math.exp(-source.scaleQuantile(forLower) / m),
-    upper: fit.scale * Math.exp(-source.scaleQuantile(forUpper) / m),
-  };
-  for (const v of [shape.lower, shape.upper, scale.lower, scale.upper]) {
-    require(Number.isFinite(v) && v > 0, "a confidence bound is outside the range of double-precision numbers");
-  }
+  const { shape, scale } = boundsFromPivots(fit, source, confidence, sides);
   return { fit, shape, scale, confidence, sides, source };
 }

@@ -44,7 +44,7 @@ export function estimateWeibull(
     return { ...pick(fit), method, converged: true, unbiasingFactor: 1, rawShape: fit.shape };
   }
   if (method !== "MLE" && method !== "MLE-RAW") {
-    throw new InputError("value", `unknown method "${method as string}": use "MLE", "MLE-RAW" or "LSQ"`);
+    throw new InputError("input", `unknown method "${method as string}": use "MLE", "MLE-RAW" or "LSQ"`);
   }
   const fit = fitMaximumLikelihood(sample);
   let factor = 1;
@@ -68,4 +68,20 @@ export function estimateWeibull(
 
 function pick(fit: WeibullParameters & { specimens: number; failures: number }) {
   return { shape: fit.shape, scale: fit.scale, specimens: fit.specimens, failures: fit.failures };
+}
+
+/**
+ * The characteristic strength by `method`. The unbiasing factor applies to
+ * the modulus only, so "MLE" gives the ML characteristic strength, which
+ * exists from two failures on (where the unbiased modulus does not).
+ *
+ * @example
+ * estimateCharacteristicStrength({ strengths: [300, 350] }) // the ML value, about 336.6
+ */
+export function estimateCharacteristicStrength(
+  sample: StrengthSample,
+  method: EstimationMethod = "MLE",
+  estimator: PlottingEstimator = "HAZEN",
+): number {
+  return estimateWeibull(sample, method === "MLE" ? "MLE-RAW" : method, estimator).scale;
 }
