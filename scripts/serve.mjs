@@ -102,7 +102,7 @@ export async function ensureCertificates(dir) {
 }
 
 export function parsePort(text) {
-  const port = Number(text ?? 3000);
+  const port = Number(text);
   if (!Number.isInteger(port) || port < 0 || port > 65535) throw new Error(`PORT must be a whole number from 0 to 65535 (got ${text})`);
   return port;
 }
@@ -115,7 +115,7 @@ async function run() {
   }
   let port;
   try {
-    port = parsePort(process.env.PORT);
+    port = parsePort(process.env.PORT ?? 3000);
   } catch (error) {
     console.error(`serve: ${error.message}`);
     process.exit(1);
