@@ -15,6 +15,11 @@ import type { DesignCheckInput } from "./app/inputs";
 import { renderCautions } from "./app/render-cautions";
 import { renderIncomplete, renderLegend, renderResult } from "./app/render-result";
 import { resultRows, type ResultRow } from "./app/result-table";
+import { explainTypedFormula } from "./explain/explain-call";
+import { FormulaError, parseFormula } from "./explain/formula-parse";
+import { explainSelectedCell } from "./explain/host-explain";
+import { loadMetadata } from "./explain/load-metadata";
+import { renderExplainProblem, renderExplanation } from "./explain/render-explain";
 import { designCheckCsv } from "./export/csv";
 import { downloadText } from "./export/download";
 import { printReport } from "./export/print";
@@ -149,6 +154,37 @@ function wireForm(): void {
   });
   renderCautions(generalCautions());
   update();
+  wireExplainTyped();
+}
+
+function wireExplainTyped(): void {
+  const output = byId("explain-output");
+  const run = async () => {
+    const text = byId<HTMLInputElement>("explain-formula").value;
+    try {
+      renderExplanation(output, explainTypedFormula(parseFormula(text.trim().startsWith("=") ? text : `=${text}`), await loadMetadata()));
+    } catch (error) {
+      renderExplainProblem(output, error instanceof FormulaError ? error.message : `Could not explain: ${String(error)}`);
+    }
+  };
+  byId("explain-typed").addEventListener("click", () => void run());
+  byId("explain-formula").addEventListener("keydown", (event) => {
+    if (event.key === "Enter") void run();
+  });
+}
+
+function wireExplainSelected(): void {
+  const button = byId<HTMLButtonElement>("explain-selected");
+  button.hidden = false;
+  button.addEventListener("click", async () => {
+    const output = byId("explain-output");
+    try {
+      const metadata = await loadMetadata();
+      renderExplanation(output, await Excel.run((context) => explainSelectedCell(context, metadata)));
+    } catch (error) {
+      renderExplainProblem(output, error instanceof FormulaError ? error.message : `Could not explain the selected cell: ${error instanceof Error ? error.message : String(error)}`);
+    }
+  });
 }
 
 function wireHost(): void {
@@ -201,6 +237,7 @@ if (typeof Office !== "undefined") {
   Office.onReady((hostInfo) => {
     if (hostInfo.host === Office.HostType.Excel) {
       wireHost();
+      wireExplainSelected();
       show("Ready in the spreadsheet: BRITTLE functions are registered.");
     } else {
       show("Standalone: paste data, then export the check as CSV or print it.");
