@@ -32,7 +32,13 @@ const ERROR_TYPES = { "#VALUE!": ErrorType.VALUE, "#NUM!": ErrorType.NUM, "#N/A"
 function toEngineValue(result: CellResult): unknown {
   if (isCellFailure(result)) return new CellError(ERROR_TYPES[result.cellError], result.message);
   if (Array.isArray(result)) {
-    return SimpleRangeValue.onlyValues(result.map((row) => row.map((v) => (v === null || v === undefined ? EmptyValue : v))) as never);
+    return SimpleRangeValue.onlyValues(
+      result.map((row) =>
+        row.map((v) =>
+          v === null || v === undefined ? EmptyValue : isCellFailure(v) ? new CellError(ERROR_TYPES[v.cellError], v.message) : v,
+        ),
+      ) as never,
+    );
   }
   return result;
 }

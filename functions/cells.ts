@@ -257,7 +257,10 @@ export function toFailure(error: unknown): CellFailure {
   return { cellError: "#VALUE!", message: `internal error: ${text}` };
 }
 
-export type CellResult = number | string | boolean | CellValue[][] | CellFailure;
+/** One cell of a spilled result: a value, or an error in that cell alone (e.g. one specimen outside a formula's limits). */
+export type SpillCell = CellValue | CellFailure;
+
+export type CellResult = number | string | boolean | SpillCell[][] | CellFailure;
 
 /** Check a result before it reaches a cell: no NaN, no Infinity, anywhere in a spill. */
 export function checkResult(result: unknown): CellResult {
@@ -273,7 +276,7 @@ export function checkResult(result: unknown): CellResult {
         }
       }
     }
-    return result as CellValue[][];
+    return result as SpillCell[][];
   }
   if (isCellFailure(result)) return result;
   return { cellError: "#VALUE!", message: "internal error: the function produced no value" };
@@ -288,4 +291,47 @@ export function guard<A extends unknown[]>(adapter: (...args: A) => unknown): (.
       return toFailure(error);
     }
   };
+}
+
+/**
+ * An argument given either as one value for every row or as a column with one
+ * value per row (loads, dimensions of each specimen). Cells are returned as they
+ * are, for the adapter to read row by row, so that a bad cell fails its own row
+ * of a spilled result and not the others.
+ */
+export interface PerRowArgument {
+  readonly name: string;
+  /** One entry per row; a single entry when one value serves every row. */
+  readonly cells: readonly CellValue[];
+}
+
+export function readPerRow(value: unknown, name: string): PerRowArgument {
+  const range = asRange(value, name);
+  if (range.length > 1 && range[0].length > 1) throw new CellError("#VALUE!", `${name} must be one value or one column`);
+  // A single row of several cells is taken as a column typed across.
+  const cells = range.length === 1 ? range[0] : range.map((row) => row[0]);
+  return { name, cells };
+}
+
+/** The rows a set of per-row arguments describes: the length of their columns, which must agree. */
+export function perRowCount(args: readonly PerRowArgument[]): number {
+  let rows = 1;
+  for (const a of args) {
+    if (a.cells.length === 1) continue;
+    if (rows !== 1 && a.cells.length !== rows) {
+      const first = args.find((b) => b.cells.length === rows)!;
+      throw new CellError("#VALUE!", `${a.name} has ${a.cells.length} rows but ${first.name} has ${rows}: give one value or a column of the same length`);
+    }
+    rows = a.cells.length;
+  }
+  return rows;
+}
+
+/** The number an argument holds for a row; blank is null (no specimen in that row). */
+export function perRowNumber(arg: PerRowArgument, row: number): number | null {
+  const v = arg.cells.length === 1 ? arg.cells[0] : arg.cells[row];
+  if (v === null || v === undefined || (typeof v === "string" && v.trim() === "")) return null;
+  if (typeof v !== "number") throw new CellError("#VALUE!", `${arg.name}, row ${row + 1} is not a number`);
+  if (!Number.isFinite(v)) throw new CellError("#VALUE!", `${arg.name}, row ${row + 1} is not a finite number`);
+  return v;
 }

@@ -5,6 +5,7 @@
  * Hosts register `guarded`, never the raw adapters.
  */
 import { guard, type CellResult } from "./cells";
+import * as loadStrength from "./load-strength";
 import * as size from "./size";
 import * as strength from "./strength";
 import * as time from "./time";
@@ -13,6 +14,7 @@ import * as uncertainty from "./uncertainty";
 type Adapter = (...args: any[]) => unknown;
 
 export const families: { title: string; adapters: Record<string, Adapter> }[] = [
+  { title: "Strength from breaking load and specimen dimensions", adapters: loadStrength },
   { title: "Fitting strength data and designing with the fit", adapters: strength },
   { title: "Confidence bounds, fit quality, flaw populations and lot checks", adapters: uncertainty },
   { title: "Effective volume and area: specimens, fixtures and parts", adapters: size },

@@ -211,7 +211,11 @@ export function baselineCall(fn: FunctionMetadata): fc.Arbitrary<Call> | null {
         if (p.optional) return fc.constant<Arg>({ kind: "omit" });
         return scalarArg({ ...p, optional: false });
       }
-      if (isRangeText(text) || kind === "numberRange" || kind === "flagRange" || kind === "labelRange") {
+      // A range parameter documented with a plain number (one value for every row, as the
+      // load-to-strength functions take dimensions) keeps that number: random data there would
+      // not be a valid specimen.
+      const numberTyped = /^-?\d+(\.\d+)?(e-?\d+)?$/i.test(text.trim());
+      if (isRangeText(text) || (!numberTyped && (kind === "numberRange" || kind === "flagRange" || kind === "labelRange"))) {
         return widthFor(p, shape)
           .chain((s) => (kind === "flagRange" ? flagRange(s) : kind === "labelRange" ? labelRange(s, labelsOf(p), false) : numberRange(s, { blanks: false, wild: false })))
           .map((cells): Arg => ({ kind: "range", cells }));

@@ -259,8 +259,18 @@ export function hostViolations(result: CellResult | unknown, fn: FunctionMetadat
   } else if (Array.isArray(result)) {
     if (fn.result.dimensionality !== "matrix") problems.push("a scalar function returned an array");
     if (!result.every(Array.isArray)) problems.push("an array result is not a list of rows");
-    else if (!result.flat().every((v) => (v === null || ["number", "string", "boolean"].includes(typeof v)) && finite(v))) {
-      problems.push(`an array result holds NaN, Infinity or a non-cell value: ${JSON.stringify(result)}`);
+    else {
+      const cells = result.flat();
+      if (!cells.every((v) => isCellFailure(v) || ((v === null || ["number", "string", "boolean"].includes(typeof v)) && finite(v)))) {
+        problems.push(`an array result holds NaN, Infinity or a non-cell value: ${JSON.stringify(result)}`);
+      }
+      // An error in one cell of a spill (one specimen outside a formula's limits) follows the policy too.
+      for (const v of cells) {
+        if (!isCellFailure(v)) continue;
+        if (!POLICY_ERRORS.has(v.cellError)) problems.push(`error ${v.cellError} inside a spill is not a policy error`);
+        if (typeof v.message !== "string" || !v.message.trim()) problems.push(`${v.cellError} inside a spill without a message`);
+        if (/internal error/i.test(v.message)) problems.push(`an adapter threw inside a spill: ${v.message}`);
+      }
     }
   } else if (typeof result === "number") {
     if (!Number.isFinite(result)) problems.push(`returned ${result}`);
