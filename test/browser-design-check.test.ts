@@ -26,6 +26,8 @@ import { expectedFailures, failuresUpperBound } from "../src/design/lot-failures
 import { specimenEffectiveSize } from "../src/size/presets";
 import { partEffectiveSize } from "../src/size/part";
 import { relativeError } from "./helpers";
+import { generateMetadata } from "../functions/metadata";
+import { writeFile } from "node:fs/promises";
 
 const ROOT = resolve(import.meta.dirname, "..");
 const ARTIFACTS = join(ROOT, "test-artifacts");
@@ -55,6 +57,8 @@ beforeAll(async () => {
   await mkdir(ARTIFACTS, { recursive: true });
   await build({ configFile: join(ROOT, "vite.config.ts"), logLevel: "silent", build: { outDir, emptyOutDir: true } });
   await cp(join(ROOT, "node_modules/@microsoft/office-js/dist"), join(outDir, "office-js"), { recursive: true });
+  // The build writes functions.json next to the pane (scripts/build.mjs); the explanation reads it.
+  await writeFile(join(outDir, "functions.json"), (await generateMetadata()).json);
 
   server = createServer((req, res) => {
     const path = decodeURIComponent(new URL(req.url ?? "/", "http://127.0.0.1").pathname);
@@ -420,6 +424,51 @@ describe("design-check form in headless Chromium, standalone", () => {
       // WCAG 2.1 success criterion 1.4.3: at least 4.5:1 for normal text.
       expect((a + 0.05) / (b + 0.05), sel).toBeGreaterThanOrEqual(4.5);
     }
+    await page.close();
+  });
+});
+
+describe("explaining a BRITTLE formula in the pane", () => {
+  it("shows the full message behind an error, and what a fit read", async () => {
+    const { page, problems } = await open();
+    expect(await page.isHidden("#explain-selected")).toBe(true);
+    await page.fill("#explain-formula", "=BRITTLE.DESIGNSTRESS(1.5, 10, 400)");
+    await page.click("#explain-typed");
+    await page.waitForSelector("#explain-result");
+    // The host would show a bare code for some errors; here the message is in full (domain: survival in (0, 1), common practice).
+    const error = (await page.textContent("#explain-result")) ?? "";
+    expect(error).toMatch(/^#(VALUE!|NUM!) .*survival.*between 0 and 1/);
+    expect(await page.textContent('dd[data-argument="sizeRatio"]')).toMatch(/omitted: the default applies/);
+
+    // Invented strengths as an array constant: a zero is skipped, one specimen is flagged censored (counted by hand).
+    await page.fill("#explain-formula", '=BRITTLE.CHARSTRENGTH({412.5;0;398.1;455},{FALSE;FALSE;TRUE;FALSE},"MLE-RAW")');
+    await page.click("#explain-typed");
+    await page.waitForFunction(() => document.querySelector("#explain-result")?.getAttribute("data-value"));
+    const counts = page.locator('dd[data-argument="strengths"] .explain-counts');
+    expect(await counts.getAttribute("data-specimens")).toBe("3");
+    expect(await counts.getAttribute("data-censored")).toBe("1");
+    expect(await counts.getAttribute("data-blanks")).toBe("1");
+    expect(await counts.textContent()).toBe("3 specimens read (2 failures and 1 censored); 1 blank or zero cell skipped, of 4");
+    // Reference: the 2-failure, 1-censored ML scale solved by the core; checked against the fitting core the cell uses.
+    const fit = estimateWeibull({ strengths: [412.5, 398.1, 455], censored: [false, true, false] }, "MLE-RAW");
+    expect(relativeError(Number(await page.getAttribute("#explain-result", "data-value")), fit.scale)).toBeLessThan(1e-14);
+
+    // A reference cannot be read without the spreadsheet: say what to type instead; pasted markup stays text.
+    await page.fill("#explain-formula", "=BRITTLE.MODULUS(A1:A10, <b>x</b>)");
+    await page.click("#explain-typed");
+    await page.waitForFunction(() => /Not re-evaluated/.test(document.querySelector("#explain-result")?.textContent ?? ""));
+    expect(await page.textContent("#explain-result")).toMatch(/array constant such as \{412,398,455\}/);
+    expect(await page.locator("#explain-output b").count()).toBe(0);
+    await page.fill("#explain-formula", "=SUM(A1:A3)");
+    await page.click("#explain-typed");
+    await page.waitForSelector(".explain-problem");
+    expect(await page.textContent(".explain-problem")).toBe("The selected cell's formula has no BRITTLE function.");
+
+    await page.fill("#explain-formula", '=BRITTLE.FIT({412.5;398.1;455;430.2;377.9;441.7;405.3;468.4;421;389.6},,0.9)');
+    await page.click("#explain-typed");
+    await page.waitForSelector("table.explain-table");
+    await page.locator("#step-explain").screenshot({ path: join(ARTIFACTS, "browser-explain-formula.png") });
+    expect(problems).toEqual([]);
     await page.close();
   });
 });

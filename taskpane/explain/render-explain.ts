@@ -38,7 +38,7 @@ function callParts(call: CallExplanation, idPrefix: string): HTMLElement[] {
       call.arguments.flatMap((a) => [
         el("dt", { text: `${a.position}. ${a.parameter}` }),
         el("dd", { attrs: { "data-argument": a.parameter } }, [
-          el("span", { className: "explain-read", text: a.written ? `${a.written}: ${a.read}` : a.read }),
+          el("span", { className: "explain-read", text: !a.written || a.written === a.read ? a.read : `${a.written}: ${a.read}` }),
           ...countLine(a),
           ...(a.nested ? [el("div", { className: "explain-nested" }, callParts(a.nested, `${idPrefix}-${a.position}`))] : []),
         ]),
