@@ -3,20 +3,39 @@
  * Every adapter reads its arguments through these readers, and every adapter
  * a host sees is wrapped by `guard`, so:
  *
+ * - The spreadsheet host shows a custom message only with #VALUE! and #N/A,
+ *   so every error a user can act on uses one of those two:
+ *   - a bad input (wrong type, outside the domain, too few specimens,
+ *     mismatched ranges, a negative value) -> #VALUE! with its message;
+ *   - a result that does not apply to these inputs (the fit quality of a
+ *     censored sample, the effective size of a part with no tensile stress)
+ *     -> #N/A with its message;
+ *   - #NUM! only for a result beyond double precision (an overflow, or a
+ *     nonzero result that underflows) and for a solve that did not converge:
+ *     there is nothing to change in the inputs, and the pane's "explain the
+ *     selected cell" shows the message the host drops.
  * - In a range of values, empty cells, empty strings and zeros are "no
  *   specimen" (desktop hosts pass empty cells as 0, web hosts as null);
- *   text or TRUE/FALSE -> #VALUE! naming the position; a negative -> #NUM!.
+ *   text or TRUE/FALSE -> #VALUE! naming the position.
  * - A second range that pairs with the first (censoring flags, element
  *   sizes) must have the same rows and columns, else #VALUE!.
- * - A scalar outside its domain -> #NUM! with a message; only #VALUE! and
- *   #N/A messages reach the user in every host, so use #VALUE! where the
- *   message matters most.
  * - Nothing throws out of a guarded adapter, and a number going back to a
- *   cell is never NaN or Infinity.
+ *   cell is never NaN or Infinity; no message prints them either.
+ *
+ * The core throws `InputError` with a kind; `CODE_OF_KIND` is the only place
+ * that turns a kind into a cell code.
  */
-import { InputError } from "../src/errors";
+import { InputError, type FailureKind } from "../src/errors";
 
 export type ErrorCode = "#VALUE!" | "#NUM!" | "#N/A";
+
+/** The cell code for each kind of failure the core reports. */
+export const CODE_OF_KIND: Record<FailureKind, ErrorCode> = {
+  input: "#VALUE!",
+  notApplicable: "#N/A",
+  notRepresentable: "#NUM!",
+  notConverged: "#NUM!",
+};
 
 export class CellError extends Error {
   readonly code: ErrorCode;
@@ -87,8 +106,8 @@ export function readPositiveNumbers(value: unknown, name: string): RangeNumbers 
         continue;
       }
       if (typeof v !== "number") throw new CellError("#VALUE!", `${describePosition(name, r, c, cols)} is not a number`);
-      if (!Number.isFinite(v)) throw new CellError("#NUM!", `${describePosition(name, r, c, cols)} is not a finite number`);
-      if (v < 0) throw new CellError("#NUM!", `${describePosition(name, r, c, cols)} is negative`);
+      if (!Number.isFinite(v)) throw new CellError("#VALUE!", `${describePosition(name, r, c, cols)} is too large to represent`);
+      if (v < 0) throw new CellError("#VALUE!", `${describePosition(name, r, c, cols)} is negative`);
       values.push(v);
       indices.push(r * cols + c);
     }
@@ -148,7 +167,7 @@ export function readLabels(value: unknown, name: string, like: RangeNumbers, lik
 /**
  * Two ranges of the same shape read as pairs (stress rates with strengths,
  * stresses with durations): a position blank or zero on both sides is no
- * pair; blank on one side only is #NUM!, except a blank first value where
+ * pair; blank on one side only is #VALUE!, except a blank first value where
  * `firstMayBeZero` (e.g. an unloaded block in a load history).
  */
 export function readPairs(
@@ -170,9 +189,9 @@ export function readPairs(
     const c = index % a.cols;
     const va = byIndexA.get(index);
     const vb = byIndexB.get(index);
-    if (vb === undefined) throw new CellError("#NUM!", `${describePosition(secondName, r, c, a.cols)} is blank or zero beside a value in ${firstName}`);
+    if (vb === undefined) throw new CellError("#VALUE!", `${describePosition(secondName, r, c, a.cols)} is blank or zero beside a value in ${firstName}`);
     if (va === undefined && !firstMayBeZero) {
-      throw new CellError("#NUM!", `${describePosition(firstName, r, c, a.cols)} is blank or zero beside a value in ${secondName}`);
+      throw new CellError("#VALUE!", `${describePosition(firstName, r, c, a.cols)} is blank or zero beside a value in ${secondName}`);
     }
     x.push(va ?? 0);
     y.push(vb);
@@ -189,7 +208,7 @@ export interface CellSample {
 export function readSample(strengths: unknown, censored: unknown): CellSample {
   const numbers = readPositiveNumbers(strengths, "strengths");
   if (numbers.values.length < 2) {
-    throw new CellError("#NUM!", `strengths: a fit needs at least two specimens (found ${numbers.values.length})`);
+    throw new CellError("#VALUE!", `strengths: a fit needs at least two specimens (found ${numbers.values.length})`);
   }
   if (censored === null || censored === undefined) return { strengths: numbers.values };
   return { strengths: numbers.values, censored: readFlags(censored, "censored", numbers, "strengths") };
@@ -227,7 +246,7 @@ export function readSampleCounts(strengths: unknown, censored: unknown): SampleC
 /** A required number; hosts coerce typed parameters, so only blanks and odd types arrive here. */
 export function readNumber(value: unknown, name: string): number {
   if (typeof value === "number") {
-    if (!Number.isFinite(value)) throw new CellError("#NUM!", `${name} is not a finite number`);
+    if (!Number.isFinite(value)) throw new CellError("#VALUE!", `${name} is too large to represent`);
     return value;
   }
   if (value === null || value === undefined || value === "") throw new CellError("#VALUE!", `${name} is required`);
@@ -252,7 +271,7 @@ export function readChoice<T extends string>(value: unknown, name: string, allow
 /** Turn any error into a CellFailure; nothing escapes to the host. */
 export function toFailure(error: unknown): CellFailure {
   if (error instanceof CellError) return { cellError: error.code, message: error.message };
-  if (error instanceof InputError) return { cellError: error.kind === "num" ? "#NUM!" : "#VALUE!", message: error.message };
+  if (error instanceof InputError) return { cellError: CODE_OF_KIND[error.kind], message: error.message };
   const text = error instanceof Error ? error.message : String(error);
   return { cellError: "#VALUE!", message: `internal error: ${text}` };
 }
@@ -265,14 +284,14 @@ export type CellResult = number | string | boolean | SpillCell[][] | CellFailure
 /** Check a result before it reaches a cell: no NaN, no Infinity, anywhere in a spill. */
 export function checkResult(result: unknown): CellResult {
   if (typeof result === "number") {
-    return Number.isFinite(result) ? result : { cellError: "#NUM!", message: "the result is outside the range of double-precision numbers" };
+    return Number.isFinite(result) ? result : { cellError: "#NUM!", message: "the result is too large to represent in double precision" };
   }
   if (typeof result === "string" || typeof result === "boolean") return result;
   if (Array.isArray(result)) {
     for (const row of result) {
       for (const v of row as unknown[]) {
         if (typeof v === "number" && !Number.isFinite(v)) {
-          return { cellError: "#NUM!", message: "a result is outside the range of double-precision numbers" };
+          return { cellError: "#NUM!", message: "a result is too large to represent in double precision" };
         }
       }
     }

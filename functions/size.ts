@@ -8,7 +8,7 @@
  * stresses may be negative (compression). A row whose stress and size cells
  * are all blank or zero is skipped; a blank stress cell beside a size counts
  * as 0 (desktop hosts pass empty cells as 0, so the web must agree); a blank
- * or zero size beside stresses is #NUM! (a missing size would hide risk).
+ * or zero size beside stresses is #VALUE! (a missing size would hide risk).
  *
  * Only adapters are exported: the registry registers every export.
  */
@@ -75,18 +75,18 @@ function readElementTable(stressCells: unknown, sizeCells: unknown): CellTable {
       }
       const where = cols > 1 ? `stresses, row ${r + 1} column ${c + 1}` : `stresses, row ${r + 1}`;
       if (typeof v !== "number") throw new CellError("#VALUE!", `${where} is not a number`);
-      if (!Number.isFinite(v)) throw new CellError("#NUM!", `${where} is not a finite number`);
+      if (!Number.isFinite(v)) throw new CellError("#VALUE!", `${where} is too large to represent`);
       values.push(v);
     }
     // A blank or zero size beside stresses is a missing element size, not a zero one.
-    if (isBlank(size)) throw new CellError("#NUM!", `sizes, row ${r + 1} is blank or zero beside stresses`);
+    if (isBlank(size)) throw new CellError("#VALUE!", `sizes, row ${r + 1} is blank or zero beside stresses`);
     if (typeof size !== "number") throw new CellError("#VALUE!", `sizes, row ${r + 1} is not a number`);
-    if (!Number.isFinite(size)) throw new CellError("#NUM!", `sizes, row ${r + 1} is not a finite number`);
-    if (size < 0) throw new CellError("#NUM!", `sizes, row ${r + 1} is negative`);
+    if (!Number.isFinite(size)) throw new CellError("#VALUE!", `sizes, row ${r + 1} is too large to represent`);
+    if (size < 0) throw new CellError("#VALUE!", `sizes, row ${r + 1} is negative`);
     sizeValues.push(size);
     kept.push(r);
   }
-  if (kept.length === 0) throw new CellError("#NUM!", "the element table is empty");
+  if (kept.length === 0) throw new CellError("#VALUE!", "the element table is empty");
   return {
     stresses: Float64Array.from(values),
     columns: cols as StressColumns,

@@ -248,7 +248,7 @@ export function LIFEDESIGNSTRESS(
  */
 export function LOADHISTORYSTRESS(stresses: any[][], durations: any[][], n: number, duration?: number): number {
   const { x, y } = readPairs(stresses, "stresses", durations, "durations", true);
-  if (x.length === 0) throw new CellError("#NUM!", "the load history is empty");
+  if (x.length === 0) throw new CellError("#VALUE!", "the load history is empty");
   const reference = duration === null || duration === undefined || (duration as unknown) === "" ? undefined : readNumber(duration, "duration");
   return loadHistoryStress({ stresses: x, durations: y, n: readNumber(n, "n"), referenceDuration: reference }).stress;
 }

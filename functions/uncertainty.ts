@@ -43,7 +43,7 @@ declareSpills({
 
 function readSides(value: unknown): BoundSides {
   const sides = readOptionalNumber(value, "sides", 2);
-  if (sides !== 1 && sides !== 2) throw new CellError("#NUM!", `sides must be 1 (one-sided bounds) or 2 (two-sided) (got ${sides})`);
+  if (sides !== 1 && sides !== 2) throw new CellError("#VALUE!", `sides must be 1 (one-sided bounds) or 2 (two-sided) (got ${sides})`);
   return sides;
 }
 
@@ -129,7 +129,7 @@ export function FIT(strengths: any[][], censored?: any[][], confidence?: number,
 export function ORIGINFIT(strengths: any[][], origins: any[][], origin: string, confidence?: number, method?: string): any[][] {
   const numbers = readPositiveNumbers(strengths, "strengths");
   if (numbers.values.length < 2) {
-    throw new CellError("#NUM!", `strengths: a fit needs at least two specimens (found ${numbers.values.length})`);
+    throw new CellError("#VALUE!", `strengths: a fit needs at least two specimens (found ${numbers.values.length})`);
   }
   const labels = readLabels(origins, "origins", numbers, "strengths");
   if (typeof origin !== "string" && typeof origin !== "number") throw new CellError("#VALUE!", "origin must be a label (text)");
@@ -336,7 +336,7 @@ export function LOTCHECK(lotStrengths: any[][], baselineStrengths: any[][], conf
   const lot = readPositiveNumbers(lotStrengths, "lotStrengths").values;
   const baseline = readPositiveNumbers(baselineStrengths, "baselineStrengths").values;
   for (const [name, values] of [["lotStrengths", lot], ["baselineStrengths", baseline]] as const) {
-    if (values.length < 2) throw new CellError("#NUM!", `${name}: the check needs at least two specimens (found ${values.length})`);
+    if (values.length < 2) throw new CellError("#VALUE!", `${name}: the check needs at least two specimens (found ${values.length})`);
   }
   const result = compareLots({ lot, baseline, confidence: readOptionalNumber(confidence, "confidence", 0.95) });
   return [[result.statistic, result.pValue, result.verdict]];

@@ -61,11 +61,11 @@ describe("embedded engine", () => {
     expect(typeof v[3]).toBe("number");
     expect(v[4]).toBe(v[0]);
     expect(typeof v[5]).toBe("number"); // an all-blank censoring column means no censoring
-    expect(v[6]).toBe("#NUM!");
+    expect(v[6]).toBe("#VALUE!");
     expect(v[7]).toBe("#VALUE!");
-    expect(v[8]).toBe("#NUM!");
+    expect(v[8]).toBe("#VALUE!");
     expect(v[9]).toBe("#VALUE!"); // mismatched ranges
-    expect(v[10]).toBe("#NUM!"); // an empty range has no specimens
+    expect(v[10]).toBe("#VALUE!"); // an empty range has no specimens
     expect(formulas[9].message).toMatch(/same rows and columns/);
   });
 

@@ -1,6 +1,6 @@
 import { readFileSync } from "node:fs";
 import { expect } from "vitest";
-import { InputError } from "../src/errors";
+import { InputError, type FailureKind } from "../src/errors";
 import { join } from "node:path";
 
 export function fixture<T = any>(name: string): T {
@@ -12,14 +12,14 @@ export function relativeError(a: number, b: number): number {
   return b === 0 ? Math.abs(a) : Math.abs(a - b) / Math.abs(b);
 }
 
-/** Expects `fn` to throw the core's domain error (InputError of kind "num"). */
-export function expectNumError(fn: () => unknown): void {
+/** Expects `fn` to throw the core's InputError of the given kind ("input": the caller's input cannot be used). */
+export function expectInputError(fn: () => unknown, kind: FailureKind = "input"): void {
   try {
     fn();
   } catch (e) {
     expect(e).toBeInstanceOf(InputError);
-    expect((e as InputError).kind).toBe("num");
+    expect((e as InputError).kind).toBe(kind);
     return;
   }
-  throw new Error("expected an InputError");
+  throw new Error(`expected an InputError of kind "${kind}"`);
 }

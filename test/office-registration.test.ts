@@ -32,13 +32,25 @@ describe("registration through the shared runtime", () => {
 
     const failprob = associated.get("FAILPROB")!;
     expect(failprob(200, 10, 400, null)).toBeCloseTo(-Math.expm1(-Math.pow(0.5, 10)), 15);
-    const num = failprob(200, -10, 400, null) as HostError;
-    expect(num).toBeInstanceOf(HostError);
+    // A bad input is #VALUE! with its message (the host shows it).
+    const bad = failprob(200, -10, 400, null) as HostError;
+    expect(bad).toBeInstanceOf(HostError);
+    expect(bad.code).toBe("#VALUE!");
+    expect(bad.message).toMatch(/modulus/);
+    // A result beyond double precision is #NUM!, which the host shows with no message.
+    const num = associated.get("MEANSTRENGTH")!(0.001, 400) as HostError;
     expect(num.code).toBe("#NUM!");
     expect(num.message).toBeUndefined();
     const value = associated.get("MODULUS")!([[300], ["oops"], [320]], null, null) as HostError;
     expect(value.code).toBe("#VALUE!");
     expect(value.message).toMatch(/row 2/);
+    // An error in one cell of a spill is the host's error object in that cell, with its message
+    // (CustomFunctionsRuntime 1.2 allows errors inside returned arrays).
+    const rows = associated.get("FLEXSTRENGTH")!([[400], [410]], [[40]], [[20]], [[4]], [[3], [5]]) as unknown[][];
+    expect(rows[0][0]).toBeCloseTo((3 * 400 * 20) / (2 * 4 * 9), 12);
+    expect(rows[1][0]).toBeInstanceOf(HostError);
+    expect((rows[1][0] as HostError).code).toBe("#VALUE!");
+    expect((rows[1][0] as HostError).message).toMatch(/row 2: outside the formula's limits/);
     // Desktop hosts pass empty cells as 0: they are skipped, never a zero-strength specimen.
     expect(associated.get("CHARSTRENGTH")!([[300], [0], [320], [0]], null, "MLE-RAW")).toBe(
       associated.get("CHARSTRENGTH")!([[300], [320]], null, "MLE-RAW"),

@@ -267,11 +267,11 @@ export function faultsFor(fn: FunctionMetadata, baseline: Call): fc.Arbitrary<Fa
             const list: Fault[] = [
               { call: at(text), expect: { code: "#VALUE!", message: here }, what: `text "${text}" in ${p.name} at ${r + 1},${c + 1}` },
               { call: at(bool), expect: { code: "#VALUE!", message: here }, what: `${bool} in ${p.name} at ${r + 1},${c + 1}` },
-              { call: at("1e999"), expect: { code: "#NUM!", message: here }, what: `1e999 (an infinite number) in ${p.name}` },
+              { call: at("1e999"), expect: { code: "#VALUE!", message: here }, what: `1e999 (an infinite number) in ${p.name}` },
               { call: at("=NA()"), expect: { code: "#N/A" }, what: `an #N/A cell in ${p.name}` },
               { call: at("=1/0"), expect: { code: "#DIV/0!" }, what: `a #DIV/0! cell in ${p.name}` },
             ];
-            if (rejectsNegative(p)) list.push({ call: at(-Math.abs(original || 1)), expect: { code: "#NUM!", message: here }, what: `a negative value in ${p.name} at ${r + 1},${c + 1}` });
+            if (rejectsNegative(p)) list.push({ call: at(-Math.abs(original || 1)), expect: { code: "#VALUE!", message: here }, what: `a negative value in ${p.name} at ${r + 1},${c + 1}` });
             if (rows > 1 && (pairsWithAnother(p) || (rangeParams.length > 1 && rangeParams.some((x) => x.k !== k && pairsWithAnother(x.p))))) {
               list.push({ call: withArg(baseline, k, { kind: "range", cells: arg.cells.slice(0, -1) }), expect: { code: "#VALUE!", message: /rows|columns|shape/ }, what: `${p.name} one row shorter than its partner` });
             }
@@ -315,7 +315,7 @@ export function faultsFor(fn: FunctionMetadata, baseline: Call): fc.Arbitrary<Fa
       // "required for the disk configurations": a value the function may rightly ignore has no promised error.
       if (d && !/required for|only for|ignored/i.test(p.description ?? "")) {
         for (const x of outsideDomain(d)) {
-          list.push({ call: withArg(baseline, k, { kind: "literal", text: numberLiteral(x) }), expect: { code: "#NUM!" }, what: `${p.name} = ${x}, outside its documented domain` });
+          list.push({ call: withArg(baseline, k, { kind: "literal", text: numberLiteral(x) }), expect: { code: "#VALUE!" }, what: `${p.name} = ${x}, outside its documented domain` });
         }
       }
       if (p.optional && arg.kind === "omit" && k === fn.parameters.length - 1) {

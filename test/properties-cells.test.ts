@@ -4,13 +4,14 @@
 //
 // 1. any cells through the embedded engine: no crash, no NaN or Infinity in any
 //    cell, only the policy's errors (or errors passed through from inputs),
-//    each with a message, and no adapter ever throws;
+//    each with a message, #NUM! only for a result beyond double precision or a
+//    solve that did not converge, and no adapter ever throws;
 // 2. the same through the guarded adapter, with the values a spreadsheet host
 //    passes (null for blanks, 2-D arrays for ranges);
 // 3. one fault at a time on the documented example gets the promised error:
-//    text or TRUE in a range -> #VALUE! naming the cell, a negative -> #NUM!,
+//    text or TRUE in a range -> #VALUE! naming the cell, a negative -> #VALUE!,
 //    mismatched ranges -> #VALUE!, a value outside the documented domain ->
-//    #NUM!, input errors pass through, and blank rows change nothing.
+//    #VALUE!, input errors pass through, and blank rows change nothing.
 //
 // Seeds are random; a failure prints fast-check's seed and path. Reproduce with
 // FC_SEED=<seed> (and FC_PATH=<path>); FC_SCALE=4 runs four times the cases.

@@ -83,11 +83,21 @@ describe("the properties fail on a broken adapter", () => {
   it("the wrong error for a value outside the documented domain: the one-fault property reports it", () => {
     current.DESIGNSTRESS = (...args) => {
       const r = real.DESIGNSTRESS(...args);
-      return isCellFailure(r) && r.cellError === "#NUM!" ? { cellError: "#N/A", message: r.message } : r;
+      return isCellFailure(r) && r.cellError === "#VALUE!" ? { cellError: "#N/A", message: r.message } : r;
     };
-    expect(failureOf(policyProperty("DESIGNSTRESS"))).toMatch(/expected #NUM!, got "#N\/A"/);
+    expect(failureOf(policyProperty("DESIGNSTRESS"))).toMatch(/expected #VALUE!, got "#N\/A"/);
     Object.assign(current, real);
     expect(failureOf(policyProperty("DESIGNSTRESS"))).toBe("");
+  });
+
+  it("#NUM! for a bad input (its message lost in the host): the engine property reports it", () => {
+    current.FAILPROB = (...args) => {
+      const r = real.FAILPROB(...args);
+      return isCellFailure(r) && r.cellError === "#VALUE!" ? { cellError: "#NUM!", message: r.message } : r;
+    };
+    expect(failureOf(engineProperty("FAILPROB"))).toMatch(/#NUM! for something other than a result beyond double precision/);
+    Object.assign(current, real);
+    expect(failureOf(engineProperty("FAILPROB"))).toBe("");
   });
 
   it("a blank cell read as a tiny strength: the blank-row property reports the changed result", () => {

@@ -62,7 +62,7 @@ export function documentedDomain(p: ParameterMetadata): Domain | null {
 }
 
 /**
- * Whether the policy promises #NUM! for a negative value in this range: a
+ * Whether the policy promises #VALUE! for a negative value in this range: a
  * range of strengths (DESIGN.md), or one whose description states a domain
  * that excludes negatives. Element stresses, where compression is allowed,
  * state none.

@@ -203,6 +203,9 @@ function inputErrors(call: Call): Set<string> {
   return codes;
 }
 
+/** What a #NUM! of ours may say: the result is beyond double precision, or a solve did not converge. */
+export const NUM_MESSAGE = /too (large|small) to represent|double precision|did not converge/;
+
 /** HyperFormula's own message when a function hands it NaN or Infinity: it shows #NUM! instead. */
 export const ENGINE_NON_FINITE = "NaN or infinite value encountered.";
 
@@ -233,6 +236,11 @@ export function safetyViolations(evaluated: Evaluated, metadata: FunctionMetadat
       if (/internal error/i.test(o.error.message)) problems.push(`an adapter threw: ${o.error.message}: ${where}`);
       if (o.error.message === ENGINE_NON_FINITE && !passedThrough && !hasInfiniteInput(o.call)) problems.push(`the function returned NaN or Infinity (the engine shows #NUM!): ${where}`);
       if (!passedThrough && o.error.code !== "#N/A" && !o.error.message.trim()) problems.push(`${o.error.code} without a message: ${where}`);
+      // The host drops #NUM!'s message, so the policy keeps #NUM! for results beyond double precision and
+      // solves that did not converge: nothing the user could correct in the inputs.
+      if (o.error.code === "#NUM!" && !passedThrough && o.error.message !== ENGINE_NON_FINITE && !NUM_MESSAGE.test(o.error.message)) {
+        problems.push(`#NUM! for something other than a result beyond double precision (${o.error.message}): ${where}`);
+      }
       continue;
     }
     const fn = byId.get(o.call.id)!;

@@ -93,19 +93,19 @@ describe("bad input follows the cell policy", () => {
   const s = column(complete.strengths);
   const fitters = ["MODULUS", "CHARSTRENGTH"];
   for (const name of fitters) {
-    it(`${name}: text -> #VALUE!, negative -> #NUM!, too few -> #NUM!, mismatched flags -> #VALUE!, bad method -> #VALUE!`, () => {
+    it(`${name}: text -> #VALUE!, negative -> #VALUE!, too few -> #VALUE!, mismatched flags -> #VALUE!, bad method -> #VALUE!`, () => {
       const withText = [...s.slice(0, 3), ["n/a"], ...s.slice(3)];
       const r = guarded[name](withText);
       expect(code(r)).toBe("#VALUE!");
       expect(isCellFailure(r) && r.message).toMatch(/row 4/);
       expect(code(guarded[name]([...s, [true]]))).toBe("#VALUE!");
-      expect(code(guarded[name]([...s, [-310]]))).toBe("#NUM!");
-      expect(code(guarded[name]([[310]]))).toBe("#NUM!");
-      expect(code(guarded[name]([[null], [0], [""]]))).toBe("#NUM!");
-      expect(code(guarded[name]([[300], [300], [300]]))).toBe("#NUM!");
+      expect(code(guarded[name]([...s, [-310]]))).toBe("#VALUE!");
+      expect(code(guarded[name]([[310]]))).toBe("#VALUE!");
+      expect(code(guarded[name]([[null], [0], [""]]))).toBe("#VALUE!");
+      expect(code(guarded[name]([[300], [300], [300]]))).toBe("#VALUE!");
       expect(code(guarded[name](s, s.slice(1).map(() => [false])))).toBe("#VALUE!");
       expect(code(guarded[name](s, s.map(() => ["maybe"])))).toBe("#VALUE!");
-      expect(code(guarded[name](s, s.map(() => [true])))).toBe("#NUM!");
+      expect(code(guarded[name](s, s.map(() => [true])))).toBe("#VALUE!");
       expect(code(guarded[name](s, null, "BEST"))).toBe("#VALUE!");
       expect(code(guarded[name](s, null, 3))).toBe("#VALUE!");
       expect(code(guarded[name]("text"))).toBe("#VALUE!");
@@ -131,25 +131,25 @@ describe("bad input follows the cell policy", () => {
         expect(code(at("abc"))).toBe("#VALUE!");
         expect(code(at(true))).toBe("#VALUE!");
         if (positive.includes(k)) {
-          expect(code(at(0))).toBe("#NUM!");
-          expect(code(at(-1))).toBe("#NUM!");
+          expect(code(at(0))).toBe("#VALUE!");
+          expect(code(at(-1))).toBe("#VALUE!");
         }
         if (probabilities.includes(k)) {
-          for (const p of [0, 1, 1.5, -0.2]) expect(code(at(p))).toBe("#NUM!");
+          for (const p of [0, 1, 1.5, -0.2]) expect(code(at(p))).toBe("#VALUE!");
         }
       });
     });
   }
 
-  it("FAILPROB: a negative stress is #NUM!, zero stress is Pf = 0", () => {
-    expect(code(guarded.FAILPROB(-5, 10, 400))).toBe("#NUM!");
+  it("FAILPROB: a negative stress is #VALUE!, zero stress is Pf = 0", () => {
+    expect(code(guarded.FAILPROB(-5, 10, 400))).toBe("#VALUE!");
     expect(guarded.FAILPROB(0, 10, 400)).toBe(0);
   });
   it("required arguments left blank are #VALUE!, optional ones take their default", () => {
     expect(code(guarded.FAILPROB(null, 10, 400))).toBe("#VALUE!");
     expect(guarded.FAILPROB(300, 10, 400, null)).toBe(guarded.FAILPROB(300, 10, 400, 1));
-    expect(code(guarded.LOTFAILURES(0.01, 100.5))).toBe("#NUM!");
-    expect(code(guarded.LOTFAILURES(1, 100))).toBe("#NUM!");
+    expect(code(guarded.LOTFAILURES(0.01, 100.5))).toBe("#VALUE!");
+    expect(code(guarded.LOTFAILURES(1, 100))).toBe("#VALUE!");
   });
   it("results that overflow double precision are #NUM!, never Infinity or NaN", () => {
     expect(code(guarded.DESIGNSTRESS(1e-300, 0.01, 1e300))).toBe("#NUM!");

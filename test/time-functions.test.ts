@@ -185,45 +185,45 @@ describe("paired ranges follow the blank rule", () => {
   it("one-sided blanks or zeros, negatives, text, mismatched shapes and too few points", () => {
     for (const fn of ["SCGFIT", "SCGNBOUNDS", "SCGSTATICFIT", "SCGSTATICNBOUNDS"]) {
       const withZeroRate = rates.map((r, i) => (i === 2 ? [0] : r));
-      expect(code(guarded[fn](withZeroRate, strengths))).toBe("#NUM!");
+      expect(code(guarded[fn](withZeroRate, strengths))).toBe("#VALUE!");
       const withBlankStrength = strengths.map((r, i) => (i === 4 ? [null] : r));
-      expect(code(guarded[fn](rates, withBlankStrength))).toBe("#NUM!");
-      expect(code(guarded[fn](rates.map((r, i) => (i === 1 ? [-1] : r)), strengths))).toBe("#NUM!");
+      expect(code(guarded[fn](rates, withBlankStrength))).toBe("#VALUE!");
+      expect(code(guarded[fn](rates.map((r, i) => (i === 1 ? [-1] : r)), strengths))).toBe("#VALUE!");
       const text = guarded[fn](rates, strengths.map((r, i) => (i === 3 ? ["broke"] : r)));
       expect(code(text)).toBe("#VALUE!");
       expect(isCellFailure(text) && text.message).toMatch(/row 4/);
       expect(code(guarded[fn](rates, strengths.map((r, i) => (i === 3 ? [true] : r))))).toBe("#VALUE!");
       expect(code(guarded[fn](rates.slice(1), strengths))).toBe("#VALUE!");
-      expect(code(guarded[fn]([[1], [10]], [[100], [110]]))).toBe("#NUM!");
-      expect(code(guarded[fn]([[null]], [[null]]))).toBe("#NUM!");
+      expect(code(guarded[fn]([[1], [10]], [[100], [110]]))).toBe("#VALUE!");
+      expect(code(guarded[fn]([[null]], [[null]]))).toBe("#VALUE!");
       expect(code(guarded[fn]("text", strengths))).toBe("#VALUE!");
     }
     // Static fits: a positive slope of life on stress is no crack growth.
-    expect(code(guarded.SCGSTATICFIT([[50], [60], [70]], [[1], [10], [100]]))).toBe("#NUM!");
-    expect(code(guarded.SCGFIT([[1], [10], [100]], [[120], [110], [100]]))).toBe("#NUM!");
+    expect(code(guarded.SCGSTATICFIT([[50], [60], [70]], [[1], [10], [100]]))).toBe("#VALUE!");
+    expect(code(guarded.SCGFIT([[1], [10], [100]], [[120], [110], [100]]))).toBe("#VALUE!");
   });
 
-  it("confidence outside (0, 1) or text -> #NUM! / #VALUE!", () => {
+  it("confidence outside (0, 1) or text -> #VALUE! / #VALUE!", () => {
     for (const fn of ["SCGNBOUNDS", "SCGSTATICNBOUNDS"]) {
       const [x, y] = fn === "SCGNBOUNDS" ? [rates, strengths] : [column(data.staticFits[0].stresses), column(data.staticFits[0].lifetimes)];
-      for (const bad of [0, 1, -0.5, 1.5, Infinity, NaN]) expect(code(guarded[fn](x, y, bad))).toBe("#NUM!");
+      for (const bad of [0, 1, -0.5, 1.5, Infinity, NaN]) expect(code(guarded[fn](x, y, bad))).toBe("#VALUE!");
       expect(code(guarded[fn](x, y, "high"))).toBe("#VALUE!");
       expect(Array.isArray(guarded[fn](x, y, null))).toBe(true);
     }
   });
 
-  it("LOADHISTORYSTRESS: a blank stress beside a duration is an unloaded block; a blank duration beside a stress is #NUM!", () => {
+  it("LOADHISTORYSTRESS: a blank stress beside a duration is an unloaded block; a blank duration beside a stress is #VALUE!", () => {
     const withUnloaded = num(guarded.LOADHISTORYSTRESS([[100], [null], [50]], [[10], [990], [100]], 20));
     const explicit = num(guarded.LOADHISTORYSTRESS([[100], [50]], [[10], [100]], 20, 1100));
     expect(relativeError(withUnloaded, explicit)).toBeLessThan(1e-15);
-    expect(code(guarded.LOADHISTORYSTRESS([[100], [50]], [[10], [0]], 20))).toBe("#NUM!");
-    expect(code(guarded.LOADHISTORYSTRESS([[100], [-50]], [[10], [5]], 20))).toBe("#NUM!");
-    expect(code(guarded.LOADHISTORYSTRESS([[100], [50]], [[10], [-5]], 20))).toBe("#NUM!");
+    expect(code(guarded.LOADHISTORYSTRESS([[100], [50]], [[10], [0]], 20))).toBe("#VALUE!");
+    expect(code(guarded.LOADHISTORYSTRESS([[100], [-50]], [[10], [5]], 20))).toBe("#VALUE!");
+    expect(code(guarded.LOADHISTORYSTRESS([[100], [50]], [[10], [-5]], 20))).toBe("#VALUE!");
     expect(code(guarded.LOADHISTORYSTRESS([[100], ["x"]], [[10], [5]], 20))).toBe("#VALUE!");
     expect(code(guarded.LOADHISTORYSTRESS([[100], [50]], [[10]], 20))).toBe("#VALUE!");
-    expect(code(guarded.LOADHISTORYSTRESS([[null]], [[null]], 20))).toBe("#NUM!");
-    expect(code(guarded.LOADHISTORYSTRESS([[100]], [[10]], 2))).toBe("#NUM!");
-    expect(code(guarded.LOADHISTORYSTRESS([[100]], [[10]], 20, 0))).toBe("#NUM!");
+    expect(code(guarded.LOADHISTORYSTRESS([[null]], [[null]], 20))).toBe("#VALUE!");
+    expect(code(guarded.LOADHISTORYSTRESS([[100]], [[10]], 2))).toBe("#VALUE!");
+    expect(code(guarded.LOADHISTORYSTRESS([[100]], [[10]], 20, 0))).toBe("#VALUE!");
     expect(code(guarded.LOADHISTORYSTRESS([[100]], [[10]], 20, "long"))).toBe("#VALUE!");
   });
 });
@@ -242,41 +242,41 @@ describe("scalar functions follow the cell policy", () => {
     ["PROOFSTRESSFORLIFE", [100, 3.15e8, 20, 2], [0, 1, 3], 2, []],
   ];
   for (const [name, args, positive, nIndex, probabilities] of scalars) {
-    it(`${name}: blanks and text -> #VALUE!, zero, negative, non-finite, n <= 2, probabilities outside (0, 1) -> #NUM!`, () => {
+    it(`${name}: blanks and text -> #VALUE!, zero, negative, non-finite, n <= 2, probabilities outside (0, 1) -> #VALUE!`, () => {
       const call = (i: number, v: unknown) => guarded[name](...args.map((a, j) => (j === i ? v : a)));
       expect(typeof guarded[name](...args)).toBe("number");
       for (let i = 0; i < args.length; i++) {
         if (typeof args[i] !== "number") continue;
         expect(code(call(i, "abc"))).toBe("#VALUE!");
         expect(code(call(i, true))).toBe("#VALUE!");
-        expect(code(call(i, NaN))).toBe("#NUM!");
-        expect(code(call(i, Infinity))).toBe("#NUM!");
+        expect(code(call(i, NaN))).toBe("#VALUE!");
+        expect(code(call(i, Infinity))).toBe("#VALUE!");
         const optional = (name === "LIFEDESIGNSTRESS" && i === 6) || (["PROOFBREAKS", "POSTPROOFFAILPROB"].includes(name) && i === args.length - 1);
         if (optional) expect(typeof call(i, null)).toBe("number");
         else expect(code(call(i, null))).toBe("#VALUE!");
       }
       for (const i of positive) {
-        expect(code(call(i, 0))).toBe("#NUM!");
-        expect(code(call(i, -1))).toBe("#NUM!");
+        expect(code(call(i, 0))).toBe("#VALUE!");
+        expect(code(call(i, -1))).toBe("#VALUE!");
       }
       if (nIndex >= 0) {
-        for (const bad of [2, 1.5, 0, -3]) expect(code(call(nIndex, bad))).toBe("#NUM!");
-        // Just above 2 is in the domain (a result too large for doubles would be #NUM!, so 2.5).
+        for (const bad of [2, 1.5, 0, -3]) expect(code(call(nIndex, bad))).toBe("#VALUE!");
+        // Just above 2 is in the domain (a result too large for doubles would be #VALUE!, so 2.5).
         expect(typeof call(nIndex, 2.5)).toBe("number");
       }
-      for (const i of probabilities) for (const bad of [0, 1, 1.2, -0.1]) expect(code(call(i, bad))).toBe("#NUM!");
+      for (const i of probabilities) for (const bad of [0, 1, 1.2, -0.1]) expect(code(call(i, bad))).toBe("#VALUE!");
     });
   }
 
-  it("PROOFMINLIFE: service stress above the proof stress -> #NUM!; equal -> 0", () => {
-    expect(code(guarded.PROOFMINLIFE(200, 250, 20, 2))).toBe("#NUM!");
+  it("PROOFMINLIFE: service stress above the proof stress -> #VALUE!; equal -> 0", () => {
+    expect(code(guarded.PROOFMINLIFE(200, 250, 20, 2))).toBe("#VALUE!");
     expect(guarded.PROOFMINLIFE(200, 200, 20, 2)).toBe(0);
   });
 
-  it("POSTPROOFFAILPROB: 0 at and below the proof stress, #NUM! for a negative stress", () => {
+  it("POSTPROOFFAILPROB: 0 at and below the proof stress, #VALUE! for a negative stress", () => {
     expect(guarded.POSTPROOFFAILPROB(250, 250, 10, 400)).toBe(0);
     expect(guarded.POSTPROOFFAILPROB(0, 250, 10, 400)).toBe(0);
-    expect(code(guarded.POSTPROOFFAILPROB(-1, 250, 10, 400))).toBe("#NUM!");
+    expect(code(guarded.POSTPROOFFAILPROB(-1, 250, 10, 400))).toBe("#VALUE!");
   });
 
   it("SCGBFROMFIT: an unknown test kind -> #VALUE!; STATIC accepts any finite log10 Ds", () => {

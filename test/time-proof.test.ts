@@ -17,7 +17,7 @@ import {
   proofStressForLife,
 } from "../src/design/proof-test";
 import fixture from "./fixtures/crack_growth.json";
-import { relativeError, expectNumError } from "./helpers";
+import { relativeError, expectInputError } from "./helpers";
 
 const bOf = (c: { n: number; A: number; K: number; Y: number }) =>
   crackGrowthB({ n: c.n, velocityCoefficient: c.A, toughness: c.K, geometryFactor: c.Y });
@@ -63,11 +63,11 @@ describe("minimum life after a proof test", () => {
   });
 
   it("rejects a service stress above the proof stress, n <= 2 and non-positive inputs", () => {
-    expectNumError(() => proofMinimumLife({ proofStress: 200, serviceStress: 201, n: 20, B: 1 }));
-    expectNumError(() => proofMinimumLife({ proofStress: 200, serviceStress: 100, n: 2, B: 1 }));
-    expectNumError(() => proofMinimumLife({ proofStress: 200, serviceStress: 100, n: 20, B: 0 }));
-    expectNumError(() => proofMinimumLife({ proofStress: 0, serviceStress: 0, n: 20, B: 1 }));
-    expectNumError(() => proofMinimumLife({ proofStress: 200, serviceStress: -5, n: 20, B: 1 }));
+    expectInputError(() => proofMinimumLife({ proofStress: 200, serviceStress: 201, n: 20, B: 1 }));
+    expectInputError(() => proofMinimumLife({ proofStress: 200, serviceStress: 100, n: 2, B: 1 }));
+    expectInputError(() => proofMinimumLife({ proofStress: 200, serviceStress: 100, n: 20, B: 0 }));
+    expectInputError(() => proofMinimumLife({ proofStress: 0, serviceStress: 0, n: 20, B: 1 }));
+    expectInputError(() => proofMinimumLife({ proofStress: 200, serviceStress: -5, n: 20, B: 1 }));
   });
 });
 
@@ -84,9 +84,9 @@ describe("proof stress for a required minimum life", () => {
   }
 
   it("rejects zero or negative lives and n <= 2", () => {
-    expectNumError(() => proofStressForLife({ serviceStress: 100, minimumLife: 0, n: 20, B: 1 }));
-    expectNumError(() => proofStressForLife({ serviceStress: 100, minimumLife: -1, n: 20, B: 1 }));
-    expectNumError(() => proofStressForLife({ serviceStress: 100, minimumLife: 10, n: 1, B: 1 }));
+    expectInputError(() => proofStressForLife({ serviceStress: 100, minimumLife: 0, n: 20, B: 1 }));
+    expectInputError(() => proofStressForLife({ serviceStress: 100, minimumLife: -1, n: 20, B: 1 }));
+    expectInputError(() => proofStressForLife({ serviceStress: 100, minimumLife: 10, n: 1, B: 1 }));
   });
 });
 
@@ -119,11 +119,11 @@ describe("failure probability of proof-test survivors", () => {
 
   it("rejects bad input", () => {
     const w = { stress: 100, proofStress: 300, shape: 10, scale: 400 };
-    expectNumError(() => postProofFailureProbability({ ...w, stress: -1 }));
-    expectNumError(() => postProofFailureProbability({ ...w, proofStress: 0 }));
-    expectNumError(() => postProofFailureProbability({ ...w, shape: 0 }));
-    expectNumError(() => postProofFailureProbability({ ...w, scale: -1 }));
-    expectNumError(() => postProofFailureProbability({ ...w, sizeRatio: 0 }));
-    expectNumError(() => proofBreakFraction({ proofStress: 0, shape: 10, scale: 400 }));
+    expectInputError(() => postProofFailureProbability({ ...w, stress: -1 }));
+    expectInputError(() => postProofFailureProbability({ ...w, proofStress: 0 }));
+    expectInputError(() => postProofFailureProbability({ ...w, shape: 0 }));
+    expectInputError(() => postProofFailureProbability({ ...w, scale: -1 }));
+    expectInputError(() => postProofFailureProbability({ ...w, sizeRatio: 0 }));
+    expectInputError(() => proofBreakFraction({ proofStress: 0, shape: 10, scale: 400 }));
   });
 });

@@ -173,7 +173,7 @@ describe("censored samples: bootstrap conditional on the censoring values", () =
     // 200 specimens get 2000 bootstrap draws: the 0.005 quantile would rest on 10 of them.
     const big = weibullSample(new SeededRandom(31), 200, 9, 300);
     const flags = big.map((_, i) => i % 9 === 0);
-    expect(code(guarded.MODULUSBOUNDS(column(big), 0.99, column(flags)))).toBe("#NUM!");
+    expect(code(guarded.MODULUSBOUNDS(column(big), 0.99, column(flags)))).toBe("#VALUE!");
     expect(typeof (guarded.MODULUSBOUNDS(column(big), 0.9, column(flags)) as number[][])[0][0]).toBe("number");
   });
 });
@@ -263,31 +263,31 @@ describe("design stress bound, complete samples", () => {
 
 describe("cell policy", () => {
   const s = column([312, 355, 371, 389, 398, 402, 415, 421]);
-  it("confidence outside (0, 1), or beyond the simulated range, is #NUM!", () => {
+  it("confidence outside (0, 1), or beyond the simulated range, is #VALUE!", () => {
     for (const c of [0, 1, 1.5, -0.2]) {
-      expect(code(guarded.MODULUSBOUNDS(s, c))).toBe("#NUM!");
-      expect(code(guarded.CHARSTRENGTHBOUNDS(s, c))).toBe("#NUM!");
-      expect(code(guarded.DESIGNSTRESSBOUND(0.999, s, c))).toBe("#NUM!");
-      expect(code(guarded.FIT(s, null, c))).toBe("#NUM!");
+      expect(code(guarded.MODULUSBOUNDS(s, c))).toBe("#VALUE!");
+      expect(code(guarded.CHARSTRENGTHBOUNDS(s, c))).toBe("#VALUE!");
+      expect(code(guarded.DESIGNSTRESSBOUND(0.999, s, c))).toBe("#VALUE!");
+      expect(code(guarded.FIT(s, null, c))).toBe("#VALUE!");
     }
-    expect(code(guarded.MODULUSBOUNDS(s, 0.995))).toBe("#NUM!"); // two-sided needs the 0.0025 quantile
-    expect(code(guarded.MODULUSBOUNDS(s, 0.995, null, 1))).not.toBe("#NUM!");
-    expect(code(guarded.DESIGNSTRESSBOUND(0.999, s, 0.999))).toBe("#NUM!");
-    expect(code(guarded.MODULUSBOUNDS(s, 0.9, null, 3))).toBe("#NUM!");
+    expect(code(guarded.MODULUSBOUNDS(s, 0.995))).toBe("#VALUE!"); // two-sided needs the 0.0025 quantile
+    expect(code(guarded.MODULUSBOUNDS(s, 0.995, null, 1))).not.toBe("#VALUE!");
+    expect(code(guarded.DESIGNSTRESSBOUND(0.999, s, 0.999))).toBe("#VALUE!");
+    expect(code(guarded.MODULUSBOUNDS(s, 0.9, null, 3))).toBe("#VALUE!");
   });
 
   it("bad strengths, flags, survival and size ratio follow the one policy", () => {
     expect(code(guarded.MODULUSBOUNDS([[300], ["abc"], [400]]))).toBe("#VALUE!");
-    expect(code(guarded.MODULUSBOUNDS([[300], [-5], [400]]))).toBe("#NUM!");
-    expect(code(guarded.MODULUSBOUNDS([[300]]))).toBe("#NUM!");
+    expect(code(guarded.MODULUSBOUNDS([[300], [-5], [400]]))).toBe("#VALUE!");
+    expect(code(guarded.MODULUSBOUNDS([[300]]))).toBe("#VALUE!");
     expect(code(guarded.MODULUSBOUNDS([[300], [0], [null], [""], [350], [410]]))).toEqual(guarded.MODULUSBOUNDS([[300], [350], [410]]));
     expect(code(guarded.CHARSTRENGTHBOUNDS(s, 0.9, [[true], [false]]))).toBe("#VALUE!");
-    expect(code(guarded.DESIGNSTRESSBOUND(1, s))).toBe("#NUM!");
-    expect(code(guarded.DESIGNSTRESSBOUND(0, s))).toBe("#NUM!");
-    expect(code(guarded.DESIGNSTRESSBOUND(0.99, s, 0.9, 0))).toBe("#NUM!");
+    expect(code(guarded.DESIGNSTRESSBOUND(1, s))).toBe("#VALUE!");
+    expect(code(guarded.DESIGNSTRESSBOUND(0, s))).toBe("#VALUE!");
+    expect(code(guarded.DESIGNSTRESSBOUND(0.99, s, 0.9, 0))).toBe("#VALUE!");
     expect(code(guarded.DESIGNSTRESSBOUND("x" as unknown as number, s))).toBe("#VALUE!");
-    expect(code(guarded.MODULUSBOUNDS([[300], [300], [300]]))).toBe("#NUM!"); // no finite ML modulus
+    expect(code(guarded.MODULUSBOUNDS([[300], [300], [300]]))).toBe("#VALUE!"); // no finite ML modulus
     const all = [[300, true], [350, true], [410, false]];
-    expect(code(guarded.MODULUSBOUNDS(all.map((r) => [r[0]]), 0.9, all.map((r) => [r[1]])))).toBe("#NUM!"); // one failure
+    expect(code(guarded.MODULUSBOUNDS(all.map((r) => [r[0]]), 0.9, all.map((r) => [r[1]])))).toBe("#VALUE!"); // one failure
   });
 });

@@ -126,7 +126,7 @@ describe("in the embedded engine", () => {
     expect([g[22][3], g[22][4]]).toEqual((guarded.FITQUALITY(column(data.strengths)) as number[][])[0]);
     expect(g[23][5]).toMatch(/baseline/);
     expect(g[24][3]).toBe(guarded.DESIGNSTRESSBOUND(0.9999, column(data.strengths), 0.95, 25));
-    expect([g[25][3], g[25][4]]).toEqual(["#NUM!", "#NUM!"]);
+    expect([g[25][3], g[25][4]]).toEqual(["#VALUE!", "#VALUE!"]);
     expect(g[26][3]).toBe("#N/A");
   });
 

@@ -45,11 +45,11 @@ describe("competing flaw populations", () => {
     const s = column([300, 320, 350, 380]);
     expect(code(guarded.ORIGINFIT(s, column(["a", "", "a", "b"]), "a"))).toBe("#VALUE!");
     expect(code(guarded.ORIGINFIT(s, column(["a", "b"]), "a"))).toBe("#VALUE!");
-    expect(code(guarded.ORIGINFIT(s, column(["a", "b", "a", "b"]), "c"))).toBe("#NUM!");
-    expect(code(guarded.ORIGINFIT(s, column(["a", "b", "b", "b"]), "a"))).toBe("#NUM!"); // one failure
-    expect(code(guarded.COMPETINGFAILPROB(300, 10, 400, 0, 900))).toBe("#NUM!");
-    expect(code(guarded.COMPETINGDESIGNSTRESS(1, 10, 400, 5, 900))).toBe("#NUM!");
-    expect(code(guarded.COMPETINGDESIGNSTRESS(0.99, 10, 400, 5, 900, -1))).toBe("#NUM!");
+    expect(code(guarded.ORIGINFIT(s, column(["a", "b", "a", "b"]), "c"))).toBe("#VALUE!");
+    expect(code(guarded.ORIGINFIT(s, column(["a", "b", "b", "b"]), "a"))).toBe("#VALUE!"); // one failure
+    expect(code(guarded.COMPETINGFAILPROB(300, 10, 400, 0, 900))).toBe("#VALUE!");
+    expect(code(guarded.COMPETINGDESIGNSTRESS(1, 10, 400, 5, 900))).toBe("#VALUE!");
+    expect(code(guarded.COMPETINGDESIGNSTRESS(0.99, 10, 400, 5, 900, -1))).toBe("#VALUE!");
     expect(() => populationSample({ strengths: [1, 2], origins: ["a", "b"], population: " " })).toThrow(/name the flaw population/);
   });
 
@@ -83,11 +83,11 @@ describe("lot check", () => {
 
   it("confidence and bad input follow the cell policy", () => {
     const a = column([300, 320, 350, 380]);
-    expect(code(guarded.LOTCHECK(a, a, 1))).toBe("#NUM!");
-    expect(code(guarded.LOTCHECK(a, a, 0))).toBe("#NUM!");
-    expect(code(guarded.LOTCHECK(column([300]), a))).toBe("#NUM!");
+    expect(code(guarded.LOTCHECK(a, a, 1))).toBe("#VALUE!");
+    expect(code(guarded.LOTCHECK(a, a, 0))).toBe("#VALUE!");
+    expect(code(guarded.LOTCHECK(column([300]), a))).toBe("#VALUE!");
     expect(code(guarded.LOTCHECK(column([300, "x"]), a))).toBe("#VALUE!");
-    expect(code(guarded.LOTCHECK(a, column([300, -2, 400])))).toBe("#NUM!");
+    expect(code(guarded.LOTCHECK(a, column([300, -2, 400])))).toBe("#VALUE!");
   });
 });
 
@@ -116,12 +116,12 @@ describe("modulus from a datasheet's mean and standard deviation", () => {
     for (const m of [9.999999, 10, 10.000001]) expect(relativeError(logOnePlusSquaredCv(m), near(m))).toBeLessThan(1e-11);
   });
 
-  it("bad input: #NUM! for non-positive values and CVs no Weibull modulus gives, #VALUE! for text", () => {
-    expect(code(guarded.MODULUSFROMCV(0, 10))).toBe("#NUM!");
-    expect(code(guarded.MODULUSFROMCV(380, 0))).toBe("#NUM!");
-    expect(code(guarded.MODULUSFROMCV(380, -4))).toBe("#NUM!");
-    expect(code(guarded.MODULUSFROMCV(1, 1e40))).toBe("#NUM!");
-    expect(code(guarded.MODULUSFROMCV(1, 1e-12))).toBe("#NUM!");
+  it("bad input: #VALUE! for non-positive values and CVs no Weibull modulus gives, #VALUE! for text", () => {
+    expect(code(guarded.MODULUSFROMCV(0, 10))).toBe("#VALUE!");
+    expect(code(guarded.MODULUSFROMCV(380, 0))).toBe("#VALUE!");
+    expect(code(guarded.MODULUSFROMCV(380, -4))).toBe("#VALUE!");
+    expect(code(guarded.MODULUSFROMCV(1, 1e40))).toBe("#VALUE!");
+    expect(code(guarded.MODULUSFROMCV(1, 1e-12))).toBe("#VALUE!");
     expect(code(guarded.MODULUSFROMCV("a" as unknown as number, 3))).toBe("#VALUE!");
   });
 });

@@ -18,7 +18,7 @@
  * n). When the lower slope bound is at or below zero the data cannot bound n
  * from above: nUpper is null.
  */
-import { InputError, require } from "../errors";
+import { ensure, InputError, describe } from "../errors";
 import { CompensatedSum } from "../numeric/sum";
 import { studentQuantile } from "../numeric/student-t";
 
@@ -91,7 +91,7 @@ export function fitStressRate({
   const x = pairs.map(([r]) => Math.log10(r));
   const y = pairs.map(([, s]) => Math.log10(s));
   const { line, converged } = fitLine(x, y, confidence, "stress rates");
-  require(
+  ensure(
     line.slope > 0,
     "strength does not rise with stress rate (slope <= 0): these data do not resolve slow crack growth, so n cannot be estimated",
   );
@@ -132,7 +132,7 @@ export function fitStaticFatigue({
   const x = pairs.map(([s]) => Math.log10(s));
   const y = pairs.map(([, t]) => Math.log10(t));
   const { line, converged } = fitLine(x, y, confidence, "stresses");
-  require(
+  ensure(
     line.slope < 0,
     "time to failure does not fall with stress (slope >= 0): these data do not resolve slow crack growth, so n cannot be estimated",
   );
@@ -163,21 +163,21 @@ function checkPairs(
   yName: string,
 ): Array<[number, number]> {
   if (xs.length !== ys.length) {
-    throw new InputError("value", `the ${xName}s (${xs.length}) and ${yName}s (${ys.length}) must have the same length`);
+    throw new InputError("input", `the ${xName}s (${xs.length}) and ${yName}s (${ys.length}) must have the same length`);
   }
   const pairs: Array<[number, number]> = [];
   for (let i = 0; i < xs.length; i++) {
-    require(Number.isFinite(xs[i]) && xs[i] > 0, `${xName} ${i + 1} must be a positive number (got ${xs[i]})`);
-    require(Number.isFinite(ys[i]) && ys[i] > 0, `${yName} ${i + 1} must be a positive number (got ${ys[i]})`);
+    ensure(Number.isFinite(xs[i]) && xs[i] > 0, () => `${xName} ${i + 1} must be a positive number (got ${describe(xs[i])})`);
+    ensure(Number.isFinite(ys[i]) && ys[i] > 0, () => `${yName} ${i + 1} must be a positive number (got ${describe(ys[i])})`);
     pairs.push([xs[i], ys[i]]);
   }
   // N - 2 degrees of freedom for the slope interval need at least three points.
-  require(pairs.length >= 3, `a fatigue fit needs at least three specimens (got ${pairs.length})`);
+  ensure(pairs.length >= 3, `a fatigue fit needs at least three specimens (got ${pairs.length})`);
   return pairs;
 }
 
 function checkConfidence(confidence: number): void {
-  require(
+  ensure(
     Number.isFinite(confidence) && confidence > 0 && confidence < 1,
     `confidence must lie strictly between 0 and 1 (got ${confidence})`,
   );
@@ -203,7 +203,7 @@ function fitLine(
     sxy.add(dx * dy);
     syy.add(dy * dy);
   }
-  require(sxx.value > 0, `a fatigue fit needs at least two different ${levelName}`);
+  ensure(sxx.value > 0, `a fatigue fit needs at least two different ${levelName}`);
   const slope = sxy.value / sxx.value;
   const intercept = yMean - slope * xMean;
   const residuals = new CompensatedSum();

@@ -33,14 +33,14 @@
  * Materials with a rising crack-growth resistance (R-curve: Y-TZP, some
  * silicon nitrides) do not follow it.
  */
-import { require, requirePositive } from "../errors";
+import { ensure, ensureFiniteResult, ensurePositive } from "../errors";
 
 export function checkExponent(n: number): void {
-  require(Number.isFinite(n) && n > 2, `the crack-growth exponent n must be greater than 2 (got ${n})`);
+  ensure(Number.isFinite(n) && n > 2, `the crack-growth exponent n must be greater than 2 (got ${n})`);
 }
 
 function finite(value: number, name: string): number {
-  require(Number.isFinite(value), `the ${name} is outside the range of double-precision numbers`);
+  ensureFiniteResult(value, name);
   return value;
 }
 
@@ -63,9 +63,9 @@ export function crackGrowthB({
   geometryFactor: number;
 }): number {
   checkExponent(n);
-  requirePositive(velocityCoefficient, "crack velocity coefficient");
-  requirePositive(toughness, "fracture toughness");
-  requirePositive(geometryFactor, "geometry factor");
+  ensurePositive(velocityCoefficient, "crack velocity coefficient");
+  ensurePositive(toughness, "fracture toughness");
+  ensurePositive(geometryFactor, "geometry factor");
   const logB =
     Math.LN2 + 2 * Math.log(toughness) - Math.log(velocityCoefficient) - 2 * Math.log(geometryFactor) - Math.log(n - 2);
   return finite(Math.exp(logB), "B parameter");
@@ -85,8 +85,8 @@ export function crackGrowthBFromStressRateFit({
   inertStrength: number;
 }): number {
   checkExponent(n);
-  requirePositive(D, "D");
-  requirePositive(inertStrength, "inert strength");
+  ensurePositive(D, "D");
+  ensurePositive(inertStrength, "inert strength");
   const logB = (n + 1) * Math.log(D) - Math.log(n + 1) - (n - 2) * Math.log(inertStrength);
   return finite(Math.exp(logB), "B parameter");
 }
@@ -105,8 +105,8 @@ export function crackGrowthBFromStaticFit({
   inertStrength: number;
 }): number {
   checkExponent(n);
-  require(Number.isFinite(log10D), `log10 D must be a finite number (got ${log10D})`);
-  requirePositive(inertStrength, "inert strength");
+  ensure(Number.isFinite(log10D), `log10 D must be a finite number (got ${log10D})`);
+  ensurePositive(inertStrength, "inert strength");
   const logB = log10D * Math.LN10 - (n - 2) * Math.log(inertStrength);
   return finite(Math.exp(logB), "B parameter");
 }
@@ -128,9 +128,9 @@ export function timeToFailureFromInertStrength({
   B: number;
 }): number {
   checkExponent(n);
-  requirePositive(stress, "stress");
-  requirePositive(inertStrength, "inert strength");
-  requirePositive(B, "B parameter");
+  ensurePositive(stress, "stress");
+  ensurePositive(inertStrength, "inert strength");
+  ensurePositive(B, "B parameter");
   if (stress >= inertStrength) return 0;
   // ln(s/s_i) through log1p of an exact difference, and 1 - (s/s_i)^(n-2) through
   // expm1: both keep their digits when the stress is close to s_i.
@@ -157,9 +157,9 @@ export function inertStrengthToSurvive({
   B: number;
 }): number {
   checkExponent(n);
-  requirePositive(stress, "stress");
-  requirePositive(duration, "duration");
-  requirePositive(B, "B parameter");
+  ensurePositive(stress, "stress");
+  ensurePositive(duration, "duration");
+  ensurePositive(B, "B parameter");
   // log1p keeps short durations (t s^2 << B) exact.
   const logGrowth = Math.log1p(Math.exp(Math.log(duration) + 2 * Math.log(stress) - Math.log(B)));
   return finite(stress * Math.exp(logGrowth / (n - 2)), "inert strength");
@@ -183,9 +183,9 @@ export function timeToFailure({
   n: number;
 }): number {
   checkExponent(n);
-  requirePositive(stress, "stress");
-  requirePositive(strength, "strength");
-  requirePositive(stressRate, "stress rate");
+  ensurePositive(stress, "stress");
+  ensurePositive(strength, "strength");
+  ensurePositive(stressRate, "stress rate");
   const logTime = Math.log(strength / stressRate) - Math.log(n + 1) + n * Math.log(strength / stress);
   return finite(Math.exp(logTime), "time to failure");
 }
@@ -208,9 +208,9 @@ export function lifetimeStress({
   lifetime: number;
 }): number {
   checkExponent(n);
-  requirePositive(strength, "strength");
-  requirePositive(stressRate, "stress rate");
-  requirePositive(lifetime, "lifetime");
+  ensurePositive(strength, "strength");
+  ensurePositive(stressRate, "stress rate");
+  ensurePositive(lifetime, "lifetime");
   const logRatio = Math.log(strength / stressRate) - Math.log(n + 1) - Math.log(lifetime);
   return finite(strength * Math.exp(logRatio / n), "lifetime stress");
 }

@@ -9,7 +9,7 @@
  * survives the lifetime with probability R exactly when the flaw at the
  * inert-strength quantile 1 - R survives it.
  */
-import { InputError, require, requirePositive } from "../errors";
+import { ensure, ensurePositiveResult, ensureFiniteResult, ensurePositive, InputError, describe } from "../errors";
 import { findRoot } from "../numeric/roots";
 import { CompensatedSum } from "../numeric/sum";
 import { designStress } from "../weibull/distribution";
@@ -51,8 +51,8 @@ export function lifeDesignStress({
   B: number;
 }): LifeDesignResult {
   checkExponent(n);
-  requirePositive(lifetime, "lifetime");
-  requirePositive(B, "B parameter");
+  ensurePositive(lifetime, "lifetime");
+  ensurePositive(B, "B parameter");
   const inertStrength = designStress({ survival, shape, scale, sizeRatio });
   // In u = ln(s / s_i): g(u) = (n-2) u + log1p(c e^(2u)) with c = t s_i^2 / B.
   // g rises with slope between n-2 and n, so from any hi with g(hi) >= 0 the
@@ -66,7 +66,7 @@ export function lifeDesignStress({
   const lo = hi - gHi / (n - 2) - 1e-12 * (1 + Math.abs(hi));
   const result = findRoot(g, lo, hi, { relativeTolerance: 1e-15 });
   const stress = inertStrength * Math.exp(result.root);
-  require(Number.isFinite(stress) && stress > 0, "the allowable stress is outside the range of double-precision numbers");
+  ensurePositiveResult(stress, "allowable stress");
   return { stress, inertStrength, converged: result.converged, iterations: result.iterations };
 }
 
@@ -132,28 +132,28 @@ export function loadHistoryStress({
   checkExponent(n);
   if (stresses.length !== durations.length) {
     throw new InputError(
-      "value",
+      "input",
       `the stresses (${stresses.length}) and durations (${durations.length}) must have the same length`,
     );
   }
-  require(stresses.length > 0, "the load history is empty");
+  ensure(stresses.length > 0, "the load history is empty");
   let maxStress = 0;
   const total = new CompensatedSum();
   for (let j = 0; j < stresses.length; j++) {
     const s = stresses[j];
     const t = durations[j];
-    require(
+    ensure(
       Number.isFinite(s) && s >= 0,
-      `stress ${j + 1} must be zero or positive (got ${s}); enter compressive blocks as zero`,
+      () => `stress ${j + 1} must be zero or positive (got ${describe(s)}); enter compressive blocks as zero`,
     );
-    require(Number.isFinite(t) && t >= 0, `duration ${j + 1} must be zero or positive (got ${t})`);
+    ensure(Number.isFinite(t) && t >= 0, () => `duration ${j + 1} must be zero or positive (got ${describe(t)})`);
     maxStress = Math.max(maxStress, s);
     total.add(t);
   }
   const totalDuration = total.value;
-  require(totalDuration > 0, "the load history has no duration");
+  ensure(totalDuration > 0, "the load history has no duration");
   const reference = referenceDuration ?? totalDuration;
-  requirePositive(reference, "reference duration");
+  ensurePositive(reference, "reference duration");
   if (maxStress === 0) return { stress: 0, totalDuration, referenceDuration: reference };
   // Scaled by the largest stress so s^n cannot overflow.
   const damage = new CompensatedSum();
@@ -161,6 +161,6 @@ export function loadHistoryStress({
     if (stresses[j] > 0 && durations[j] > 0) damage.add(durations[j] * Math.pow(stresses[j] / maxStress, n));
   }
   const stress = maxStress * Math.exp((Math.log(damage.value) - Math.log(reference)) / n);
-  require(Number.isFinite(stress), "the equivalent stress is outside the range of double-precision numbers");
+  ensureFiniteResult(stress, "equivalent stress");
   return { stress, totalDuration, referenceDuration: reference };
 }

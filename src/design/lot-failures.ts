@@ -7,12 +7,12 @@
  * lots of a billion parts at Pf = 1e-9 or 0.5 alike neither underflow nor
  * loop through millions of negligible terms.
  */
-import { require, requireProbability } from "../errors";
+import { ensure, ensureProbability } from "../errors";
 
 function checkLot(failureProbability: number, lotSize: number): void {
-  require(Number.isFinite(failureProbability) && failureProbability >= 0 && failureProbability < 1,
+  ensure(Number.isFinite(failureProbability) && failureProbability >= 0 && failureProbability < 1,
     `failure probability must lie in [0, 1) (got ${failureProbability})`);
-  require(Number.isInteger(lotSize) && lotSize >= 1 && lotSize <= 1e9, `lot size must be a whole number from 1 to 1e9 (got ${lotSize})`);
+  ensure(Number.isInteger(lotSize) && lotSize >= 1 && lotSize <= 1e9, `lot size must be a whole number from 1 to 1e9 (got ${lotSize})`);
 }
 
 export function expectedFailures({ failureProbability, lotSize }: { failureProbability: number; lotSize: number }): number {
@@ -31,7 +31,7 @@ export function failuresUpperBound({
   confidence: number;
 }): number {
   checkLot(p, n);
-  requireProbability(confidence, "confidence");
+  ensureProbability(confidence, "confidence");
   if (p === 0) return 0;
   // Terms relative to the one at the mode, by the ratio pmf(k+1)/pmf(k) = (n-k)/(k+1) * p/q:
   // no factorials, and terms below 1e-20 of the peak change no quantile, so the walk spans

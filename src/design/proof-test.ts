@@ -8,7 +8,7 @@
  * set out this analysis; the relations below are re-derived from the Weibull
  * distribution and the power-law crack velocity (crack-growth-life.ts).
  */
-import { require, requirePositive } from "../errors";
+import { ensure, ensurePositive } from "../errors";
 import { failureProbability } from "../weibull/distribution";
 import { checkExponent, inertStrengthToSurvive, timeToFailureFromInertStrength } from "./crack-growth-life";
 
@@ -21,7 +21,7 @@ interface ProofWeibull {
 
 /** Fraction of parts that break in the proof test: 1 - exp(-k (s_p/sigma_theta)^m). */
 export function proofBreakFraction({ proofStress, shape, scale, sizeRatio = 1 }: ProofWeibull): number {
-  requirePositive(proofStress, "proof stress");
+  ensurePositive(proofStress, "proof stress");
   return failureProbability({ stress: proofStress, shape, scale, sizeRatio });
 }
 
@@ -37,11 +37,11 @@ export function postProofFailureProbability({
   scale,
   sizeRatio = 1,
 }: ProofWeibull & { stress: number }): number {
-  requirePositive(proofStress, "proof stress");
-  requirePositive(shape, "modulus");
-  requirePositive(scale, "characteristic strength");
-  requirePositive(sizeRatio, "size ratio");
-  require(Number.isFinite(stress) && stress >= 0, `stress must be zero or positive (got ${stress})`);
+  ensurePositive(proofStress, "proof stress");
+  ensurePositive(shape, "modulus");
+  ensurePositive(scale, "characteristic strength");
+  ensurePositive(sizeRatio, "size ratio");
+  ensure(Number.isFinite(stress) && stress >= 0, `stress must be zero or positive (got ${stress})`);
   if (stress <= proofStress) return 0;
   // k (s/th)^m (1 - (s_p/s)^m): the difference through expm1, so a stress just
   // above the proof stress keeps its digits.
@@ -70,9 +70,9 @@ export function proofMinimumLife({
   B: number;
 }): number {
   checkExponent(n);
-  requirePositive(proofStress, "proof stress");
-  requirePositive(serviceStress, "service stress");
-  require(
+  ensurePositive(proofStress, "proof stress");
+  ensurePositive(serviceStress, "service stress");
+  ensure(
     serviceStress <= proofStress,
     `the service stress (${serviceStress}) exceeds the proof stress (${proofStress}): the proof test guarantees nothing`,
   );

@@ -6,7 +6,7 @@
  * holds for any strength quantile, and for effective areas when the fracture
  * origins are at the surface.
  */
-import { requirePositive } from "../errors";
+import { ensurePositiveResult, ensurePositive } from "../errors";
 
 export function scaleStrengthToSize({
   strength,
@@ -19,10 +19,10 @@ export function scaleStrengthToSize({
   fromSize: number;
   toSize: number;
 }): number {
-  requirePositive(strength, "strength");
-  requirePositive(shape, "modulus");
-  requirePositive(fromSize, "effective size of the tested body");
-  requirePositive(toSize, "effective size of the other body");
+  ensurePositive(strength, "strength");
+  ensurePositive(shape, "modulus");
+  ensurePositive(fromSize, "effective size of the tested body");
+  ensurePositive(toSize, "effective size of the other body");
   return finitePositive(strength * Math.exp((Math.log(fromSize) - Math.log(toSize)) / shape));
 }
 
@@ -39,13 +39,13 @@ export function materialScale({
   shape: number;
   effectiveSize: number;
 }): number {
-  requirePositive(scale, "characteristic strength");
-  requirePositive(shape, "modulus");
-  requirePositive(effectiveSize, "effective size");
+  ensurePositive(scale, "characteristic strength");
+  ensurePositive(shape, "modulus");
+  ensurePositive(effectiveSize, "effective size");
   return finitePositive(scale * Math.exp(Math.log(effectiveSize) / shape));
 }
 
 function finitePositive(x: number): number {
-  requirePositive(x, "result (outside the double-precision range)");
+  ensurePositiveResult(x, "scaled strength");
   return x;
 }

@@ -44,7 +44,7 @@ export interface LoadStrength {
 }
 
 function positive(value: number, name: string): void {
-  if (!(Number.isFinite(value) && value > 0)) throw new InputError("value", `${name} must be a positive number (got ${format(value)})`);
+  if (!(Number.isFinite(value) && value > 0)) throw new InputError("input", `${name} must be a positive number (got ${format(value)})`);
 }
 
 function format(value: number): string {
@@ -53,10 +53,10 @@ function format(value: number): string {
 
 function innerSpanOk(innerSpan: number, outerSpan: number): void {
   if (!Number.isFinite(innerSpan) || innerSpan < 0) {
-    throw new InputError("value", `inner span must be 0 (three-point) or positive (got ${format(innerSpan)})`);
+    throw new InputError("input", `inner span must be 0 (three-point) or positive (got ${format(innerSpan)})`);
   }
   if (innerSpan >= outerSpan) {
-    throw new InputError("value", `the inner span (${innerSpan}) must be shorter than the outer span (${outerSpan})`);
+    throw new InputError("input", `the inner span (${innerSpan}) must be shorter than the outer span (${outerSpan})`);
   }
 }
 
@@ -69,7 +69,7 @@ function spanLimit(outerSpan: number, depth: number, depthName: string): string[
 }
 
 function finiteStrength(strength: number, what: string): number {
-  if (!Number.isFinite(strength)) throw new InputError("value", `the ${what} strength is too large to represent: check the load and the dimensions`);
+  if (!Number.isFinite(strength)) throw new InputError("notRepresentable", `the ${what} strength is too large to represent: check the load and the dimensions`);
   return strength;
 }
 
@@ -137,13 +137,13 @@ function checkDisk(innerName: string, inner: number, d: DiskInputs): void {
   positive(d.diskDiameter, "disk diameter");
   positive(d.thickness, "thickness");
   if (!(Number.isFinite(d.poisson) && d.poisson > -1 && d.poisson < 0.5)) {
-    throw new InputError("value", `Poisson's ratio must lie between -1 and 0.5 (got ${format(d.poisson)})`);
+    throw new InputError("input", `Poisson's ratio must lie between -1 and 0.5 (got ${format(d.poisson)})`);
   }
   if (inner >= d.supportDiameter) {
-    throw new InputError("value", `the ${innerName} (${inner}) must be smaller than the support diameter (${d.supportDiameter})`);
+    throw new InputError("input", `the ${innerName} (${inner}) must be smaller than the support diameter (${d.supportDiameter})`);
   }
   if (d.supportDiameter > d.diskDiameter) {
-    throw new InputError("value", `the support diameter (${d.supportDiameter}) must not exceed the disk diameter (${d.diskDiameter})`);
+    throw new InputError("input", `the support diameter (${d.supportDiameter}) must not exceed the disk diameter (${d.diskDiameter})`);
   }
 }
 

@@ -8,22 +8,22 @@
  * (modified Lentz). The quantile is found by Brent's method on the tail.
  * Checked against scipy.stats.t.ppf (test/fixtures/generate_crack_growth.py).
  */
-import { require } from "../errors";
+import { ensure } from "../errors";
 import { logGamma } from "./gamma";
 import { bracketIncreasing, findRoot } from "./roots";
 
 /** Upper-tail probability P(T > t) for t >= 0 with `df` degrees of freedom. */
 export function studentUpperTail(t: number, df: number): number {
-  require(Number.isFinite(df) && df > 0, `degrees of freedom must be positive (got ${df})`);
-  require(Number.isFinite(t) && t >= 0, `t must be zero or positive (got ${t})`);
+  ensure(Number.isFinite(df) && df > 0, `degrees of freedom must be positive (got ${df})`);
+  ensure(Number.isFinite(t) && t >= 0, `t must be zero or positive (got ${t})`);
   const x = df / (df + t * t);
   return 0.5 * regularizedBeta(x, df / 2, 0.5);
 }
 
 /** The quantile t_p of Student's t with `df` degrees of freedom, for 0.5 <= p < 1. */
 export function studentQuantile(p: number, df: number): { value: number; converged: boolean } {
-  require(Number.isFinite(p) && p >= 0.5 && p < 1, `probability must lie in [0.5, 1) (got ${p})`);
-  require(Number.isFinite(df) && df > 0, `degrees of freedom must be positive (got ${df})`);
+  ensure(Number.isFinite(p) && p >= 0.5 && p < 1, `probability must lie in [0.5, 1) (got ${p})`);
+  ensure(Number.isFinite(df) && df > 0, `degrees of freedom must be positive (got ${df})`);
   if (p === 0.5) return { value: 0, converged: true };
   const tail = 1 - p;
   // Closed forms where they exist: exact and free.

@@ -30,7 +30,7 @@
  * the integrand vanish smoothly at the zero crossing; accuracy is checked
  * against mpmath in test/size-criteria.test.ts.
  */
-import { InputError, requirePositive } from "../errors";
+import { ensurePositive, InputError } from "../errors";
 import { logGamma } from "../numeric/gamma";
 import { gaussLegendre } from "../numeric/quadrature";
 
@@ -51,7 +51,7 @@ export function parseCriterion(text: string | null | undefined): Criterion {
     MAXIMUMPRINCIPAL: "MAXPRINCIPAL",
   };
   const found = aliases[word];
-  if (!found) throw new InputError("value", `criterion "${text}" is not one of "PIA", "NSA", "MAXPRINCIPAL"`);
+  if (!found) throw new InputError("input", `criterion "${text}" is not one of "PIA", "NSA", "MAXPRINCIPAL"`);
   return found;
 }
 
@@ -82,7 +82,7 @@ export class NsaEvaluator {
   private readonly weights: Float64Array;
 
   constructor(shape: number) {
-    requirePositive(shape, "modulus");
+    ensurePositive(shape, "modulus");
     this.shape = shape;
     this.kS = nsaSurfaceConstant(shape);
     this.order = ruleOrder(shape);
@@ -190,7 +190,7 @@ export class NsaEvaluator {
 export type Intensity = (s1: number, s2: number, s3: number) => number;
 
 export function makeIntensity(criterion: Criterion, shape: number, form: FlawForm): Intensity {
-  requirePositive(shape, "modulus");
+  ensurePositive(shape, "modulus");
   const m = shape;
   switch (criterion) {
     case "PIA":

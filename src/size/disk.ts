@@ -23,7 +23,7 @@
  * rest by adaptive Gauss-Kronrod split at every sign change and stationary
  * point of the stresses, to 1e-12 relative.
  */
-import { require, requirePositive } from "../errors";
+import { ensureApplicable, ensureConverged, ensurePositive } from "../errors";
 import { findRoot } from "../numeric/roots";
 import { integrateAdaptive } from "../numeric/quadrature";
 import { type Criterion, type FlawForm, makeIntensity } from "./criteria";
@@ -102,10 +102,10 @@ export interface DiskSizeBreakdown {
 
 /** int_0^R 2 pi r [I(s/s_max) + I(-s/s_max)] dr for one form: the common core of area and volume. */
 function faceIntegral(field: DiskField, shape: number, criterion: Criterion, form: FlawForm): DiskSizeBreakdown {
-  requirePositive(shape, "modulus");
+  ensurePositive(shape, "modulus");
   const intensity = makeIntensity(criterion, shape, form);
   const peak = diskPeakStress(field);
-  require(peak > 0, "the disk carries no tensile stress");
+  ensureApplicable(peak > 0, "the disk carries no tensile stress");
   const inv = 1 / peak;
   const R = field.diskRadius;
   const regions: number[] = [];
@@ -138,7 +138,7 @@ function faceIntegral(field: DiskField, shape: number, criterion: Criterion, for
       region.outer,
       options,
     );
-    require(tensile.converged && loaded.converged, "the disk integral did not converge");
+    ensureConverged(tensile.converged && loaded.converged, "the disk integral did not converge");
     regions.push(tensile.value + loaded.value);
     loadedFace += loaded.value;
   }
@@ -166,8 +166,8 @@ export function diskEffectiveArea(options: DiskSizeOptions): number {
 
 /** Effective area of the cylindrical rim (its tensile half), for a disk of the given thickness. */
 export function diskRimArea({ field, shape, thickness }: { field: DiskField; shape: number; thickness: number }): number {
-  requirePositive(shape, "modulus");
-  requirePositive(thickness, "thickness");
+  ensurePositive(shape, "modulus");
+  ensurePositive(thickness, "thickness");
   const R = field.diskRadius;
   const last = field.regions[field.regions.length - 1];
   const hoop = Math.abs(evaluateTerm(last.hoop, R)) / diskPeakStress(field);
@@ -177,7 +177,7 @@ export function diskRimArea({ field, shape, thickness }: { field: DiskField; sha
 
 /** Effective volume referenced to uniaxial tension at the peak stress. */
 export function diskEffectiveVolume({ thickness, ...options }: DiskSizeOptions & { thickness: number }): number {
-  requirePositive(thickness, "thickness");
+  ensurePositive(thickness, "thickness");
   const faces = faceIntegral(options.field, options.shape, options.criterion ?? "PIA", "volume");
   return (thickness / (2 * (options.shape + 1))) * faces.total;
 }

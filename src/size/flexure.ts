@@ -22,7 +22,7 @@
  * Uniaxial tension: the gauge section's volume and lateral area (the stress
  * is the peak everywhere in it; shoulders and grips are left out).
  */
-import { InputError, require, requirePositive } from "../errors";
+import { ensure, ensurePositive, InputError } from "../errors";
 import { logGamma } from "../numeric/gamma";
 
 export interface Spans {
@@ -35,11 +35,11 @@ export interface Spans {
 }
 
 function spanFactor({ shape, outerSpan, innerSpan }: Spans): number {
-  requirePositive(shape, "modulus");
-  requirePositive(outerSpan, "outer span");
-  if (typeof innerSpan !== "number" || !Number.isFinite(innerSpan)) throw new InputError("num", "inner span must be a finite number");
-  require(innerSpan >= 0, `inner span must be 0 (three-point) or positive (got ${innerSpan})`);
-  require(
+  ensurePositive(shape, "modulus");
+  ensurePositive(outerSpan, "outer span");
+  if (typeof innerSpan !== "number" || !Number.isFinite(innerSpan)) throw new InputError("input", "inner span must be a finite number");
+  ensure(innerSpan >= 0, `inner span must be 0 (three-point) or positive (got ${innerSpan})`);
+  ensure(
     innerSpan < outerSpan,
     `the inner span (${innerSpan}) must be shorter than the outer span (${outerSpan})`,
   );
@@ -56,16 +56,16 @@ export interface BarFlexure extends Spans {
 /** Effective volume of a rectangular bar in three- or four-point flexure. */
 export function barFlexureVolume(spec: BarFlexure): number {
   const along = spanFactor(spec);
-  requirePositive(spec.width, "width");
-  requirePositive(spec.depth, "depth");
+  ensurePositive(spec.width, "width");
+  ensurePositive(spec.depth, "depth");
   return (along * spec.width * spec.depth) / (2 * (spec.shape + 1));
 }
 
 /** Effective area of a rectangular bar in flexure: tensile face plus the tensile halves of the side faces. */
 export function barFlexureArea(spec: BarFlexure): number {
   const along = spanFactor(spec);
-  requirePositive(spec.width, "width");
-  requirePositive(spec.depth, "depth");
+  ensurePositive(spec.width, "width");
+  ensurePositive(spec.depth, "depth");
   return along * (spec.width + spec.depth / (spec.shape + 1));
 }
 
@@ -76,7 +76,7 @@ export interface RodFlexure extends Spans {
 /** Effective volume of a round rod in three- or four-point flexure. */
 export function rodFlexureVolume(spec: RodFlexure): number {
   const along = spanFactor(spec);
-  requirePositive(spec.diameter, "diameter");
+  ensurePositive(spec.diameter, "diameter");
   const R = spec.diameter / 2;
   const m = spec.shape;
   const ratio = Math.exp(logGamma((m + 1) / 2) - logGamma((m + 4) / 2));
@@ -86,7 +86,7 @@ export function rodFlexureVolume(spec: RodFlexure): number {
 /** Effective area of a round rod in three- or four-point flexure. */
 export function rodFlexureArea(spec: RodFlexure): number {
   const along = spanFactor(spec);
-  requirePositive(spec.diameter, "diameter");
+  ensurePositive(spec.diameter, "diameter");
   const R = spec.diameter / 2;
   const m = spec.shape;
   const ratio = Math.exp(logGamma((m + 1) / 2) - logGamma((m + 2) / 2));
@@ -99,11 +99,11 @@ export type TensionGauge =
   | { gaugeLength: number; diameter: number };
 
 function checkGauge(g: TensionGauge): void {
-  requirePositive(g.gaugeLength, "gauge length");
-  if ("diameter" in g) requirePositive(g.diameter, "diameter");
+  ensurePositive(g.gaugeLength, "gauge length");
+  if ("diameter" in g) ensurePositive(g.diameter, "diameter");
   else {
-    requirePositive(g.width, "width");
-    requirePositive(g.depth, "depth");
+    ensurePositive(g.width, "width");
+    ensurePositive(g.depth, "depth");
   }
 }
 

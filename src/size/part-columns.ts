@@ -74,19 +74,19 @@ function pick(ref: string | number, header: string[] | null, fieldCount: number,
   if (typeof ref === "number" || /^\s*\d+\s*$/.test(String(ref))) {
     const k = Number(ref);
     if (!(Number.isInteger(k) && k >= 1 && k <= fieldCount)) {
-      throw new InputError("value", `${what} column ${ref} is outside 1..${fieldCount}`);
+      throw new InputError("input", `${what} column ${ref} is outside 1..${fieldCount}`);
     }
     return k - 1;
   }
-  if (!header) throw new InputError("value", `${what} column "${ref}" given by name, but the table has no header`);
+  if (!header) throw new InputError("input", `${what} column "${ref}" given by name, but the table has no header`);
   const at = header.map(norm).indexOf(norm(ref));
-  if (at < 0) throw new InputError("value", `${what} column "${ref}" is not in the header (${header.join(", ")})`);
+  if (at < 0) throw new InputError("input", `${what} column "${ref}" is not in the header (${header.join(", ")})`);
   return at;
 }
 
 function kindOf(count: number): StressColumns {
   if (count === 1 || count === 3 || count === 6) return count;
-  throw new InputError("value", `give 1, 3 or 6 stress columns (got ${count})`);
+  throw new InputError("input", `give 1, 3 or 6 stress columns (got ${count})`);
 }
 
 /** Resolves the columns from the header (or null) and the number of fields per row. */
@@ -107,12 +107,12 @@ export function resolveColumns(header: string[] | null, fieldCount: number, choi
         if (single >= 0) stress = [single];
       }
       if (!stress) {
-        throw new InputError("value", `no stress columns recognised in the header (${header!.join(", ")}); name them with --stress`);
+        throw new InputError("input", `no stress columns recognised in the header (${header!.join(", ")}); name them with --stress`);
       }
     }
     if (size < 0) {
       size = findName(names, SIZE);
-      if (size < 0) throw new InputError("value", `no size column recognised in the header (${header!.join(", ")}); name it with --size`);
+      if (size < 0) throw new InputError("input", `no size column recognised in the header (${header!.join(", ")}); name it with --size`);
     }
     if (id === -2) id = findName(names, ID);
   } else if (!stress || size < 0) {
@@ -127,7 +127,7 @@ export function resolveColumns(header: string[] | null, fieldCount: number, choi
     const layout = layouts[fieldCount];
     if (!layout) {
       throw new InputError(
-        "value",
+        "input",
         `a table without a header and with ${fieldCount} fields per row needs --stress and --size column choices`,
       );
     }
@@ -138,7 +138,7 @@ export function resolveColumns(header: string[] | null, fieldCount: number, choi
   if (id === -2) id = -1;
   const kind = kindOf(stress.length);
   const all = [...stress, size, ...(id >= 0 ? [id] : [])];
-  if (new Set(all).size !== all.length) throw new InputError("value", "the stress, size and id columns must all differ");
+  if (new Set(all).size !== all.length) throw new InputError("input", "the stress, size and id columns must all differ");
   const label = (k: number) => (header ? header[k] : `column ${k + 1}`);
   return {
     stress,

@@ -14,7 +14,7 @@
  * every chosen column: the first that does not stops the read with its line
  * number (a silently skipped element would understate the risk).
  */
-import { InputError, requirePositive } from "../errors";
+import { ensurePositive, InputError } from "../errors";
 import { type Criterion, NsaEvaluator } from "./criteria";
 import {
   COMMA,
@@ -97,7 +97,7 @@ function delimiterByte(text: string | undefined): number | null {
   if (text === "space" || text === " ") return WHITESPACE;
   if (text === "tab" || text === "\\t" || text === "\t") return 0x09;
   if (text.length === 1) return text.charCodeAt(0);
-  throw new InputError("value", `delimiter must be one character, "tab", "space" or "auto" (got "${text}")`);
+  throw new InputError("input", `delimiter must be one character, "tab", "space" or "auto" (got "${text}")`);
 }
 
 function delimiterName(b: number): string {
@@ -143,8 +143,8 @@ export class PartTableReader {
   private held: Held[] = [];
 
   constructor(options: PartStreamOptions) {
-    requirePositive(options.shape, "modulus");
-    if (options.materialScale !== undefined) requirePositive(options.materialScale, "material scale");
+    ensurePositive(options.shape, "modulus");
+    if (options.materialScale !== undefined) ensurePositive(options.materialScale, "material scale");
     this.shape = options.shape;
     this.criterion = options.criterion ?? "PIA";
     this.materialScale = options.materialScale;
@@ -352,7 +352,7 @@ export class PartTableReader {
           if (v !== v) {
             const what = slot === k ? "size" : "stress";
             const text = decodeAscii(buf, i, e).trim();
-            throw new InputError("value", `line ${this.lineNumber}: the ${what} field ${field + 1} ("${text}") is not a number`);
+            throw new InputError("input", `line ${this.lineNumber}: the ${what} field ${field + 1} ("${text}") is not a number`);
           }
           if (slot === k) this.sizes[row] = v;
           else raw[row * k + slot] = v;
@@ -363,10 +363,10 @@ export class PartTableReader {
       i = nextFieldStart(buf, e, end, delimiter);
     }
     if (field <= last) {
-      throw new InputError("value", `line ${this.lineNumber}: expected at least ${last + 1} fields, found ${field}`);
+      throw new InputError("input", `line ${this.lineNumber}: expected at least ${last + 1} fields, found ${field}`);
     }
     const size = this.sizes[row];
-    if (!(size >= 0)) throw new InputError("num", `line ${this.lineNumber}: the element size must be >= 0 (got ${size})`);
+    if (!(size >= 0)) throw new InputError("input", `line ${this.lineNumber}: the element size must be >= 0 (got ${size})`);
     this.lines[row] = this.lineNumber;
     this.rowsRead++;
     this.inBatch++;
@@ -472,7 +472,7 @@ export class PartTableReader {
       this.carry = new Uint8Array(0);
       this.line(last, 0, last.length);
     }
-    if (this.columns === null) throw new InputError("value", "the table is empty");
+    if (this.columns === null) throw new InputError("input", "the table is empty");
     this.flush();
     const effectiveSize = this.peak > 0 ? totalValue(this.total) : 0;
     let risk: number | null = null;

@@ -18,7 +18,7 @@
  * syz, szx; principal stresses by principal.ts). Sums are compensated; the
  * stresses are divided by s_max before the power, so nothing overflows.
  */
-import { InputError, require, requirePositive } from "../errors";
+import { ensure, ensureApplicable, ensurePositive, InputError } from "../errors";
 import { type Criterion, NsaEvaluator } from "./criteria";
 import { type CompensatedTotal, ScaledPower, newTotal, totalValue } from "./power-kernel";
 import { principalStresses } from "./principal";
@@ -51,13 +51,13 @@ export interface PartRiskSum {
 function scan(principal: Float64Array, stride: number, sizes: Float64Array): { peak: number; peakRow: number } {
   const rows = sizes.length;
   if (principal.length !== rows * stride) {
-    throw new InputError("value", `stresses have ${principal.length / stride} rows but sizes have ${rows}`);
+    throw new InputError("input", `stresses have ${principal.length / stride} rows but sizes have ${rows}`);
   }
   let peak = 0;
   let peakIndex = -1;
   for (let i = 0; i < principal.length; i++) {
     const v = principal[i];
-    if (v - v !== 0) throw new InputError("num", `row ${Math.floor(i / stride) + 1}: a stress is not a finite number`);
+    if (v - v !== 0) throw new InputError("input", `row ${Math.floor(i / stride) + 1}: a stress is not a finite number`);
     if (v > peak) {
       peak = v;
       peakIndex = i;
@@ -65,7 +65,7 @@ function scan(principal: Float64Array, stride: number, sizes: Float64Array): { p
   }
   for (let r = 0; r < rows; r++) {
     const s = sizes[r];
-    if (!(s >= 0 && s < Infinity)) throw new InputError("num", `row ${r + 1}: the element size must be a finite number >= 0 (got ${s})`);
+    if (!(s >= 0 && s < Infinity)) throw new InputError("input", `row ${r + 1}: the element size must be a finite number >= 0 (got ${s})`);
   }
   return { peak, peakRow: peakIndex < 0 ? -1 : Math.floor(peakIndex / stride) };
 }
@@ -77,8 +77,8 @@ function scan(principal: Float64Array, stride: number, sizes: Float64Array): { p
  * average per element (about 10-50 us each).
  */
 export function partRiskSum({ principal, stride, sizes, shape, criterion = "PIA" }: PartRiskInput): PartRiskSum {
-  requirePositive(shape, "modulus");
-  require(stride === 1 || stride === 3, `stride must be 1 or 3 (got ${stride})`);
+  ensurePositive(shape, "modulus");
+  ensure(stride === 1 || stride === 3, `stride must be 1 or 3 (got ${stride})`);
   const rows = sizes.length;
   const { peak, peakRow } = scan(principal, stride, sizes);
   if (peak === 0) return { peak: 0, peakRow: -1, effectiveSize: 0, rows };
@@ -135,14 +135,14 @@ export function accumulate(
 
 /** Principal stresses (stride 3, largest first) of a row-major table of tensors sxx, syy, szz, sxy, syz, szx. */
 export function principalFromTensors(tensors: Float64Array): Float64Array {
-  require(tensors.length % 6 === 0, "a tensor table needs six columns");
+  ensure(tensors.length % 6 === 0, "a tensor table needs six columns");
   const rows = tensors.length / 6;
   const out = new Float64Array(rows * 3);
   for (let r = 0; r < rows; r++) {
     const b = r * 6;
     for (let k = 0; k < 6; k++) {
       const v = tensors[b + k];
-      if (v - v !== 0) throw new InputError("num", `row ${r + 1}: a stress component is not a finite number`);
+      if (v - v !== 0) throw new InputError("input", `row ${r + 1}: a stress component is not a finite number`);
     }
     principalStresses(tensors[b], tensors[b + 1], tensors[b + 2], tensors[b + 3], tensors[b + 4], tensors[b + 5], out, r * 3);
   }
@@ -169,7 +169,7 @@ function asPrincipal(table: PartTable): { principal: Float64Array; stride: 1 | 3
     case 6:
       return { principal: principalFromTensors(table.stresses), stride: 3 };
     default:
-      throw new InputError("value", `stresses need 1, 3 or 6 columns (got ${String(table.columns)})`);
+      throw new InputError("input", `stresses need 1, 3 or 6 columns (got ${String(table.columns)})`);
   }
 }
 
@@ -182,13 +182,13 @@ export function partRisk(table: PartTable): PartRiskSum {
 /** Effective size of the part referenced to uniaxial tension at its peak stress. */
 export function partEffectiveSize(table: PartTable): number {
   const risk = partRisk(table);
-  require(risk.peak > 0, "no element carries tensile stress, so the effective size is undefined");
+  ensureApplicable(risk.peak > 0, "no element carries tensile stress, so the effective size is undefined");
   return risk.effectiveSize;
 }
 
 /** Risk of rupture sum_e V_e I_e(s_e/sigma_0) from a risk sum, without overflow. */
 export function riskOfRupture(risk: PartRiskSum, shape: number, materialScale: number): number {
-  requirePositive(materialScale, "material scale");
+  ensurePositive(materialScale, "material scale");
   if (risk.peak === 0 || risk.effectiveSize === 0) return 0;
   return Math.exp(Math.log(risk.effectiveSize) + shape * Math.log(risk.peak / materialScale));
 }
@@ -203,7 +203,7 @@ export function partFailureProbability(table: PartTable & { materialScale: numbe
 export function partRiskShares(table: PartTable): Float64Array {
   const { principal, stride } = asPrincipal(table);
   const { peak } = scan(principal, stride, table.sizes);
-  require(peak > 0, "no element carries tensile stress, so there is no risk to share");
+  ensureApplicable(peak > 0, "no element carries tensile stress, so there is no risk to share");
   const rows = table.sizes.length;
   const terms = new Float64Array(rows);
   const criterion = table.criterion ?? "PIA";

@@ -36,7 +36,7 @@
  * Every region's components have the form c + L ln(r/ref) + G/r^2 + S r^2,
  * so peaks and sign changes can be found exactly.
  */
-import { InputError, require, requirePositive } from "../errors";
+import { ensure, ensurePositive, InputError } from "../errors";
 
 /** c + ln * ln(r/ref) + invSq / r^2 + sq * r^2 */
 export interface RadialTerm {
@@ -105,19 +105,19 @@ export interface DiskGeometry {
 }
 
 function checkGeometry(innerName: string, innerDiameter: number, g: DiskGeometry): void {
-  requirePositive(innerDiameter, innerName);
-  requirePositive(g.supportDiameter, "support diameter");
-  requirePositive(g.diskDiameter, "disk diameter");
-  require(
+  ensurePositive(innerDiameter, innerName);
+  ensurePositive(g.supportDiameter, "support diameter");
+  ensurePositive(g.diskDiameter, "disk diameter");
+  ensure(
     innerDiameter < g.supportDiameter,
     `the ${innerName} (${innerDiameter}) must be smaller than the support diameter (${g.supportDiameter})`,
   );
-  require(
+  ensure(
     g.supportDiameter <= g.diskDiameter,
     `the support diameter (${g.supportDiameter}) must not exceed the disk diameter (${g.diskDiameter})`,
   );
-  if (typeof g.poisson !== "number" || !Number.isFinite(g.poisson)) throw new InputError("value", "Poisson's ratio must be a number");
-  require(g.poisson > -1 && g.poisson < 0.5, `Poisson's ratio must lie between -1 and 0.5 (got ${g.poisson})`);
+  if (typeof g.poisson !== "number" || !Number.isFinite(g.poisson)) throw new InputError("input", "Poisson's ratio must be a number");
+  ensure(g.poisson > -1 && g.poisson < 0.5, `Poisson's ratio must lie between -1 and 0.5 (got ${g.poisson})`);
 }
 
 function overhang(b: number, R: number, K: number): FieldRegion {

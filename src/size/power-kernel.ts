@@ -18,7 +18,7 @@
  * Moduli above MAX_TABLE_SHAPE, big-endian platforms and subnormal inputs
  * fall back to Math.pow.
  */
-import { requirePositive } from "../errors";
+import { ensurePositive } from "../errors";
 
 const DEGREE = 7;
 const MAX_BITS = 14;
@@ -60,8 +60,8 @@ export class ScaledPower {
   private readonly c: Float64Array;
 
   constructor(shape: number, reference: number) {
-    requirePositive(shape, "modulus");
-    requirePositive(reference, "reference stress");
+    ensurePositive(shape, "modulus");
+    ensurePositive(reference, "reference stress");
     this.shape = shape;
     this.reference = reference;
     this.useTables = LITTLE_ENDIAN && shape <= MAX_TABLE_SHAPE;

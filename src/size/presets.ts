@@ -10,7 +10,7 @@
  * Names are matched ignoring case, spaces, hyphens, slashes and a leading
  * "ASTM" or "ISO": "astm c1161 b 4pt" finds C1161-B-4PT.
  */
-import { InputError, require, requirePositive } from "../errors";
+import { ensureApplicable, ensurePositive, InputError } from "../errors";
 import type { Criterion } from "./criteria";
 import { pistonOnBallsArea, pistonOnBallsVolume, ringOnRingArea, ringOnRingVolume } from "./disk";
 import { barFlexureArea, barFlexureVolume } from "./flexure";
@@ -144,7 +144,7 @@ export function findSpecimen(configuration: string): SpecimenPreset {
   const found = typeof configuration === "string" ? BY_KEY.get(key(configuration)) : undefined;
   if (!found) {
     throw new InputError(
-      "value",
+      "input",
       `unknown configuration "${String(configuration)}"; use one of ${SPECIMENS.map((s) => s.name).join(", ")}`,
     );
   }
@@ -171,7 +171,7 @@ export function specimenEffectiveSize({
   poisson,
   criterion = "PIA",
 }: SpecimenSizeOptions): number {
-  requirePositive(shape, "modulus");
+  ensurePositive(shape, "modulus");
   const preset = findSpecimen(configuration);
   if (preset.kind === "bar-flexure") {
     const spec = {
@@ -184,7 +184,7 @@ export function specimenEffectiveSize({
     return flaws === "surface" ? barFlexureArea(spec) : barFlexureVolume(spec);
   }
   if (poisson === undefined || poisson === null) {
-    throw new InputError("value", `${preset.name} is a disk test: give Poisson's ratio`);
+    throw new InputError("input", `${preset.name} is a disk test: give Poisson's ratio`);
   }
   const disk = {
     shape,
@@ -194,7 +194,7 @@ export function specimenEffectiveSize({
     diskDiameter: preset.diskDiameter.value,
   };
   if (flaws === "volume") {
-    require(preset.thickness !== null, `${preset.name} fixes no specimen thickness, so it has no effective volume here`);
+    ensureApplicable(preset.thickness !== null, `${preset.name} fixes no specimen thickness, so it has no effective volume here`);
   }
   const thickness = preset.thickness?.value ?? NaN;
   if (preset.kind === "ring-on-ring") {

@@ -20,7 +20,7 @@
  * ln U and ln(1 - U) are formed from z = (s/th)^m directly: ln(1 - U) = -z and
  * ln U = ln(-expm1(-z)), so neither tail loses digits.
  */
-import { require } from "../errors";
+import { ensureApplicable, ensureConverged } from "../errors";
 import { CompensatedSum } from "../numeric/sum";
 import { fitMaximumLikelihood } from "./maximum-likelihood";
 import { checkSample, type StrengthSample } from "./sample";
@@ -74,9 +74,9 @@ export function observedSignificance(aStar: number): number {
 /** A2, A* and OSL of a complete sample against its own raw ML fit. */
 export function fitQuality(sample: StrengthSample): FitQuality {
   const { censored } = checkSample(sample);
-  require(!censored.some((c) => c === 1), "the Anderson-Darling test is defined for complete samples only (this sample has censored specimens)");
+  ensureApplicable(!censored.some((c) => c === 1), "the Anderson-Darling test is defined for complete samples only (this sample has censored specimens)");
   const fit = fitMaximumLikelihood(sample);
-  require(fit.converged, "the maximum-likelihood fit did not converge");
+  ensureConverged(fit.converged, "the maximum-likelihood fit did not converge");
   const a2 = andersonDarlingStatistic({ strengths: sample.strengths, shape: fit.shape, scale: fit.scale });
   const aStar = modifiedAndersonDarling(a2, sample.strengths.length);
   return { a2, aStar, osl: observedSignificance(aStar), specimens: sample.strengths.length };

@@ -24,7 +24,7 @@
  * the ML estimates. The generator is seeded from the data, so the same sample
  * always gives the same numbers: a recalculation never changes a cell.
  */
-import { require } from "../errors";
+import { ensure, describe } from "../errors";
 import { SeededRandom } from "../numeric/random";
 import { requireSimulationSize } from "./simulation-limits";
 import { solveShapeFromLogs } from "./pivotal-simulation";
@@ -89,7 +89,7 @@ export function bootstrapCensored({
     scaleLogError[kept] = solve.shape * Math.log(scale / fit.scale);
     kept++;
   }
-  require(kept >= replications / 2, "too few failures in this sample for a bootstrap of its censoring: test more specimens");
+  ensure(kept >= replications / 2, "too few failures in this sample for a bootstrap of its censoring: test more specimens");
   const draws = { shapeRatio: shapeRatio.slice(0, kept), scaleLogError: scaleLogError.slice(0, kept), replications };
   if (cache.size >= CACHE_ENTRIES) cache.delete(cache.keys().next().value!);
   cache.set(key, draws);

@@ -17,7 +17,7 @@
  * ratio for surface flaws). The design stress at survival S solves
  * sum_j k_j (s/th_j)^m_j = -ln S (Brent's method on ln s).
  */
-import { InputError, require, requirePositive, requireProbability } from "../errors";
+import { ensure, ensureConverged, ensurePositiveResult, ensurePositive, ensureProbability, InputError } from "../errors";
 import { findRoot } from "../numeric/roots";
 import { cumulativeHazard, type WeibullParameters } from "./distribution";
 import type { StrengthSample } from "./sample";
@@ -45,15 +45,15 @@ export function populationSample({
   population: string;
 }): StrengthSample {
   if (origins.length !== strengths.length) {
-    throw new InputError("value", `the origin labels (${origins.length}) do not match the strengths (${strengths.length})`);
+    throw new InputError("input", `the origin labels (${origins.length}) do not match the strengths (${strengths.length})`);
   }
   const wanted = normaliseLabel(population);
-  if (!wanted) throw new InputError("value", "name the flaw population to fit (its origin label)");
+  if (!wanted) throw new InputError("input", "name the flaw population to fit (its origin label)");
   origins.forEach((o, i) => {
-    if (!normaliseLabel(o)) throw new InputError("value", `specimen ${i + 1} has no fracture-origin label`);
+    if (!normaliseLabel(o)) throw new InputError("input", `specimen ${i + 1} has no fracture-origin label`);
   });
   const censored = origins.map((o) => normaliseLabel(o) !== wanted);
-  require(
+  ensure(
     censored.some((c) => !c),
     `no specimen has the origin label "${population}" (labels present: ${[...new Set(origins.map(normaliseLabel))].join(", ")})`,
   );
@@ -67,25 +67,25 @@ function totalHazard(stress: number, populations: readonly Population[]): number
 }
 
 function checkPopulations(populations: readonly Population[]): void {
-  require(populations.length >= 1, "give at least one flaw population");
+  ensure(populations.length >= 1, "give at least one flaw population");
   for (const p of populations) {
-    requirePositive(p.shape, "modulus");
-    requirePositive(p.scale, "characteristic strength");
-    requirePositive(p.sizeRatio ?? 1, "size ratio");
+    ensurePositive(p.shape, "modulus");
+    ensurePositive(p.scale, "characteristic strength");
+    ensurePositive(p.sizeRatio ?? 1, "size ratio");
   }
 }
 
 /** Failure probability at `stress` with all populations acting: -expm1(-sum of hazards). */
 export function competingFailureProbability({ stress, populations }: { stress: number; populations: readonly Population[] }): number {
   checkPopulations(populations);
-  require(Number.isFinite(stress) && stress >= 0, `stress must be zero or positive (got ${stress})`);
+  ensure(Number.isFinite(stress) && stress >= 0, `stress must be zero or positive (got ${stress})`);
   return -Math.expm1(-totalHazard(stress, populations));
 }
 
 /** Stress a body survives with probability `survival` with all populations acting. */
 export function competingDesignStress({ survival, populations }: { survival: number; populations: readonly Population[] }): number {
   checkPopulations(populations);
-  requireProbability(survival, "survival probability");
+  ensureProbability(survival, "survival probability");
   const target = -Math.log(survival);
   // Stress at which one population alone reaches `hazard`: th exp((ln H - ln k)/m), in logs.
   const alone = (hazard: number) =>
@@ -93,10 +93,11 @@ export function competingDesignStress({ survival, populations }: { survival: num
   // Each population alone reaching the whole hazard bounds the root above; each reaching 1/J of it bounds it below.
   const hi = alone(target);
   const lo = alone(target / populations.length);
-  require(Number.isFinite(hi) && hi > 0 && Number.isFinite(lo) && lo > 0, "the design stress is outside the range of double-precision numbers");
+  ensurePositiveResult(hi, "design stress");
+  ensurePositiveResult(lo, "design stress");
   if (hi === lo) return hi;
   const logTarget = Math.log(target);
   const result = findRoot((u) => Math.log(totalHazard(Math.exp(u), populations)) - logTarget, Math.log(lo), Math.log(hi));
-  if (!result.converged) throw new InputError("num", "the design stress solve did not converge");
+  ensureConverged(result.converged, "the design stress solve did not converge");
   return Math.exp(result.root);
 }

@@ -23,7 +23,7 @@
  * censoring values sit), so censored bounds are approximate; the bootstrap is
  * seeded by the data, so a recalculation never changes the result.
  */
-import { require, requireProbability } from "../errors";
+import { ensure, ensureConverged, ensurePositiveResult, ensureProbability } from "../errors";
 import { bootstrapCensored } from "./censored-bootstrap";
 import { fitMaximumLikelihood, type MaximumLikelihoodFit } from "./maximum-likelihood";
 import { pivotalTable } from "./pivotal-table";
@@ -109,7 +109,7 @@ export function pivotalSource(sample: StrengthSample, fit?: MaximumLikelihoodFit
   }
   const { q, t } = sorted;
   const inTail = (p: number) => {
-    require(
+    ensure(
       Math.min(p, 1 - p) * q.length >= MIN_TAIL_DRAWS,
       `the bootstrap of this censored sample has ${q.length} draws, too few beyond the ${p} quantile for a bound at this confidence: lower the confidence`,
     );
@@ -129,13 +129,13 @@ export function pivotalSource(sample: StrengthSample, fit?: MaximumLikelihoodFit
  * lower bound takes the quantile at `forLower`, the upper at `forUpper`.
  */
 export function tailProbabilities(confidence: number, sides: BoundSides): { forLower: number; forUpper: number } {
-  requireProbability(confidence, "confidence");
-  require(sides === 1 || sides === 2, `sides must be 1 or 2 (got ${sides})`);
+  ensureProbability(confidence, "confidence");
+  ensure(sides === 1 || sides === 2, `sides must be 1 or 2 (got ${sides})`);
   const a = sides === 2 ? (1 - confidence) / 2 : 1 - confidence;
   const { lowest, highest } = PIVOTAL_PROBABILITIES;
   // 1e-12 absorbs the rounding of (1 - C)/2 at the table's end points.
   const inside = (p: number) => p >= lowest - 1e-12 && p <= highest + 1e-12;
-  require(
+  ensure(
     inside(a) && inside(1 - a),
     sides === 2
       ? `a two-sided bound needs a confidence of at most 0.99 (got ${confidence}): the pivotal quantiles are simulated from probability ${lowest} to ${highest}`
@@ -159,7 +159,7 @@ export function parameterBounds({
   const { forLower, forUpper } = tailProbabilities(confidence, sides);
   const sample = { strengths, censored };
   const fit = fitMaximumLikelihood(sample);
-  require(fit.converged, "the maximum-likelihood fit did not converge");
+  ensureConverged(fit.converged, "the maximum-likelihood fit did not converge");
   const source = pivotalSource(sample, fit);
   const m = fit.shape;
   const shape = { lower: m / source.shapeQuantile(forLower), upper: m / source.shapeQuantile(forUpper) };
@@ -168,7 +168,7 @@ export function parameterBounds({
     upper: fit.scale * Math.exp(-source.scaleQuantile(forUpper) / m),
   };
   for (const v of [shape.lower, shape.upper, scale.lower, scale.upper]) {
-    require(Number.isFinite(v) && v > 0, "a confidence bound is outside the range of double-precision numbers");
+    ensurePositiveResult(v, "confidence bound");
   }
   return { fit, shape, scale, confidence, sides, source };
 }

@@ -20,7 +20,7 @@
  * u_b = t_b + w (1 - q_b) = m_b ln(x_b / x_hat), the bootstrap counterpart
  * of u; the bound is then approximate, as for the parameter bounds.
  */
-import { require, requireProbability } from "../errors";
+import { ensure, ensureConverged, ensurePositiveResult, ensureProbability } from "../errors";
 import { isCensored, MIN_TAIL_DRAWS, pivotalSource, PIVOTAL_PROBABILITIES } from "./confidence-bounds";
 import { fitMaximumLikelihood } from "./maximum-likelihood";
 import { sortedQuantile } from "./pivotal-simulation";
@@ -44,17 +44,17 @@ export function designStressBound({
   confidence = 0.95,
   sizeRatio = 1,
 }: StrengthSample & { survival: number; confidence?: number; sizeRatio?: number }): DesignStressBound {
-  requireProbability(survival, "survival probability");
-  requireProbability(confidence, "confidence");
-  require(Number.isFinite(sizeRatio) && sizeRatio > 0, `size ratio must be a positive number (got ${sizeRatio})`);
+  ensureProbability(survival, "survival probability");
+  ensureProbability(confidence, "confidence");
+  ensure(Number.isFinite(sizeRatio) && sizeRatio > 0, `size ratio must be a positive number (got ${sizeRatio})`);
   const { lowest, highest } = PIVOTAL_PROBABILITIES;
-  require(
+  ensure(
     confidence >= lowest && confidence <= highest,
     `confidence must lie from ${lowest} to ${highest} for this bound (got ${confidence}): the pivotal quantities are simulated over that range`,
   );
   const sample = { strengths, censored };
   const fit = fitMaximumLikelihood(sample);
-  require(fit.converged, "the maximum-likelihood fit did not converge");
+  ensureConverged(fit.converged, "the maximum-likelihood fit did not converge");
   // -ln S is exact for S near 1 (no 1 - S subtraction).
   const w = Math.log(-Math.log(survival)) - Math.log(sizeRatio);
   const m = fit.shape;
@@ -64,7 +64,7 @@ export function designStressBound({
     uC = quantilePivotQuantile({ specimens: strengths.length, logHazard: w, probability: confidence });
   } else {
     const { shapeRatio, scaleLogError } = pivotalSource(sample, fit).pairs!;
-    require(
+    ensure(
       Math.min(confidence, 1 - confidence) * shapeRatio.length >= MIN_TAIL_DRAWS,
       `the bootstrap of this censored sample has ${shapeRatio.length} draws, too few for a bound at confidence ${confidence}: lower the confidence`,
     );
@@ -75,6 +75,7 @@ export function designStressBound({
   }
   const estimate = fit.scale * Math.exp(w / m);
   const lower = fit.scale * Math.exp((w - uC) / m);
-  require(Number.isFinite(lower) && lower > 0 && Number.isFinite(estimate), "the design stress bound is outside the range of double-precision numbers");
+  ensurePositiveResult(lower, "design stress bound");
+  ensurePositiveResult(estimate, "design stress");
   return { lower, estimate, pivotQuantile: uC, source: censoredSample ? "bootstrap" : "table" };
 }

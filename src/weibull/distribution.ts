@@ -9,7 +9,7 @@
  * Pf = 1e-4 .. 1e-9, where `1 - exp(-x)` keeps only a few digits, so every
  * probability here goes through expm1/log1p.
  */
-import { require, requirePositive, requireProbability } from "../errors";
+import { ensure, ensurePositiveResult, ensurePositive, ensureProbability } from "../errors";
 import { gamma, logGamma } from "../numeric/gamma";
 
 export interface WeibullParameters {
@@ -26,15 +26,15 @@ interface AtStress extends WeibullParameters {
 }
 
 function checkParameters({ shape, scale }: WeibullParameters, sizeRatio: number): void {
-  requirePositive(shape, "modulus");
-  requirePositive(scale, "characteristic strength");
-  requirePositive(sizeRatio, "size ratio");
+  ensurePositive(shape, "modulus");
+  ensurePositive(scale, "characteristic strength");
+  ensurePositive(sizeRatio, "size ratio");
 }
 
 /** The cumulative hazard k (s/sigma_theta)^m, i.e. -ln(survival). */
 export function cumulativeHazard({ stress, shape, scale, sizeRatio = 1 }: AtStress): number {
   checkParameters({ shape, scale }, sizeRatio);
-  require(Number.isFinite(stress) && stress >= 0, `stress must be zero or positive (got ${stress})`);
+  ensure(Number.isFinite(stress) && stress >= 0, `stress must be zero or positive (got ${stress})`);
   if (stress === 0) return 0;
   const hazard = sizeRatio * Math.pow(stress / scale, shape);
   if (hazard > 0 && Number.isFinite(hazard)) return hazard;
@@ -60,7 +60,7 @@ export function strengthAtFailureProbability({
   sizeRatio = 1,
 }: WeibullParameters & { failureProbability: number; sizeRatio?: number }): number {
   checkParameters({ shape, scale }, sizeRatio);
-  requireProbability(failureProbability, "failure probability");
+  ensureProbability(failureProbability, "failure probability");
   return strengthAtHazard(-Math.log1p(-failureProbability), shape, scale, sizeRatio);
 }
 
@@ -76,13 +76,13 @@ export function designStress({
   sizeRatio = 1,
 }: WeibullParameters & { survival: number; sizeRatio?: number }): number {
   checkParameters({ shape, scale }, sizeRatio);
-  requireProbability(survival, "survival probability");
+  ensureProbability(survival, "survival probability");
   return strengthAtHazard(-Math.log(survival), shape, scale, sizeRatio);
 }
 
 function strengthAtHazard(hazard: number, shape: number, scale: number, sizeRatio: number): number {
   const stress = scale * Math.exp((Math.log(hazard) - Math.log(sizeRatio)) / shape);
-  require(Number.isFinite(stress) && stress > 0, "the stress is outside the range of double-precision numbers");
+  ensurePositiveResult(stress, "stress");
   return stress;
 }
 
@@ -100,15 +100,15 @@ export function medianStrength({ shape, scale }: WeibullParameters): number {
 
 /** Characteristic strength that gives the stated mean strength. */
 export function scaleFromMean({ mean, shape }: { mean: number; shape: number }): number {
-  requirePositive(mean, "mean strength");
-  requirePositive(shape, "modulus");
+  ensurePositive(mean, "mean strength");
+  ensurePositive(shape, "modulus");
   return finite(mean / gammaOnePlusInverse(shape), "characteristic strength");
 }
 
 /** Characteristic strength that gives the stated median strength. */
 export function scaleFromMedian({ median, shape }: { median: number; shape: number }): number {
-  requirePositive(median, "median strength");
-  requirePositive(shape, "modulus");
+  ensurePositive(median, "median strength");
+  ensurePositive(shape, "modulus");
   return finite(median * Math.exp(-Math.log(Math.LN2) / shape), "characteristic strength");
 }
 
@@ -127,6 +127,6 @@ function gammaOnePlusInverse(shape: number): number {
 }
 
 function finite(value: number, name: string): number {
-  require(Number.isFinite(value) && value > 0, `the ${name} is outside the range of double-precision numbers`);
+  ensurePositiveResult(value, name);
   return value;
 }

@@ -44,7 +44,7 @@ export function estimateWeibull(
     return { ...pick(fit), method, converged: true, unbiasingFactor: 1, rawShape: fit.shape };
   }
   if (method !== "MLE" && method !== "MLE-RAW") {
-    throw new InputError("value", `unknown method "${method as string}": use "MLE", "MLE-RAW" or "LSQ"`);
+    throw new InputError("input", `unknown method "${method as string}": use "MLE", "MLE-RAW" or "LSQ"`);
   }
   const fit = fitMaximumLikelihood(sample);
   let factor = 1;

@@ -14,7 +14,7 @@
  * same data always give the same p-value. The chi-square value is kept for
  * comparison.
  */
-import { require, requireProbability } from "../errors";
+import { ensureConverged, ensureProbability } from "../errors";
 import { SeededRandom } from "../numeric/random";
 import { fitMaximumLikelihood } from "./maximum-likelihood";
 import { patternSeed, solveShapeFromLogs } from "./pivotal-simulation";
@@ -58,7 +58,7 @@ function maxLogLikelihood(y: Float64Array, from: number, to: number, z: Float64A
 
 function observedLogLikelihood(strengths: readonly number[], shift: number): number {
   const fit = fitMaximumLikelihood({ strengths });
-  require(fit.converged, "the maximum-likelihood fit did not converge");
+  ensureConverged(fit.converged, "the maximum-likelihood fit did not converge");
   const n = strengths.length;
   let sum = 0;
   for (const s of strengths) sum += Math.log(s) - shift;
@@ -98,7 +98,7 @@ export function compareLots({
   baseline: readonly number[];
   confidence?: number;
 }): LotComparison {
-  requireProbability(confidence, "confidence");
+  ensureProbability(confidence, "confidence");
   checkSample({ strengths: lot });
   checkSample({ strengths: baseline });
   requireSimulationSize(lot.length + baseline.length, "the lot check");

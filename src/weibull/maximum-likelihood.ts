@@ -14,7 +14,7 @@
  * largest term of sum x^m is exactly 1, and nothing overflows or underflows
  * whatever the units or the modulus.
  */
-import { InputError, require } from "../errors";
+import { ensure, ensurePositiveResult, InputError } from "../errors";
 import { CompensatedSum } from "../numeric/sum";
 import { checkSample, type StrengthSample } from "./sample";
 import type { WeibullParameters } from "./distribution";
@@ -45,7 +45,7 @@ export function fitMaximumLikelihood(sample: StrengthSample): MaximumLikelihoodF
   }
   const failureLogMean = meanLogFailures.value / failures;
   // g(infinity) = -failureLogMean: when every failure sits at the maximum, no finite m fits.
-  require(failureLogMean < 0, "all failure strengths are equal to the largest strength: the modulus is unbounded");
+  ensure(failureLogMean < 0, "all failure strengths are equal to the largest strength: the modulus is unbounded");
 
   const moments = (m: number) => {
     const s0 = new CompensatedSum();
@@ -96,12 +96,12 @@ export function fitMaximumLikelihood(sample: StrengthSample): MaximumLikelihoodF
       break;
     }
   }
-  if (!Number.isFinite(m) || m <= 0) throw new InputError("num", "the likelihood equation has no finite solution for these data");
+  if (!Number.isFinite(m) || m <= 0) throw new InputError("input", "the likelihood equation has no finite solution for these data");
   residual = Math.abs(g(m)) * m;
 
   const { sum } = moments(m);
   const scale = max * Math.exp(Math.log(sum / failures) / m);
-  require(Number.isFinite(scale) && scale > 0, "the characteristic strength is outside the range of double-precision numbers");
+  ensurePositiveResult(scale, "characteristic strength");
   return { shape: m, scale, specimens: n, failures, converged, iterations: Math.min(iterations, MAX_ITERATIONS), residual };
 }
 

@@ -19,7 +19,7 @@
  * relation above is the distribution's, so the result is a method-of-moments
  * estimate, not the maximum-likelihood modulus of the underlying tests.
  */
-import { InputError, require, requirePositive } from "../errors";
+import { ensure, ensureConverged, ensurePositive } from "../errors";
 import { logGamma } from "../numeric/gamma";
 import { findRoot } from "../numeric/roots";
 
@@ -81,15 +81,15 @@ export function modulusFromCoefficientOfVariation({
   mean: number;
   standardDeviation: number;
 }): ModulusFromCv {
-  requirePositive(mean, "mean strength");
-  requirePositive(standardDeviation, "standard deviation");
+  ensurePositive(mean, "mean strength");
+  ensurePositive(standardDeviation, "standard deviation");
   const cv = standardDeviation / mean;
   const target = Math.log1p(cv * cv);
-  require(
+  ensure(
     target > 0 && target < logOnePlusSquaredCv(LOWEST_SHAPE),
     `the coefficient of variation ${cv} is too large: no Weibull modulus above ${LOWEST_SHAPE} gives it`,
   );
-  require(
+  ensure(
     target > logOnePlusSquaredCv(HIGHEST_SHAPE),
     `the coefficient of variation ${cv} is too small: the modulus would exceed ${HIGHEST_SHAPE}`,
   );
@@ -104,6 +104,6 @@ export function modulusFromCoefficientOfVariation({
     hi = HIGHEST_SHAPE;
   }
   const result = findRoot(f, lo, hi, { relativeTolerance: 1e-15 });
-  if (!result.converged) throw new InputError("num", "the modulus solve did not converge");
+  ensureConverged(result.converged, "the modulus solve did not converge");
   return { shape: result.root, converged: result.converged, iterations: result.iterations };
 }

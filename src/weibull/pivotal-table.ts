@@ -13,7 +13,7 @@
  * + f_p/n^1.5, with c the theoretical asymptotic variances (6/pi^2 for q,
  * 1 + 6(1 - Euler's gamma)^2/pi^2 for t), and UF = 1 - a/n - b/n^2.
  */
-import { InputError, require } from "../errors";
+import { ensure, ensureApplicable, InputError } from "../errors";
 import { normalQuantile } from "../numeric/normal";
 import table from "./tables/pivotal-quantiles.json";
 
@@ -74,7 +74,7 @@ function buildTable(file: TableFile): PivotalTable {
   const atProbability = (values: number[], p: number): number => {
     const [lo, hi] = [file.probabilities[0], file.probabilities[file.probabilities.length - 1]];
     if (!(p >= lo && p <= hi)) {
-      throw new InputError("num", `quantiles are tabulated for probabilities from ${lo} to ${hi} (asked for ${p}): use a confidence of at most ${1 - 2 * lo}`);
+      throw new InputError("input", `quantiles are tabulated for probabilities from ${lo} to ${hi} (asked for ${p}): use a confidence of at most ${1 - 2 * lo}`);
     }
     const zp = normalQuantile(p);
     let j = 0;
@@ -83,7 +83,7 @@ function buildTable(file: TableFile): PivotalTable {
     return values[j] + w * (values[j + 1] - values[j]);
   };
 
-  const checkSize = (n: number) => require(Number.isInteger(n) && n >= 2, `pivotal quantities need a whole number of at least 2 specimens (got ${n})`);
+  const checkSize = (n: number) => ensure(Number.isInteger(n) && n >= 2, `pivotal quantities need a whole number of at least 2 specimens (got ${n})`);
 
   const quantile = (n: number, p: number, key: "q" | "t"): number => {
     checkSize(n);
@@ -108,7 +108,7 @@ function buildTable(file: TableFile): PivotalTable {
     probabilityRange: [file.probabilities[0], file.probabilities[file.probabilities.length - 1]],
     unbiasingFactor(n: number): number {
       checkSize(n);
-      require(n >= 3, "no unbiasing factor exists for 2 specimens (the mean of the ML modulus is infinite): use \"MLE-RAW\" or test more specimens");
+      ensureApplicable(n >= 3, "no unbiasing factor exists for 2 specimens (the mean of the ML modulus is infinite): use \"MLE-RAW\" or test more specimens");
       if (n > maxTabulated) {
         const { a, b } = largeN.unbiasingFactor;
         return 1 - a / n - b / (n * n);
@@ -118,7 +118,7 @@ function buildTable(file: TableFile): PivotalTable {
       const [i, w] = bracketSize(n);
       const a = rows[i].unbiasingFactor;
       const b = rows[i + 1].unbiasingFactor;
-      if (a == null || b == null) throw new InputError("num", `no unbiasing factor is tabulated near ${n} specimens`);
+      if (a == null || b == null) throw new InputError("input", `no unbiasing factor is tabulated near ${n} specimens`);
       return a + w * (b - a);
     },
     shapeQuantile: (n, p) => quantile(n, p, "q"),

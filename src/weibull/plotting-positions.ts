@@ -38,7 +38,7 @@ export function rankToProbability(rank: number, specimens: number, estimator: Pl
     case "MEDIAN":
       return (rank - 0.3) / (specimens + 0.4);
     default:
-      throw new InputError("value", `unknown plotting-position estimator "${estimator as string}"`);
+      throw new InputError("input", `unknown plotting-position estimator "${estimator as string}"`);
   }
 }
 

@@ -19,7 +19,7 @@
  * v_p(n, a) = z_p sd(a)/sqrt(n) + D_p(a)/n with the large-sample sd(a) of the
  * smallest-extreme-value law and D_p(a) taken from the last row.
  */
-import { require } from "../errors";
+import { ensure } from "../errors";
 import { normalQuantile } from "../numeric/normal";
 import data from "./tables/quantile-pivot.json";
 
@@ -99,9 +99,9 @@ export function quantilePivotQuantile({
   logHazard: number;
   probability: number;
 }): number {
-  require(Number.isInteger(specimens) && specimens >= 2, `the table needs a whole number of at least 2 specimens (got ${specimens})`);
-  require(Number.isFinite(logHazard), "the log cumulative hazard must be finite");
-  require(
+  ensure(Number.isInteger(specimens) && specimens >= 2, `the table needs a whole number of at least 2 specimens (got ${specimens})`);
+  ensure(Number.isFinite(logHazard), "the log cumulative hazard must be finite");
+  ensure(
     probability >= P[0] && probability <= P[P.length - 1],
     `probability ${probability} is outside the simulated range ${P[0]} .. ${P[P.length - 1]}`,
   );

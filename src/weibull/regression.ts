@@ -5,7 +5,7 @@
  * this is the Y-on-X form.) The standards prescribe maximum likelihood; this
  * is here for comparison with older datasheets and hand calculations.
  */
-import { require } from "../errors";
+import { ensure } from "../errors";
 import type { WeibullParameters } from "./distribution";
 import { plottingPositions, type PlottingEstimator } from "./plotting-positions";
 import type { StrengthSample } from "./sample";
@@ -37,9 +37,9 @@ export function fitProbabilityPlot(sample: StrengthSample, estimator: PlottingEs
     sxy += (p.x - mx) * (p.y - my);
     syy += (p.y - my) ** 2;
   }
-  require(sxx > 0, "all failure strengths are equal: the probability plot has no slope");
+  ensure(sxx > 0, "all failure strengths are equal: the probability plot has no slope");
   const shape = sxy / sxx;
-  require(shape > 0, "the probability plot slopes downward: no positive modulus fits these data");
+  ensure(shape > 0, "the probability plot slopes downward: no positive modulus fits these data");
   const scale = Math.exp(mx - my / shape);
   return {
     shape,

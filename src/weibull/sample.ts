@@ -3,7 +3,7 @@
  * a failure from the population being fitted or censored (the specimen broke
  * from another flaw population, or did not break, at that stress).
  */
-import { InputError, require } from "../errors";
+import { ensure, InputError, describe } from "../errors";
 
 export interface StrengthSample {
   strengths: readonly number[];
@@ -19,18 +19,18 @@ export interface CheckedSample {
 
 export function checkSample({ strengths, censored }: StrengthSample): CheckedSample {
   if (censored && censored.length !== strengths.length) {
-    throw new InputError("value", `the censoring flags (${censored.length}) do not match the strengths (${strengths.length})`);
+    throw new InputError("input", `the censoring flags (${censored.length}) do not match the strengths (${strengths.length})`);
   }
   const values = new Float64Array(strengths.length);
   const flags = new Uint8Array(strengths.length);
   let failures = 0;
   for (let i = 0; i < strengths.length; i++) {
     const s = strengths[i];
-    require(Number.isFinite(s) && s > 0, `strength ${i + 1} must be a positive number (got ${s})`);
+    ensure(Number.isFinite(s) && s > 0, () => `strength ${i + 1} must be a positive number (got ${describe(s)})`);
     values[i] = s;
     flags[i] = censored?.[i] ? 1 : 0;
     if (!flags[i]) failures++;
   }
-  require(failures >= 2, `a fit needs at least two failures from the population (got ${failures})`);
+  ensure(failures >= 2, `a fit needs at least two failures from the population (got ${failures})`);
   return { strengths: values, censored: flags, failures };
 }

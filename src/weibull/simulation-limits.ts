@@ -5,12 +5,12 @@
  * (a million rows) it would hold a spreadsheet for hours. Closed-form and
  * tabulated results (MLE-RAW, complete-sample bounds) have no such limit.
  */
-import { require } from "../errors";
+import { ensure } from "../errors";
 
 export const SIMULATION_MAX_SPECIMENS = 1000;
 
 export function requireSimulationSize(specimens: number, what: string): void {
-  require(
+  ensure(
     specimens <= SIMULATION_MAX_SPECIMENS,
     `${what} is simulated and accepts at most ${SIMULATION_MAX_SPECIMENS} specimens (got ${specimens}); use "MLE-RAW" or a smaller sample`,
   );

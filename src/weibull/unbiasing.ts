@@ -16,13 +16,13 @@
  * A censored sample has no table: its factor comes from a seeded bootstrap
  * conditional on its own censoring values (see censored-bootstrap.ts).
  */
-import { require } from "../errors";
+import { ensure, ensureApplicable } from "../errors";
 import { bootstrapCensored } from "./censored-bootstrap";
 import { fitMaximumLikelihood } from "./maximum-likelihood";
 import { pivotalTable } from "./pivotal-table";
 
 export function unbiasingFactor(specimens: number): number {
-  require(Number.isInteger(specimens) && specimens >= 2, `the unbiasing factor needs at least 2 specimens (got ${specimens})`);
+  ensure(Number.isInteger(specimens) && specimens >= 2, `the unbiasing factor needs at least 2 specimens (got ${specimens})`);
   return pivotalTable().unbiasingFactor(specimens);
 }
 
@@ -43,7 +43,7 @@ export function censoredReplications(n: number): number {
 export function censoredUnbiasingFactor(strengths: readonly number[], censored: readonly boolean[]): number {
   const failures = censored.filter((c) => !c).length;
   // With two failures the mean of the ML modulus is infinite, as for a complete sample of two.
-  require(failures >= 3, "no unbiasing factor exists with only 2 failures (the mean of the ML modulus is infinite): use \"MLE-RAW\"");
+  ensureApplicable(failures >= 3, "no unbiasing factor exists with only 2 failures (the mean of the ML modulus is infinite): use \"MLE-RAW\"");
   const fit = fitMaximumLikelihood({ strengths, censored });
   const { shapeRatio } = bootstrapCensored({ strengths, censored, fit, replications: censoredReplications(strengths.length) });
   let sum = 0;

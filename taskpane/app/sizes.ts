@@ -8,7 +8,7 @@
 import { barFlexureArea, barFlexureVolume } from "../../src/size/flexure";
 import { partRisk } from "../../src/size/part";
 import { findSpecimen, specimenEffectiveSize } from "../../src/size/presets";
-import { require } from "../../src/errors";
+import { ensureApplicable } from "../../src/errors";
 import type { DesignCheckInput } from "./inputs";
 
 export interface ResolvedSize {
@@ -53,7 +53,7 @@ export function resolveSizes(input: DesignCheckInput, shape: number): ResolvedSi
     shape,
     criterion: input.criterion,
   });
-  require(risk.peak > 0, "no element of the part's table carries tensile stress");
+  ensureApplicable(risk.peak > 0, "no element of the part's table carries tensile stress");
   return {
     specimen,
     part: {

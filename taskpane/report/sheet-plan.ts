@@ -283,7 +283,7 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
     if (life) {
       derived("proofMinLife", "Minimum life guaranteed by the proof test", "PROOFMINLIFE",
         `=BRITTLE.PROOFMINLIFE(${refs.proofStress},${refs.applied},${refs.scgN},${refs.scgB})`,
-        t.proofMinimumLife?.value ?? null, safeText(life.timeUnit), "#NUM! when the applied stress exceeds the proof stress");
+        t.proofMinimumLife?.value ?? null, safeText(life.timeUnit), "#VALUE! when the applied stress exceeds the proof stress");
     }
   }
   let governing = shortTerm;
