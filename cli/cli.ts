@@ -2,6 +2,7 @@
  * `brittle`: the add-in's functions with no spreadsheet application.
  *
  *   brittle calc FILE [--out FILE.xlsx] [--force] [--json]
+ *   brittle check FILE.check.json [--json]
  *   brittle demo
  *
  * calc evaluates every formula of an .xlsx or .csv workbook in the embedded
@@ -9,6 +10,7 @@
  * sheet as {"<sheet>": [[row values...], ...]}, errors as "#NUM!" text).
  * --out writes a copy with each formula and its computed value; the input
  * file is never written, and an existing output only with --force.
+ * check reruns a saved design check (exit 0 PASS, 1 FAIL, 2 bad input).
  */
 import { existsSync } from "node:fs";
 import { mkdir } from "node:fs/promises";
@@ -18,8 +20,11 @@ import type { FormulaResult } from "./evaluate-workbook";
 // imported where they are needed, so `brittle part` starts without them.
 
 const USAGE = `usage: brittle calc FILE [--out FILE.xlsx] [--force] [--json]
+       brittle check FILE.check.json [--json]
        brittle demo
-FILE is an .xlsx workbook or a .csv sheet whose cells may hold BRITTLE.* formulas.`;
+FILE is an .xlsx workbook or a .csv sheet whose cells may hold BRITTLE.* formulas.
+check reruns a saved design check and prints the verdict with its basis:
+exit 0 PASS, 1 FAIL, 2 bad input.`;
 
 export interface Io {
   out: (text: string) => void;
@@ -111,6 +116,10 @@ export async function main(argv: string[], io: Io = processIo): Promise<number> 
       const { runDemo } = await import("../examples/demo");
       await runDemo(io);
       return 0;
+    }
+    if (command === "check") {
+      const { runCheckCommand } = await import("./check-command");
+      return await runCheckCommand(rest, io);
     }
     if (command === "part") {
       const { runPartCommand } = await import("./part-command");

@@ -6,12 +6,14 @@
  */
 import { registerInHost } from "../functions/office";
 import { adapters } from "../functions/registry";
-import { runDesignCheck, type DesignCheckResult } from "./app/check";
-import { cautionsFor, generalCautions, type Caution } from "./app/cautions";
+import { generalCautions } from "../src/design/check-cautions";
+import type { Caution, DesignCheckResult } from "../src/design/check-result";
+import { runDesignCheck } from "../src/design/design-check";
+import { toCheckDescription } from "./app/description";
 import { DEMO_DESIGN } from "./app/demo-data";
 import { byId, FieldError, showStepError } from "./app/dom";
 import { readSelection, readTableSelection } from "./app/host-selection";
-import type { DesignCheckInput } from "./app/inputs";
+import type { FormInput } from "./app/inputs";
 import { renderCautions } from "./app/render-cautions";
 import { renderIncomplete, renderLegend, renderResult } from "./app/render-result";
 import { resultRows, type ResultRow } from "./app/result-table";
@@ -55,7 +57,7 @@ function show(text: string): void {
   byId("status").textContent = text;
 }
 
-function collect(): DesignCheckInput | null {
+function collect(): FormInput | null {
   const readers = [readMaterial, readSpecimen, () => ({ part: readPart() }), readRequirement];
   const parts: object[] = [];
   let firstProblem: string | null = null;
@@ -73,7 +75,7 @@ function collect(): DesignCheckInput | null {
     renderIncomplete(firstProblem);
     return null;
   }
-  return Object.assign({}, ...parts) as DesignCheckInput;
+  return Object.assign({}, ...parts) as FormInput;
 }
 
 function update(): void {
@@ -86,18 +88,18 @@ function update(): void {
   }
   let result: DesignCheckResult;
   try {
-    result = runDesignCheck(input);
+    result = runDesignCheck(toCheckDescription(input));
   } catch (error) {
     renderIncomplete(`The check could not be computed: ${error instanceof Error ? error.message : String(error)}.`);
     renderCautions(generalCautions());
     return;
   }
   const rows = resultRows(result);
-  const cautions = cautionsFor(result);
+  const cautions = result.cautions;
   renderResult(result, rows);
   renderCautions(cautions);
   const data = plotData(result);
-  drawProbabilityPlot(byId("plot"), data, input.stressUnit);
+  drawProbabilityPlot(byId("plot"), data, result.input.stressUnit);
   renderLegend(data);
   byId("plot-figure").hidden = false;
   current = { result, rows, cautions };

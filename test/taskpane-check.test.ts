@@ -3,17 +3,17 @@
  * tables, the numbers of the result against published formulas, the caution
  * thresholds, the plot coordinates and the CSV export.
  *
- * References: the closed forms of METHODS.md sections 1 and 6 (quantile,
- * failure probability, strength-probability-time relation, proof-test life),
- * written out here; the binomial lot count against jstat 1.9.6's binomial CDF;
+ * References: the closed forms of the two-parameter Weibull distribution
+ * (quantile, failure probability) and of power-law crack growth
+ * (strength-probability-time relation, proof-test life; Evans & Wiederhorn
+ * 1974), written out here; the binomial lot count against jstat 1.9.6's binomial CDF;
  * everything else is the core (tested against mpmath/scipy elsewhere), named
  * where used.
  */
-import { afterEach, beforeEach, describe, expect, it } from "vitest";
+import { describe, expect, it } from "vitest";
 import jStat from "jstat";
-import { runDesignCheck } from "../taskpane/app/check";
-import { cautionsFor, FAR_EXTRAPOLATION_DECADES } from "../taskpane/app/cautions";
-import { optionalCore } from "../taskpane/app/optional-core";
+import { runDesignCheck } from "../src/design/design-check";
+import { cautionsFor, FAR_EXTRAPOLATION_DECADES } from "../src/design/check-cautions";
 import { parsePasted, PasteError } from "../taskpane/app/parse-pasted";
 import { parseElementTable, TableError } from "../taskpane/app/parse-table";
 import { resultRows } from "../taskpane/app/result-table";
@@ -21,22 +21,13 @@ import { designCheckCsv } from "../taskpane/export/csv";
 import { plotData, weibullY } from "../taskpane/plot/plot-data";
 import { percentLabel } from "../taskpane/plot/probability-plot";
 import { estimateWeibull } from "../src/weibull/estimate";
+import { fitQuality } from "../src/weibull/anderson-darling";
 import { relativeError } from "./helpers";
 import { input, STRENGTHS } from "./taskpane-inputs";
 
-
-// Tests of the path without bounds or fit quality take the plug-ins out; every test gets the build's own back.
-const built = { ...optionalCore };
-function withoutOptionalCore(): void {
-  delete optionalCore.designStressLowerBound;
-  delete optionalCore.fitQuality;
-  delete optionalCore.populationChecks;
-}
-beforeEach(() => Object.assign(optionalCore, built));
-afterEach(() => {
-  withoutOptionalCore();
-  Object.assign(optionalCore, built);
-});
+// Typed values without a specimen count carry no uncertainty: the point-estimate path.
+const typedPoint = (overrides = {}) =>
+  input({ material: { kind: "typed", shape: 12, scale: 430 }, ...overrides });
 
 describe("pasted strengths", () => {
   it("reads a column with a header, tabs or commas, censoring flags and blank lines, under the cell policy", () => {
@@ -72,9 +63,7 @@ describe("pasted element tables", () => {
 });
 
 describe("the result against published formulas", () => {
-  withoutOptionalCore();
   const r = runDesignCheck(input());
-  Object.assign(optionalCore, built);
   const { shape: m, scale: th } = r.parameters;
   const k = 800 / 12.5;
 
@@ -86,18 +75,25 @@ describe("the result against published formulas", () => {
   });
 
   it("gives the design stress sigma_theta (-ln S / k)^(1/m) and Pf = 1 - exp(-k (s/sigma_theta)^m)", () => {
-    // METHODS.md section 1, written out here.
+    // The two-parameter Weibull distribution, written out here (source: any statistics text).
     expect(relativeError(r.allowablePoint.value, th * Math.pow(-Math.log(0.9999) / k, 1 / m))).toBeLessThan(1e-13);
     expect(relativeError(r.failureProbabilityAtApplied.value, -Math.expm1(-k * Math.pow(180 / th, m)))).toBeLessThan(1e-13);
-    expect(relativeError(r.expectedFailures.value, 5000 * r.failureProbabilityAtApplied.value)).toBeLessThan(1e-15);
-    expect(relativeError(r.margin.value, r.allowablePoint.value / 180)).toBeLessThan(1e-15);
+    expect(relativeError(r.expectedFailures.pointEstimate, 5000 * r.failureProbabilityAtApplied.value)).toBeLessThan(1e-15);
+    // On the bound: reserve factor = lower-bound allowable / applied, margin of safety = reserve factor - 1.
+    expect(relativeError(r.reserveFactor.value, r.allowableLower!.value / 180)).toBeLessThan(1e-15);
+    expect(r.marginOfSafety.value).toBe(r.reserveFactor.value - 1);
   });
 
   it("gives the binomial lot count jstat 1.9.6 gives", () => {
     const p = r.failureProbabilityAtApplied.value;
     let want = 0;
     while (jStat.binomial.cdf(want, 5000, p) < 0.9) want++;
-    expect(r.failuresUpperBound.value).toBe(want);
+    expect(r.failuresUpperBound.pointEstimate).toBe(want);
+    // On the bound the count uses the upper-bound failure probability.
+    const pu = r.failureProbabilityUpper!.value;
+    let wantBound = 0;
+    while (jStat.binomial.cdf(wantBound, 5000, pu) < 0.9) wantBound++;
+    expect(r.failuresUpperBound.value).toBe(wantBound);
   });
 
   it("measures the extrapolation from the lowest plotted failure, (i - 0.5)/N, at specimen size", () => {
@@ -106,12 +102,13 @@ describe("the result against published formulas", () => {
     expect(r.extrapolationDecades).toBeCloseTo(Math.log10(lowest / specimenPf), 6);
   });
 
-  it("says which method and assumptions produced each row (build without bounds)", () => {
-    const rows = resultRows(r);
+  it("says which method and assumptions produced each row (typed values without a specimen count: no bound)", () => {
+    const t = runDesignCheck(typedPoint());
+    const rows = resultRows(t);
     for (const row of rows) expect(row.basis.length, row.id).toBeGreaterThan(10);
     expect(rows.find((x) => x.id === "allowable-lower")!.display).toBe("not available");
-    expect(r.verdict.onLowerBound).toBe(false);
-    expect(r.verdict.text).toMatch(/point-estimate allowable stress \(no confidence bound: not a design verdict on its own\)/);
+    expect(t.verdict.onLowerBound).toBe(false);
+    expect(t.verdict.text).toMatch(/point estimate: no confidence bound, not a design verdict on its own/);
   });
 
   it("turns failures per lot into the allowed failure probability", () => {
@@ -121,16 +118,19 @@ describe("the result against published formulas", () => {
   });
 });
 
-describe("lifetime and proof test against METHODS.md section 6", () => {
-  const life = { lifetime: 3.15e7, timeUnit: "s", n: 18, B: 5e5 };
-  it("satisfies B s^(n-2) + t s^n = B s_i^(n-2) with s_i the inert design strength", () => {
+describe("lifetime and proof test against the power-law relations (B s^(n-2) + t s^n = B s_i^(n-2); t_min)", () => {
+  const life = { lifetime: 3.15e7, timeUnit: "s" as const, n: 18, B: 5e5, bUnit: "MPa^2 s" };
+  it("satisfies B s^(n-2) + t s^n = B s_i^(n-2), s_i the lower-bound inert allowable (the point estimate beside from the point s_i)", () => {
     const r = runDesignCheck(input({ lifetime: life, appliedStress: 60 }));
-    const s = r.time.lifetimeAllowable!.value;
-    const si = r.allowablePoint.value;
-    const lhs = life.B * s ** (life.n - 2) + life.lifetime * s ** life.n;
-    expect(relativeError(lhs, life.B * si ** (life.n - 2))).toBeLessThan(1e-12);
-    // The lifetime governs: it is far below the inert allowable stress.
-    expect(r.margin.value).toBe(s / 60);
+    const check = (s: number, si: number) => {
+      const lhs = life.B * s ** (life.n - 2) + life.lifetime * s ** life.n;
+      expect(relativeError(lhs, life.B * si ** (life.n - 2))).toBeLessThan(1e-12);
+    };
+    check(r.lifetimeAllowable!.value, r.allowableLower!.value);
+    check(r.lifetimeAllowable!.pointEstimate, r.allowablePoint.value);
+    // The lifetime governs, on the bound.
+    expect(r.governing.check).toBe("lifetime");
+    expect(r.reserveFactor.value).toBe(r.lifetimeAllowable!.value / 60);
   });
 
   it("gives t_min = B s_a^-n (s_p^(n-2) - s_a^(n-2)) and the truncated failure probability of survivors", () => {
@@ -138,26 +138,27 @@ describe("lifetime and proof test against METHODS.md section 6", () => {
     const { shape: m, scale: th } = r.parameters;
     const k = r.sizeRatio.value;
     const pf = -Math.expm1(-k * ((310 / th) ** m - (300 / th) ** m));
-    expect(relativeError(r.time.postProofFailureProbability!.value, pf)).toBeLessThan(1e-10);
-    expect(relativeError(r.time.proofBreaks!.value, -Math.expm1(-k * (300 / th) ** m))).toBeLessThan(1e-13);
-    expect(r.time.proofMinimumLife).toBeNull();
+    expect(relativeError(r.proof!.survivorsFailureProbability.value, pf)).toBeLessThan(1e-10);
+    expect(relativeError(r.proof!.breaks.pointEstimate, -Math.expm1(-k * (300 / th) ** m))).toBeLessThan(1e-13);
+    expect(r.proof!.minimumLife!.value).toBe(0);
+    expect(r.proof!.credited).toBe(false);
 
     const ok = runDesignCheck(input({ lifetime: life, proof: { proofStress: 300 }, appliedStress: 60 }));
     const tmin = life.B * 60 ** -life.n * (300 ** (life.n - 2) - 60 ** (life.n - 2));
-    expect(relativeError(ok.time.proofMinimumLife!.value, tmin)).toBeLessThan(1e-12);
-    expect(ok.time.proofCoversLifetime).toBe(tmin >= life.lifetime);
+    expect(relativeError(ok.proof!.minimumLife!.value, tmin)).toBeLessThan(1e-12);
+    expect(ok.verdict.pass).toBe(tmin >= life.lifetime);
   });
 });
 
 describe("caution notes", () => {
   const ids = (r: ReturnType<typeof runDesignCheck>) => Object.fromEntries(cautionsFor(r).map((c) => [c.id, c.level]));
 
-  beforeEach(withoutOptionalCore);
-
-  it("always carries the extrapolation, size, environment and code notes", () => {
-    const c = ids(runDesignCheck(input()));
+  it("always carries the extrapolation, size, environment and code notes, and the result carries the same list", () => {
+    const r = runDesignCheck(input());
+    const c = ids(r);
     for (const id of ["extrapolation", "size", "environment", "codes"]) expect(c[id], id).toBeDefined();
-    expect(cautionsFor(runDesignCheck(input())).find((x) => x.id === "codes")!.text).toMatch(/licensed engineer/);
+    expect(r.cautions).toEqual(cautionsFor(r));
+    expect(r.cautions.find((x) => x.id === "codes")!.text).toMatch(/licensed engineer under the local codes/);
   });
 
   it("warns more strongly for a small sample, a far extrapolation, a huge size ratio and typed parameters", () => {
@@ -171,73 +172,37 @@ describe("caution notes", () => {
     expect(near.extrapolationDecades!).toBeLessThan(FAR_EXTRAPOLATION_DECADES);
     expect(ids(near)).toMatchObject({ extrapolation: "note" });
     expect(ids(runDesignCheck(input({ part: { kind: "typed", effectiveSize: 2e4 } })))).toMatchObject({ size: "warning" });
-    expect(ids(runDesignCheck(input({ material: { kind: "typed", shape: 10, scale: 400 } })))).toMatchObject({ sample: "warning", bound: "warning" });
+    expect(ids(runDesignCheck(typedPoint()))).toMatchObject({ sample: "warning", bound: "warning" });
   });
 
-  it("warns about a poor fit when the build tests goodness of fit, and otherwise says it is not tested", () => {
-    expect(ids(runDesignCheck(input()))).toMatchObject({ fit: "note" });
-    optionalCore.fitQuality = () => ({ statistic: 1.2, significance: 0.004 });
-    const poor = runDesignCheck(input());
+  it("reports the core's goodness of fit and warns when it rejects at 5 %", () => {
+    // Invented two-cluster sample: one Weibull line cannot fit it.
+    const clusters = [200, 205, 210, 212, 215, 218, 220, 222, 225, 228, 500, 505, 510, 512, 515, 518, 520, 522, 525, 530];
+    const poor = runDesignCheck(input({ material: { kind: "data", strengths: clusters, method: "MLE-RAW" }, appliedStress: 50 }));
+    const q = fitQuality({ strengths: clusters }); // reference: the core (checked against Lawless/CMH-17 in its own suite)
+    expect(poor.fitQuality).toEqual({ statistic: q.aStar, significance: q.osl });
+    expect(q.osl).toBeLessThan(0.05);
     expect(ids(poor)).toMatchObject({ fit: "warning" });
-    expect(cautionsFor(poor).find((c) => c.id === "fit")!.text).toMatch(/A\* 1\.200, observed significance 0\.0040/);
-    optionalCore.fitQuality = () => ({ statistic: 0.3, significance: 0.6 });
-    expect(ids(runDesignCheck(input())).fit).toBeUndefined();
+    expect(cautionsFor(poor).find((c) => c.id === "fit")!.text).toContain(`A* ${q.aStar.toFixed(3)}`);
+    const good = runDesignCheck(input());
+    expect(good.fitQuality!.significance).toBeGreaterThan(0.05);
+    expect(ids(good).fit).toBeUndefined();
   });
-});
-
-describe("plugging in the one-population checks", () => {
-  it("warns of a bend or an outlying low value only when its test rejects at 5 %", () => {
-    withoutOptionalCore();
-    optionalCore.populationChecks = () => ({ bend: { pValue: 0.01, knotStrength: 402.5 }, lowOutlier: { pValue: 0.2, strength: 377.9 } });
-    const c = cautionsFor(runDesignCheck(input()));
-    expect(c.find((x) => x.id === "bend")).toMatchObject({ level: "warning" });
-    expect(c.find((x) => x.id === "bend")!.text).toMatch(/bends near 402\.5 MPa \(two-segment test, p = 0\.010\)/);
-    expect(c.find((x) => x.id === "low-outlier")).toBeUndefined();
-    optionalCore.populationChecks = () => ({ bend: null, lowOutlier: { pValue: 0.003, strength: 377.9 } });
-    expect(cautionsFor(runDesignCheck(input())).find((x) => x.id === "low-outlier")!.text).toMatch(/377\.9 MPa, is unusually low/);
-  });
-});
-
-describe("plugging in the lower confidence bound", () => {
-  it("puts the verdict and margin on the bound once the build provides one", () => {
-    withoutOptionalCore();
-    const calls: unknown[] = [];
-    optionalCore.designStressLowerBound = (args) => {
-      calls.push(args);
-      return 170; // a stand-in bound, only to follow the plumbing
-    };
-    const r = runDesignCheck(input());
-    expect(calls[0]).toMatchObject({ survival: 0.9999, confidence: 0.9, sizeRatio: 64 });
-    expect(r.allowableLower!.value).toBe(170);
-    expect(r.verdict.onLowerBound).toBe(true);
-    expect(r.verdict.pass).toBe(false); // 180 > 170
-    expect(r.margin.value).toBe(170 / 180);
-    expect(ids(r).bound).toBeUndefined();
-    // The plot draws a two-sided band from the same function at (1 + c)/2 and (1 - c)/2.
-    const band = plotData(r).band!;
-    expect(band.length).toBeGreaterThan(10);
-    expect(calls.some((c) => (c as { confidence: number }).confidence === 0.95)).toBe(true);
-    expect(calls.some((c) => Math.abs((c as { confidence: number }).confidence - 0.05) < 1e-15)).toBe(true);
-  });
-  const ids = (r: ReturnType<typeof runDesignCheck>) => Object.fromEntries(cautionsFor(r).map((c) => [c.id, c.level]));
 });
 
 describe("probability plot coordinates", () => {
-  withoutOptionalCore();
   const r = runDesignCheck(input());
   const d = plotData(r);
-  Object.assign(optionalCore, built);
   it("puts the design point on the part-size line and spans the data and the design point", () => {
     expect(d.design).toEqual({ stress: r.allowablePoint.value, probability: r.targetFailureProbability.value });
     const { shape: m, scale: th } = r.parameters;
-    // On Weibull axes the part line is y = m ln(s/theta) + ln k (METHODS.md section 1).
+    // On Weibull axes the part line is y = m ln(s/theta) + ln k (the Weibull distribution function, rearranged).
     for (const pt of d.partLine!) {
       expect(weibullY(pt.probability)).toBeCloseTo(m * Math.log(pt.stress / th) + Math.log(r.sizeRatio.value), 9);
     }
     expect(d.probabilityRange[0]).toBeLessThan(r.targetFailureProbability.value);
     expect(d.stressRange[0]).toBeLessThan(r.allowablePoint.value);
     expect(d.stressRange[1]).toBeGreaterThan(Math.max(...STRENGTHS));
-    expect(d.band).toBeNull();
     expect(runDesignCheck(input({ part: { kind: "typed", effectiveSize: 12.5 } })).sizeRatio.value).toBe(1);
     expect(plotData(runDesignCheck(input({ part: { kind: "typed", effectiveSize: 12.5 } }))).partLine).toBeNull();
   });
@@ -251,16 +216,16 @@ describe("probability plot coordinates", () => {
 describe("CSV export", () => {
   it("writes every row with its basis, quotes text with commas, and defuses formula-like text", () => {
     const r = runDesignCheck(input({ stressUnit: "=MPa" }));
-    const csv = designCheckCsv(r, resultRows(r), cautionsFor(r));
+    const csv = designCheckCsv(r, resultRows(r), r.cautions);
     expect(csv.endsWith("\r\n")).toBe(true);
     expect(csv).toContain("'=MPa");
     expect(csv).not.toMatch(/(^|,)=/m);
     const lines = csv.split("\r\n");
     // The label holds a comma, so it is quoted; the full-precision number follows it.
-    const allowable = lines.find((l) => l.startsWith('"Allowable stress, point estimate",'))!;
+    const allowable = lines.find((l) => l.startsWith('"Inert allowable stress, point estimate",'))!;
     expect(Number(allowable.split('",')[1].split(",")[0])).toBe(r.allowablePoint.value);
     expect(lines.filter((l) => /^\d/.test(l))).toHaveLength(STRENGTHS.length);
     // A basis with commas is one quoted field.
-    expect(csv).toMatch(/"point estimate: two-parameter Weibull, maximum likelihood/);
+    expect(csv).toMatch(/"point estimate: two-parameter Weibull, size ratio 64, maximum likelihood/);
   });
 });

@@ -14,8 +14,8 @@ import { adapters } from "../functions/registry";
 import { createEngine } from "../cli/engine";
 import { generateMetadata, type FunctionMetadata } from "../functions/metadata";
 import { DetailedCellError } from "hyperformula";
-import { runDesignCheck, type DesignCheckResult } from "../taskpane/app/check";
-import { cautionsFor } from "../taskpane/app/cautions";
+import type { DesignCheckResult } from "../src/design/check-result";
+import { runDesignCheck } from "../src/design/design-check";
 import { planReportSheet, type SheetPlan } from "../taskpane/report/sheet-plan";
 import { freshSheetName, SheetNotEmptyError, writeReportSheet } from "../taskpane/report/sheet-writer";
 import { relativeError } from "./helpers";
@@ -23,7 +23,7 @@ import { input, STRENGTHS } from "./taskpane-inputs";
 
 
 function plan(result: DesignCheckResult): SheetPlan {
-  return planReportSheet(result, { functions: new Set(Object.keys(adapters)), cautions: cautionsFor(result), written: new Date("2026-01-02T03:04:00Z") });
+  return planReportSheet(result, { functions: new Set(Object.keys(adapters)), cautions: result.cautions, written: new Date("2026-01-02T03:04:00Z") });
 }
 
 // ---- A workbook built from office-addin-mock objects ----
@@ -229,7 +229,7 @@ describe("writing the design check through the spreadsheet API (office-addin-moc
     expect(text.some((t) => t.startsWith("=BRITTLE.FAILPROB($B$11,"))).toBe(true);
     expect(text.some((t) => t.startsWith("=BRITTLE.LOTFAILURES("))).toBe(true);
     // The cautions are on the sheet, warnings marked.
-    for (const c of cautionsFor(result)) expect(text).toContain(c.text);
+    for (const c of result.cautions) expect(text).toContain(c.text);
     expect(text).toContain("Warning");
     // Text written as values never starts a formula.
     for (const { mock } of state.ranges) {
@@ -250,9 +250,11 @@ describe("writing the design check through the spreadsheet API (office-addin-moc
       rel("allowableLower", result.allowableLower.value);
     }
     rel("pfApplied", result.failureProbabilityAtApplied.value);
-    rel("expected", result.expectedFailures.value);
-    expect(value("upperCount")).toBe(result.failuresUpperBound.value);
-    rel("margin", result.margin.value);
+    // The sheet's lot counts are the point estimate's, shown beside the form's upper-bound counts.
+    rel("expected", result.expectedFailures.pointEstimate);
+    expect(value("upperCount")).toBe(result.failuresUpperBound.pointEstimate);
+    rel("reserveFactor", result.reserveFactor.value);
+    rel("marginOfSafety", result.marginOfSafety.value);
     expect(value("verdict")).toBe(result.verdict.pass ? "PASS" : "FAIL");
 
     // Plot points: sorted strengths and (i - 0.5)/N, as the core's plotting positions.
@@ -398,7 +400,7 @@ describe("writing the design check through the spreadsheet API (office-addin-moc
 
   it("carries a lifetime and a proof test into live formulas that agree with the form", async () => {
     // Invented crack-growth constants (B in MPa² s) and loads, chosen so that each case below takes a different branch.
-    const life = { lifetime: 3.15e7, timeUnit: "s", n: 18, B: 5e5 };
+    const life = { lifetime: 3.15e7, timeUnit: "s" as const, n: 18, B: 5e5, bUnit: "MPa^2 s" };
     const cases = [
       { name: "lifetime governs", proof: null, applied: 60 },
       { name: "proof test guarantees the life", proof: { proofStress: 300 }, applied: 60 },
@@ -412,27 +414,28 @@ describe("writing the design check through the spreadsheet API (office-addin-moc
       const cells = grid(sheets.get(sheetName)!);
       const { value } = evaluate({ [sheetName]: cells }, sheetName, p.refs);
       const rel = (key: string, want: number) => expect(relativeError(value(key) as number, want), `${c.name}: ${key}`).toBeLessThan(1e-12);
-      rel("lifetimeAllowable", result.time.lifetimeAllowable!.value);
-      rel("margin", result.margin.value);
+      rel("lifetimeAllowable", result.lifetimeAllowable!.value);
+      rel("reserveFactor", result.reserveFactor.value);
       expect(value("verdict"), c.name).toBe(result.verdict.pass ? "PASS" : "FAIL");
       if (c.proof) {
-        rel("proofBreaks", result.time.proofBreaks!.value);
-        if (result.time.postProofFailureProbability!.value === 0) expect(value("postProofPf")).toBe(0);
-        else rel("postProofPf", result.time.postProofFailureProbability!.value);
+        rel("proofBreaks", result.proof!.breaks.pointEstimate);
+        if (result.proof!.survivorsFailureProbability.value === 0) expect(value("postProofPf")).toBe(0);
+        else rel("postProofPf", result.proof!.survivorsFailureProbability.value);
       }
       if (c.name === "lifetime governs") {
-        expect(result.margin.value).toBeCloseTo(result.time.lifetimeAllowable!.value / 60, 12);
-        expect(result.verdict.text).toMatch(/over 3\.15e\+7 s|over 31500000 s/);
+        expect(result.reserveFactor.value).toBeCloseTo(result.lifetimeAllowable!.value / 60, 12);
+        expect(result.verdict.text).toMatch(/allowable stress over 3\.150e7 s of sustained load \(slow crack growth\)/);
       }
       if (c.name === "proof test guarantees the life") {
-        rel("proofMinLife", result.time.proofMinimumLife!.value);
-        expect(result.time.proofCoversLifetime).toBe(true);
-        expect(result.margin.value).toBeCloseTo((result.allowableLower ?? result.allowablePoint).value / 60, 12);
+        rel("proofMinLife", result.proof!.minimumLife!.value);
+        expect(result.proof!.minimumLife!.value).toBeGreaterThanOrEqual(life.lifetime);
+        expect(result.proof!.credited).toBe(true);
+        expect(result.verdict.pass).toBe(true);
       }
       if (c.name === "applied above the proof stress") {
-        expect(result.time.proofMinimumLife).toBeNull();
-        expect(result.time.proofMinimumLifeMissing).toMatch(/exceeds the proof stress/);
-        expect(cautionsFor(result).find((x) => x.id === "proof")!.level).toBe("warning");
+        expect(result.proof!.minimumLife!.value).toBe(0);
+        expect(result.proof!.text).toMatch(/exceeds the proof stress/);
+        expect(result.cautions.find((x) => x.id === "proof")!.level).toBe("warning");
       }
     }
   });

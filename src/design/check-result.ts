@@ -56,7 +56,7 @@ export type GoverningCheck = "inert" | "lifetime";
 
 export interface Governing {
   check: GoverningCheck;
-  /** "inert strength at the required survival" or "lifetime under slow crack growth". */
+  /** What the allowable is, as a noun phrase: "inert allowable stress at the required survival", "allowable stress over 1e9 s of sustained load (slow crack growth)". */
   name: string;
   /** The allowable stress of the governing check, on the verdict's basis. */
   allowable: number;

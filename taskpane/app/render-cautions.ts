@@ -1,5 +1,5 @@
 /** The caution notes next to the result: warnings first, each marked in words as well as colour. */
-import type { Caution } from "./cautions";
+import type { Caution } from "../../src/design/check-result";
 import { byId, el } from "./dom";
 
 export function renderCautions(cautions: Caution[]): void {

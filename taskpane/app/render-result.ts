@@ -1,5 +1,5 @@
 /** Step 5 on screen: the verdict line, the labelled results with their basis, and the plot legend. */
-import type { DesignCheckResult } from "./check";
+import type { DesignCheckResult } from "../../src/design/check-result";
 import { byId, el } from "./dom";
 import type { ResultRow } from "./result-table";
 import type { PlotData } from "../plot/plot-data";
@@ -40,11 +40,11 @@ export function renderLegend(data: PlotData): void {
     ["fit-line", "fitted Weibull line, specimen size"],
   ];
   if (data.partLine) items.push(["part-line", "the same line at the part's size"]);
-  if (data.band) items.push(["band", `two-sided ${formatPercent(data.confidence)} confidence band, specimen size`]);
+  if (data.band) items.push(["band", data.bandLabel]);
   else items.push(["no-band", data.bandMissing]);
   if (data.censored.length) items.push(["censored", "censored specimens (strength only)"]);
-  items.push(["design-point", "design point: allowable stress (point estimate) at the allowed failure probability"]);
-  if (data.designLower) items.push(["design-point-lower", `the same at the ${formatPercent(data.confidence)} lower bound`]);
+  items.push(["design-point", "design point: inert allowable stress (point estimate) at the allowed failure probability"]);
+  if (data.designLower) items.push(["design-point-lower", `the same at the ${formatPercent(data.confidence)} one-sided lower bound`]);
   items.push(["applied", "applied peak stress"]);
   byId("plot-legend").replaceChildren(
     ...items.map(([cls, text]) => el("li", { className: `key-${cls}` }, [el("span", { className: "swatch", attrs: { "aria-hidden": "true" } }), document.createTextNode(text)])),

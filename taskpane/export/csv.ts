@@ -4,8 +4,8 @@
  * cells that a spreadsheet would read as a formula are prefixed with an
  * apostrophe, so opening the file never runs anything.
  */
-import type { DesignCheckResult } from "../app/check";
-import type { Caution } from "../app/cautions";
+import type { DesignCheckResult } from "../../src/design/check-result";
+import type { Caution } from "../../src/design/check-result";
 import type { ResultRow } from "../app/result-table";
 import { inputRows } from "./input-rows";
 

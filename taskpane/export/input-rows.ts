@@ -1,5 +1,6 @@
 /** The inputs as labelled rows, for the CSV export and the printable page. */
-import { METHOD_LABELS, type DesignCheckInput } from "../app/inputs";
+import { METHOD_LABELS, type CheckDescription } from "../../src/design/check-description";
+import { confidenceConvention } from "../../src/design/confidence-convention";
 
 export interface InputRow {
   label: string;
@@ -7,7 +8,7 @@ export interface InputRow {
   unit: string;
 }
 
-export function inputRows(input: DesignCheckInput): InputRow[] {
+export function inputRows(input: CheckDescription): InputRow[] {
   const rows: InputRow[] = [];
   const m = input.material;
   if (m.kind === "data") {
@@ -19,7 +20,7 @@ export function inputRows(input: DesignCheckInput): InputRow[] {
     rows.push({ label: "Characteristic strength (typed)", value: m.scale, unit: input.stressUnit });
     if (m.specimens) rows.push({ label: "Specimens behind the typed values", value: m.specimens, unit: "" });
   }
-  rows.push({ label: "Confidence level", value: input.confidence, unit: "" });
+  rows.push({ label: "Confidence level", value: confidenceConvention(input.confidence).boundLabel, unit: "" });
   rows.push({ label: "Fracture origins", value: input.flaws, unit: "" });
   const sp = input.specimen;
   if (sp.kind === "typed") rows.push({ label: "Specimen effective size", value: sp.effectiveSize, unit: input.sizeUnit });
@@ -36,7 +37,7 @@ export function inputRows(input: DesignCheckInput): InputRow[] {
   if (input.lifetime) {
     rows.push({ label: "Required life", value: input.lifetime.lifetime, unit: input.lifetime.timeUnit });
     rows.push({ label: "Crack-growth exponent n", value: input.lifetime.n, unit: "" });
-    rows.push({ label: "Crack-growth parameter B", value: input.lifetime.B, unit: `${input.stressUnit}² ${input.lifetime.timeUnit}` });
+    rows.push({ label: "Crack-growth parameter B", value: input.lifetime.B, unit: input.lifetime.bUnit });
   }
   if (input.proof) rows.push({ label: "Proof stress", value: input.proof.proofStress, unit: input.stressUnit });
   return rows;

@@ -3,7 +3,7 @@
  * step, with the inputs summarised above it; the print stylesheet hides the
  * form controls.
  */
-import type { DesignCheckResult } from "../app/check";
+import type { DesignCheckResult } from "../../src/design/check-result";
 import { byId, el } from "../app/dom";
 import { inputRows } from "./input-rows";
 

@@ -2,12 +2,14 @@
  * What the probability plot draws, in stress and probability units (the
  * plot's scales do the Weibull transform): the plotted failures, censored
  * specimens, the fitted line at specimen size, the same line moved to the
- * part's size, the confidence band where the build has bounds, and the
- * design point. Every coordinate comes from the core.
+ * part's size, the confidence band (the core's: the two-sided band whose
+ * lower edge is the one-sided lower bound the verdict uses, drawn at the
+ * part's size so it meets the lower-bound marker), and the design point.
+ * Every coordinate comes from the core.
  */
 import { strengthAtFailureProbability } from "../../src/weibull/distribution";
-import type { DesignCheckResult } from "../app/check";
-import { optionalCore } from "../app/optional-core";
+import type { DesignCheckResult } from "../../src/design/check-result";
+import { bandMissing, confidenceBand as coreBand } from "../../src/design/check-band";
 
 export interface StressProbability {
   stress: number;
@@ -28,12 +30,17 @@ export interface PlotData {
   band: BandPoint[] | null;
   /** Why there is no band, for the legend. */
   bandMissing: string;
+  /** "90 % two-sided band; its lower edge is the 95 % one-sided lower bound". */
+  bandLabel: string;
+  /** Size ratio the band is drawn at (the part's, so its lower edge meets the lower-bound marker). */
+  bandSizeRatio: number;
   design: StressProbability;
   /** The lower-bound allowable stress at the same probability, where the build has bounds. */
   designLower: StressProbability | null;
   applied: number;
   probabilityRange: [number, number];
   stressRange: [number, number];
+  /** One-sided level of the lower bound. */
   confidence: number;
 }
 
@@ -78,36 +85,27 @@ export function plotData(result: DesignCheckResult): PlotData {
     specimenLine,
     partLine,
     band,
-    bandMissing: !result.sample
-      ? "confidence band: none for typed parameters"
-      : result.censoredStrengths.length > 0
-        ? "confidence band: drawn for complete samples only"
-        : "confidence band: not in this build",
+    bandMissing: bandMissing(result) ?? "",
+    bandLabel: `${result.confidence.bandLabel}, part size: ${result.confidence.pairing}`,
+    bandSizeRatio: k,
     design,
     designLower: result.allowableLower ? { stress: result.allowableLower.value, probability: target } : null,
     applied: result.appliedStress.value,
     probabilityRange: [pMin, pMax],
     stressRange: [Math.min(...stresses) / 1.1, Math.max(...stresses) * 1.1],
-    confidence: result.input.confidence,
+    confidence: result.confidence.oneSided,
   };
 }
 
 /**
- * Two-sided band at the form's confidence c: the one-sided lower bound at
- * (1 + c)/2 and at (1 - c)/2, which for a pivotal quantity is the upper bound
- * at (1 + c)/2.
+ * The core's band at the part's size, on a grid that includes the allowed
+ * failure probability, so the lower edge passes through the lower-bound
+ * allowable marker.
  */
 function confidenceBand(result: DesignCheckResult, pMin: number, pMax: number): BandPoint[] | null {
-  const bound = optionalCore.designStressLowerBound;
-  const sample = result.sample;
-  // A censored sample's bound simulates its pattern on every call: one bound is quick, a band of fifty is not.
-  if (!bound || !sample || result.censoredStrengths.length > 0) return null;
-  const c = result.input.confidence;
-  return logitGrid(pMin, pMax, BAND_STEPS).map((p) => ({
-    probability: p,
-    lower: bound({ sample, survival: 1 - p, confidence: (1 + c) / 2, sizeRatio: 1 }),
-    upper: bound({ sample, survival: 1 - p, confidence: (1 - c) / 2, sizeRatio: 1 }),
-  }));
+  const target = result.targetFailureProbability.value;
+  const grid = [...logitGrid(pMin, pMax, BAND_STEPS), target].sort((a, b) => a - b);
+  return coreBand(result, grid, result.sizeRatio.value);
 }
 
 /** Probabilities evenly spaced on the Weibull axis, ln(-ln(1 - p)). */

@@ -9,8 +9,8 @@
  * strengths when they were pasted into the form (a selected range is referred
  * to where it is). Columns I-L: chart data.
  */
-import type { DesignCheckResult } from "../app/check";
-import type { Caution } from "../app/cautions";
+import type { DesignCheckResult } from "../../src/design/check-result";
+import type { Caution } from "../../src/design/check-result";
 import { formatPercent } from "../app/format";
 import { METHOD_LABELS } from "../app/inputs";
 import { weibullY } from "../plot/plot-data";
@@ -101,7 +101,7 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
   };
   const stressUnit = safeText(input.stressUnit);
   const sizeUnit = safeText(input.sizeUnit);
-  input1("confidence", "Confidence level", input.confidence, "", "one-sided, for the lower bound and the lot count");
+  input1("confidence", "Confidence level", result.confidence.oneSided, "", `${result.confidence.boundLabel}, for the allowables and the lot count`);
 
   // Data: pasted strengths go to F:G of this sheet; a selected range stays where it is.
   let strengths = "";
@@ -109,7 +109,7 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
   const material = input.material;
   if (material.kind === "data") {
     input1("method", "Estimation method", material.method, "", METHOD_LABELS[material.method]);
-    if (material.source.kind === "range") {
+    if (material.source?.kind === "range") {
       strengths = material.source.strengthsAddress;
       flags = material.source.flagsAddress ?? "";
       put(row++, A, [["Strength data", strengths, stressUnit, flags ? `censoring flags in ${flags}` : "no censoring flags"]], "text");
@@ -145,7 +145,7 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
   let table: { stresses: string; sizes: string } | null = null;
   if (pt.kind === "typed") {
     input1("partSizeTyped", `Part effective ${word}`, pt.effectiveSize, sizeUnit, "typed");
-  } else if (pt.source.kind === "range") {
+  } else if (pt.source?.kind === "range") {
     table = { stresses: pt.source.stressesAddress, sizes: pt.source.sizesAddress };
     put(row++, A, [["Element table", `${table.stresses} with sizes ${table.sizes}`, "", "stresses and element sizes where they are"]], "text");
   } else {
@@ -169,7 +169,7 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
   if (life) {
     input1("lifetime", "Required life at the applied stress", life.lifetime, safeText(life.timeUnit), "constant stress");
     input1("scgN", "Crack-growth exponent n", life.n, "", "service environment");
-    input1("scgB", "Crack-growth parameter B", life.B, `${stressUnit}² ${safeText(life.timeUnit)}`, "service environment");
+    input1("scgB", "Crack-growth parameter B", life.B, safeText(life.bUnit), "service environment");
   }
   if (input.proof) input1("proofStress", "Proof stress", input.proof.proofStress, stressUnit, "every part, inert unloading");
 
@@ -234,7 +234,7 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
   const k = refs.sizeRatio;
   result1("allowablePoint", "Allowable stress, point estimate", `=BRITTLE.DESIGNSTRESS(${refs.survivalUsed},${m},${th},${k})`, stressUnit, "two-parameter Weibull, size-scaled", STRESS);
 
-  const conf = formatPercent(input.confidence);
+  const conf = formatPercent(result.confidence.oneSided);
   // Only where the form itself has the bound, so the sheet and the form never disagree on the verdict's basis.
   const boundsFormula = options.functions.has("DESIGNSTRESSBOUND") && material.kind === "data" && result.allowableLower !== null;
   if (boundsFormula) {
@@ -268,35 +268,36 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
       row++;
     }
   };
-  const t = result.time;
+  // The design flaw's inert strength on the verdict's basis, floored by the proof stress (src/design/check-time.ts).
+  const inertBasis = input.proof ? `MAX(${shortTerm},${refs.proofStress})` : shortTerm;
   if (life) {
+    // LIFEDESIGNSTRESS at survival e^-1, m = 1, size ratio 1 starts from an inert strength equal to its scale argument.
     derived("lifetimeAllowable", "Allowable stress over the lifetime", "LIFEDESIGNSTRESS",
-      `=BRITTLE.LIFEDESIGNSTRESS(${refs.survivalUsed},${refs.lifetime},${m},${th},${refs.scgN},${refs.scgB},${k})`,
-      t.lifetimeAllowable?.value ?? null, stressUnit, "slow crack growth, point estimate", STRESS);
+      `=BRITTLE.LIFEDESIGNSTRESS(EXP(-1),${refs.lifetime},1,${inertBasis},${refs.scgN},${refs.scgB},1)`,
+      result.lifetimeAllowable?.value ?? null, stressUnit,
+      `slow crack growth from the design flaw's inert strength (${refs.allowableLower ? "lower bound" : "point estimate"}${input.proof ? ", at least the proof stress" : ""})`, STRESS);
   }
   if (input.proof) {
     derived("proofBreaks", "Parts broken by the proof test", "PROOFBREAKS", `=BRITTLE.PROOFBREAKS(${refs.proofStress},${m},${th},${k})`,
-      t.proofBreaks?.value ?? null, "", "point estimate", PROBABILITY);
+      result.proof?.breaks.pointEstimate ?? null, "", "point estimate", PROBABILITY);
     derived("postProofPf", "Failure probability of survivors at the applied stress", "POSTPROOFFAILPROB",
       `=BRITTLE.POSTPROOFFAILPROB(${refs.applied},${refs.proofStress},${m},${th},${k})`,
-      t.postProofFailureProbability?.value ?? null, "", "inert loading; 0 at or below the proof stress", PROBABILITY);
+      result.proof?.survivorsFailureProbability.value ?? null, "", "inert loading; 0 at or below the proof stress", PROBABILITY);
     if (life) {
       derived("proofMinLife", "Minimum life guaranteed by the proof test", "PROOFMINLIFE",
         `=BRITTLE.PROOFMINLIFE(${refs.proofStress},${refs.applied},${refs.scgN},${refs.scgB})`,
-        t.proofMinimumLife?.value ?? null, safeText(life.timeUnit), "#VALUE! when the applied stress exceeds the proof stress");
+        result.proof?.minimumLife?.value ?? null, safeText(life.timeUnit), "#VALUE! when the applied stress exceeds the proof stress");
     }
   }
   let governing = shortTerm;
   if (life) {
-    const lowest = `MIN(${shortTerm},${refs.lifetimeAllowable})`;
-    const formula = input.proof
-      ? `=IF(IFERROR(${refs.proofMinLife},0)>=${refs.lifetime},${shortTerm},${lowest})`
-      : `=${lowest}`;
-    result1("governing", "Governing allowable stress", formula, stressUnit,
-      input.proof ? "lower of short-term and lifetime, unless the proof test guarantees the life" : "lower of short-term and lifetime", STRESS);
+    governing = refs.lifetimeAllowable;
+  } else if (input.proof) {
+    result1("governing", "Governing allowable stress", `=${inertBasis}`, stressUnit, "the inert allowable, at least the proof stress", STRESS);
     governing = refs.governing;
   }
-  result1("margin", "Margin (allowable / applied)", `=${governing}/${refs.applied}`, "", refs.allowableLower ? "on the lower-bound allowable" : "on the point estimate: no confidence bound", RATIO);
+  result1("reserveFactor", "Reserve factor (allowable / applied)", `=${governing}/${refs.applied}`, "", refs.allowableLower ? "on the lower-bound allowable" : "on the point estimate: no confidence bound", RATIO);
+  result1("marginOfSafety", "Margin of safety (reserve factor - 1)", `=${refs.reserveFactor}-1`, "", "negative when the applied stress exceeds the allowable", RATIO);
   result1(
     "verdict",
     "Verdict",

@@ -1,6 +1,6 @@
 /**
- * The caution notes shown next to the result (METHODS.md section 7), with
- * stronger wording where this check gives reason: a poor fit, a small
+ * The caution notes that go with a design check's result, with stronger
+ * wording where this check gives reason: a poor fit, a small
  * sample, a long extrapolation below the data or across sizes, or no
  * confidence bound to design on.
  *
@@ -11,15 +11,9 @@
  * one decade of extrapolation is ordinary in design, three or more is far
  * beyond anything the data show (common practice, no source).
  */
-import type { DesignCheckResult } from "./check";
+import type { Caution, DesignCheckResult } from "./check-result";
 
-export type CautionLevel = "note" | "warning";
-
-export interface Caution {
-  id: string;
-  level: CautionLevel;
-  text: string;
-}
+export type { Caution, CautionLevel } from "./check-result";
 
 export const SMALL_SAMPLE = 10;
 export const RECOMMENDED_SAMPLE = 30;
@@ -27,6 +21,7 @@ export const POOR_FIT_SIGNIFICANCE = 0.05;
 export const FAR_EXTRAPOLATION_DECADES = 3;
 export const LARGE_SIZE_RATIO = 1000;
 
+/** The cautions for a result (its own `cautions` field excepted, which this fills). */
 export function cautionsFor(result: DesignCheckResult): Caution[] {
   const out: Caution[] = [];
   const n = result.parameters.failures ?? result.parameters.specimens;
@@ -57,13 +52,21 @@ export function cautionsFor(result: DesignCheckResult): Caution[] {
   }
 
   // Sample size.
-  if (typed) {
+  if (typed && result.parameters.specimens === undefined) {
     out.push({
       id: "sample",
       level: "warning",
       text:
-        "The Weibull parameters were typed: the check cannot judge how many specimens they rest on, how well they fit, " +
-        "or how uncertain they are. Use the test results where you have them.",
+        "The Weibull parameters were typed without the number of specimens: the check cannot judge how many specimens they rest on, " +
+        "how well they fit, or how uncertain they are. Give the number of specimens, or use the test results where you have them.",
+    });
+  } else if (typed) {
+    out.push({
+      id: "sample",
+      level: n !== undefined && n < RECOMMENDED_SAMPLE ? "warning" : "note",
+      text:
+        `The Weibull parameters were typed from a datasheet of ${n} specimens: the bounds assume a complete sample (no censoring) of one ` +
+        "flaw population, maximum-likelihood values, and that the datasheet's lot represents the parts; the check cannot test the fit.",
     });
   } else if (n !== undefined && n < SMALL_SAMPLE) {
     out.push({
@@ -151,13 +154,15 @@ export function cautionsFor(result: DesignCheckResult): Caution[] {
       "specimen and part; the multiaxial criterion alone changes biaxial predictions by roughly 7-16 % at m = 10.",
   });
 
-  if ((result.censoredStrengths.length ?? 0) > 0) {
+  if (result.censoring) {
+    const c = result.censoring;
+    const flips = c.uncensored.pass !== result.verdict.pass;
     out.push({
       id: "censored",
-      level: "note",
+      level: c.weakestCensored || flips ? "warning" : "note",
       text:
-        `${result.censoredStrengths.length} specimen(s) are censored (another flaw population): the fit describes one ` +
-        "population only; the part fails from either, so check the other population's risk too.",
+        c.text +
+        " The fit describes one population only; the part fails from either, so check the other population's risk too.",
     });
   }
 
@@ -169,7 +174,8 @@ export function cautionsFor(result: DesignCheckResult): Caution[] {
       text:
         `The lifetime allowable stress assumes power-law crack growth with n = ${life.n} and B measured in the service ` +
         "environment and temperature, Weibull parameters of inert strength, and a constant stress; n depends strongly " +
-        "on environment, and thresholds or R-curve behaviour change the answer. It uses the point estimate, not a bound.",
+        "on environment, and thresholds or R-curve behaviour change the answer. It rests on the same basis as the inert allowable " +
+        (result.allowableLower ? `(the ${result.confidence.boundLabel}); the uncertainty of n and B is not included.` : "(the point estimate); the uncertainty of n and B is not included."),
     });
   }
   const proof = result.input.proof;
@@ -197,9 +203,9 @@ export function cautionsFor(result: DesignCheckResult): Caution[] {
     id: "codes",
     level: "note",
     text:
-      "This result supports, and does not replace, the judgement of a licensed engineer under the codes that govern the " +
+      "This result supports, and does not replace, the judgement of a licensed engineer under the local codes that govern the " +
       "application (for example ASTM E1300 or EN 16612 for structural glass, ISO 6872 for dental ceramics, ISO 6474 and " +
-      "ISO 13356 for implant ceramics).",
+      "ISO 13356 for implant ceramics); where a failure can hurt someone, those codes and that engineer decide.",
   });
   return out;
 }
