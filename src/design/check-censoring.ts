@@ -43,7 +43,7 @@ export function censoringComparison(
   run: (complete: CheckDescription) => CheckOutcome,
 ): CensoringComparison {
   const material = input.material;
-  if (material.kind !== "data" || !material.censored) throw new InputError("value", "the censoring comparison needs a censored sample");
+  if (material.kind !== "data" || !material.censored) throw new InputError("input", "the censoring comparison needs a censored sample");
   const ranks = censoredRanks(material.strengths, material.censored);
   const quarter = weakestQuarter(material.strengths.length);
   const weakestCensored = ranks.some((r) => r <= quarter);

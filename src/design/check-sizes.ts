@@ -29,7 +29,7 @@ export interface ResolvedSizes {
 
 export function resolveSizes(input: CheckDescription, shape: number): ResolvedSizes {
   const unit = parseSizeUnit(input.sizeUnit);
-  if (!unit) throw new InputError("value", `sizeUnit: "${input.sizeUnit}" is not a size unit (use mm^3, cm^3, m^3, in^3, or ^2 for areas)`);
+  if (!unit) throw new InputError("input", `sizeUnit: "${input.sizeUnit}" is not a size unit (use mm^3, cm^3, m^3, in^3, or ^2 for areas)`);
   const flaws = input.flaws;
   const m = formatNumber(shape);
   const fromMm = (mmValue: number) => mmValue / unit.inMillimetres;
@@ -63,7 +63,7 @@ export function resolveSizes(input: CheckDescription, shape: number): ResolvedSi
     shape,
     criterion: input.criterion,
   });
-  if (!(risk.peak > 0)) throw new InputError("value", "part.stresses: no element of the part's table carries tensile stress");
+  if (!(risk.peak > 0)) throw new InputError("input", "part.stresses: no element of the part's table carries tensile stress");
   const columns = p.columns === 1 ? "maximum principal stress" : p.columns === 3 ? "principal stresses" : "stress tensors";
   return {
     unit,

@@ -125,6 +125,6 @@ export function failureProbabilityUpper(
   if (f(lo) >= 0) return pf(lo);
   if (f(hi) <= 0) return pf(hi);
   const root = findRoot(f, lo, hi, { relativeTolerance: 1e-12 });
-  if (!root.converged) throw new InputError("num", "the upper bound on the failure probability did not converge");
+  if (!root.converged) throw new InputError("notConverged", "the upper bound on the failure probability did not converge");
   return pf(root.root);
 }

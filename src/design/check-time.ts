@@ -46,7 +46,7 @@ export function lifetimeStressFromInert({
   const fHi = f(hi);
   if (fHi <= 0) return inertStrength;
   const root = findRoot(f, lo, hi, { relativeTolerance: 1e-15 });
-  if (!root.converged) throw new InputError("num", "the lifetime allowable stress did not converge");
+  if (!root.converged) throw new InputError("notConverged", "the lifetime allowable stress did not converge");
   return Math.exp(root.root);
 }
 

@@ -27,7 +27,7 @@ import {
 import { parseBUnit, parseSizeUnit, powerFor, TIME_UNITS } from "./check-units";
 
 /** The kind of InputError a bad field raises: the caller's input cannot be used. */
-const BAD_INPUT = "value" as const;
+const BAD_INPUT = "input" as const;
 
 /** A field of a check description that cannot be used; `field` is its path. */
 export class CheckFieldError extends InputError {
