@@ -27,6 +27,8 @@ import { specimenEffectiveSize } from "../src/size/presets";
 import { partEffectiveSize } from "../src/size/part";
 import { relativeError } from "./helpers";
 import { generateMetadata } from "../functions/metadata";
+import { runDesignCheck } from "../src/design/design-check";
+import { parseCheckFile } from "../src/design/check-file";
 import { writeFile } from "node:fs/promises";
 
 const ROOT = resolve(import.meta.dirname, "..");
@@ -167,8 +169,6 @@ describe("design-check form in headless Chromium, standalone", () => {
       "size-ratio": k,
       "allowable-point": allowable,
       "pf-applied": pf,
-      "expected-failures": expectedFailures({ failureProbability: pf, lotSize: 5000 }),
-      "failures-bound": failuresUpperBound({ failureProbability: pf, lotSize: 5000, confidence: 0.9 }),
     };
     for (const [id, value] of Object.entries(expected)) {
       expect(relativeError(await rowValue(page, id), value), id).toBeLessThan(1e-14);
@@ -183,7 +183,13 @@ describe("design-check form in headless Chromium, standalone", () => {
     if (lowerText) expect(governing).toBeLessThan(allowable);
     else expect(verdict).toMatch(/point-estimate allowable stress/);
     expect(verdict).toMatch(governing >= 180 ? /^PASS/ : /^FAIL/);
-    expect(relativeError(await rowValue(page, "margin"), governing / 180)).toBeLessThan(1e-14);
+    expect(relativeError(await rowValue(page, "reserve-factor"), governing / 180)).toBeLessThan(1e-14);
+    // Lot counts rest on the verdict's basis: the one-sided upper bound on the failure probability in service
+    // (the dual of the lower-bound allowable), with the point estimate shown beside it.
+    const pfUpper = await rowValue(page, "pf-upper");
+    expect(pfUpper).toBeGreaterThan(pf);
+    expect(relativeError(await rowValue(page, "expected-failures"), expectedFailures({ failureProbability: pfUpper, lotSize: 5000 }))).toBeLessThan(1e-14);
+    expect(await rowValue(page, "failures-bound")).toBe(failuresUpperBound({ failureProbability: pfUpper, lotSize: 5000, confidence: 0.95 }));
 
     // Each result says what produced it.
     expect(await page.textContent('dd[data-row="modulus"] .basis')).toMatch(/maximum likelihood \(modulus as solved, not unbiased\); 15 specimens/);
@@ -253,7 +259,7 @@ describe("design-check form in headless Chromium, standalone", () => {
     expect(await page.locator("svg.probability-plot .failures circle").count()).toBe(22);
     expect(await page.textContent('dd[data-row="modulus"] .basis')).toMatch(/; 22 failures and 2 censored of 24 specimens/);
     const cautions = await page.locator("#caution-list li").allTextContents();
-    expect(cautions.some((c) => /2 specimen\(s\) are censored/.test(c))).toBe(true);
+    expect(cautions.some((c) => /censored/.test(c) && /one population only/.test(c))).toBe(true);
     await page.screenshot({ path: join(ARTIFACTS, "browser-design-check-censored.png"), fullPage: true });
     expect(problems).toEqual([]);
     await page.close();
@@ -277,7 +283,7 @@ describe("design-check form in headless Chromium, standalone", () => {
     expect(verdict).toMatch(allowable >= 200 ? /^PASS/ : /^FAIL/);
     expect(verdict).toMatch(/not a design verdict on its own/);
     expect(await page.textContent('dd[data-row="allowable-lower"] .value')).toBe("not available");
-    expect(await page.textContent('dd[data-row="allowable-lower"] .basis')).toMatch(/typed parameters carry no uncertainty/);
+    expect(await page.textContent('dd[data-row="allowable-lower"] .basis')).toMatch(/without the number of specimens carry no uncertainty/);
     expect(await page.textContent("label[for=specimen-size]")).toMatch(/Effective area/);
     const warnings = await page.locator("#caution-list li.warning").allTextContents();
     expect(warnings.some((w) => /parameters were typed/.test(w))).toBe(true);
@@ -437,7 +443,7 @@ describe("explaining a BRITTLE formula in the pane", () => {
     await page.waitForSelector("#explain-result");
     // The host would show a bare code for some errors; here the message is in full (domain: survival in (0, 1), common practice).
     const error = (await page.textContent("#explain-result")) ?? "";
-    expect(error).toMatch(/^#(VALUE!|NUM!) .*survival.*between 0 and 1/);
+    expect(error).toMatch(/^#VALUE! .*survival.*between 0 and 1/);
     expect(await page.textContent('dd[data-argument="sizeRatio"]')).toMatch(/omitted: the default applies/);
 
     // Invented strengths as an array constant: a zero is skipped, one specimen is flagged censored (counted by hand).
@@ -470,5 +476,172 @@ describe("explaining a BRITTLE formula in the pane", () => {
     await page.locator("#step-explain").screenshot({ path: join(ARTIFACTS, "browser-explain-formula.png") });
     expect(problems).toEqual([]);
     await page.close();
+  });
+});
+
+describe("the design check's guards, basis and saved file in the pane", () => {
+  it("asks before checking against a survival below 50 %, and never shows a probability as 100 % or 0 %", async () => {
+    const { page, problems } = await open();
+    await page.fill("#strengths", STRENGTHS.join("\n"));
+    // 0.0001 typed where the survival 0.9999 was meant (the case reported in the issue).
+    await fillDesign(page, { specimen: "12.5", part: "800", applied: "120", survival: "0.0001" });
+    await page.waitForFunction(() => (document.querySelector("#requirement-error")?.textContent ?? "") !== "");
+    expect(await page.isVisible("#low-survival")).toBe(true);
+    expect(await page.textContent("#requirement-error")).toMatch(/survival of 0\.0001 means 99\.99 % of parts may fail.*type the survival 0\.9999/);
+    expect(await page.getAttribute("#verdict", "data-verdict")).toBeNull();
+    await page.screenshot({ path: join(ARTIFACTS, "browser-guard-low-survival.png"), fullPage: true });
+
+    await page.check("#confirm-low-survival");
+    await waitForVerdict(page);
+    // The allowed failure probability 1 - 0.0001 keeps its digits (it read "100 %" before).
+    expect(await page.textContent('dd[data-row="target-pf"] .value')).toBe("99.99 %");
+
+    await page.fill("#survival", "0.9999");
+    await page.waitForFunction(() => document.querySelector('dd[data-row="target-pf"] .value')?.textContent?.startsWith("1.0e-4"));
+    expect(await page.isHidden("#low-survival")).toBe(true);
+    for (const text of await page.locator("#result-list .value").allTextContents()) {
+      expect(text).not.toMatch(/(^|[^.\d])(100|0) %/);
+    }
+    expect(problems).toEqual([]);
+    await page.close();
+  });
+
+  it("fixes the size unit to millimetres while a configuration defines the size", async () => {
+    const { page } = await open();
+    await page.selectOption("#size-unit", "in^3");
+    await page.check('input[name="specimen-source"][value="preset"]');
+    expect(await page.isDisabled("#size-unit")).toBe(true);
+    expect(await page.inputValue("#size-unit")).toBe("mm^3");
+    await page.check('input[name="flaws"][value="surface"]');
+    expect(await page.inputValue("#size-unit")).toBe("mm^2");
+    await page.check('input[name="specimen-source"][value="bar"]');
+    expect(await page.isDisabled("#size-unit")).toBe(true);
+    await page.check('input[name="specimen-source"][value="typed"]');
+    expect(await page.isDisabled("#size-unit")).toBe(false);
+    expect(await page.locator("#size-unit option").evaluateAll((o) => o.map((x) => (x as HTMLOptionElement).value))).toEqual(["mm^2", "cm^2", "m^2", "in^2"]);
+    await page.close();
+  });
+
+  it("shows the governing check, the reserve factor and margin of safety, the basis, and a band that meets the lower-bound marker", async () => {
+    const { page, problems } = await open();
+    await page.fill("#strengths", STRENGTHS.join("\n"));
+    await page.selectOption("#method", "MLE-RAW");
+    await fillDesign(page, { specimen: "12.5", part: "800", applied: "180" });
+    const verdict = await waitForVerdict(page);
+    const lower = await rowValue(page, "allowable-lower");
+    const reserve = await rowValue(page, "reserve-factor");
+    // Definitions from the issue: reserve factor = allowable / applied, margin of safety = reserve factor - 1.
+    expect(relativeError(reserve, lower / 180)).toBeLessThan(1e-14);
+    expect(relativeError(await rowValue(page, "margin-of-safety"), reserve - 1)).toBeLessThan(1e-12);
+    expect(relativeError(await rowValue(page, "highest-passing"), lower)).toBeLessThan(1e-14);
+    expect(await page.textContent("#label-reserve-factor")).toMatch(/Reserve factor/);
+    expect(await page.textContent("#label-margin-of-safety")).toMatch(/Margin of safety/);
+    expect(await page.textContent('dd[data-row="governing"] .value')).toMatch(/inert/i);
+    expect(verdict).toMatch(reserve >= 1 ? /^PASS/ : /^FAIL/);
+    // Every confidence on the page carries its sidedness.
+    const basis = await page.locator("#basis-list li").allTextContents();
+    expect(basis.length).toBeGreaterThan(2);
+    expect(basis.join(" ")).toMatch(/95 % one-sided/);
+    const legend = (await page.textContent("#plot-legend")) ?? "";
+    expect(legend).toMatch(/90 % two-sided/);
+    expect(legend).toMatch(/95 % one-sided/);
+
+    // The band's lower edge passes through the lower-bound marker on the drawn plot (within 0.05 px).
+    const marker = await page.getAttribute("svg.probability-plot .design-point-lower", "transform");
+    const [mx, my] = (marker ?? "").match(/-?\d+(\.\d+)?(e-?\d+)?/g)!.map(Number);
+    const band = (await page.getAttribute("svg.probability-plot .band", "d")) ?? "";
+    const numbers = (band.match(/-?\d+(\.\d+)?(e-?\d+)?/g) ?? []).map(Number);
+    let nearest = Infinity;
+    for (let i = 0; i + 1 < numbers.length; i += 2) nearest = Math.min(nearest, Math.hypot(numbers[i] - mx, numbers[i + 1] - my));
+    expect(nearest).toBeLessThan(0.05);
+    await page.locator("#step-result").screenshot({ path: join(ARTIFACTS, "browser-verdict-basis.png") });
+    expect(problems).toEqual([]);
+    await page.close();
+  });
+
+  it("shows lower bounds from datasheet values when the number of specimens is typed", async () => {
+    const { page } = await open();
+    await page.check('input[name="material-source"][value="typed"]');
+    await page.fill("#typed-modulus", "10");
+    await page.fill("#typed-scale", "400");
+    await fillDesign(page, { specimen: "10", part: "500", applied: "150" });
+    await waitForVerdict(page);
+    expect(await page.textContent('dd[data-row="allowable-lower"] .value')).toBe("not available");
+    await page.fill("#typed-specimens", "30");
+    await page.waitForFunction(() => document.querySelector('dd[data-row="allowable-lower"]')?.getAttribute("data-value") !== "");
+    const lower = await rowValue(page, "allowable-lower");
+    const point = await rowValue(page, "allowable-point");
+    // A lower confidence bound lies below the point estimate it bounds.
+    expect(lower).toBeLessThan(point);
+    expect(await page.textContent('dd[data-row="allowable-lower"] .basis')).toMatch(/30/);
+    await page.close();
+  });
+
+  it("saves the check as a file, reopens it with the same verdict, and refuses a bad file without losing the form", async () => {
+    const { page, problems } = await open();
+    await page.fill("#check-title", "Bracket B-12 (invented)");
+    await page.fill("#strengths", STRENGTHS.join("\n"));
+    await page.selectOption("#method", "MLE-RAW");
+    await fillDesign(page, { specimen: "12.5", part: "800", applied: "150" });
+    await page.check("#use-lifetime");
+    await page.fill("#lifetime", "20000");
+    await page.selectOption("#time-unit", "h");
+    await page.fill("#scg-n", "30");
+    await page.fill("#scg-b", "50");
+    expect(await page.textContent("#b-unit")).toBe("MPa² h");
+    await page.check("#use-proof");
+    await page.fill("#proof-stress", "200");
+    const verdict = await waitForVerdict(page);
+    const ids = await page.locator("#result-list dd[data-row]").evaluateAll((d) => d.map((x) => x.getAttribute("data-row")!));
+    const values = await page.locator("#result-list dd[data-row]").evaluateAll((d) => d.map((x) => x.getAttribute("data-value")));
+
+    const [download] = await Promise.all([page.waitForEvent("download"), page.click("#save-check")]);
+    expect(download.suggestedFilename()).toBe("bracket-b-12-invented.check.json");
+    const saved = join(ARTIFACTS, "browser-saved.check.json");
+    await download.saveAs(saved);
+    const file = JSON.parse(await readFile(saved, "utf8"));
+    expect(file.format).toBe("brittle-design-check");
+    expect(file.title).toBe("Bracket B-12 (invented)");
+    expect(file.material.strengths).toEqual(STRENGTHS);
+    expect(file.confidence).toEqual({ level: 0.95, sides: "one-sided" });
+    expect(file.lifetime).toMatchObject({ lifetime: 20000, timeUnit: "h", n: 30, B: 50, bUnit: "MPa^2 h" });
+    expect(file.proof).toEqual({ proofStress: 200 });
+    // The saved file alone gives the pane's verdict headless (the core `brittle check` runs).
+    expect(runDesignCheck(parseCheckFile(await readFile(saved, "utf8"))).verdict.text).toBe(verdict);
+
+    const second = await open();
+    await second.page.setInputFiles("#open-check", saved);
+    const reopened = await waitForVerdict(second.page);
+    expect(reopened).toBe(verdict);
+    expect(await second.page.inputValue("#check-title")).toBe("Bracket B-12 (invented)");
+    expect(await second.page.inputValue("#time-unit")).toBe("h");
+    expect(await second.page.isChecked("#use-proof")).toBe(true);
+    expect(await second.page.locator("#result-list dd[data-row]").evaluateAll((d) => d.map((x) => x.getAttribute("data-row")!))).toEqual(ids);
+    expect(await second.page.locator("#result-list dd[data-row]").evaluateAll((d) => d.map((x) => x.getAttribute("data-value")))).toEqual(values);
+    expect(await second.page.textContent("#open-info")).toMatch(/Opened browser-saved\.check\.json/);
+
+    // Hostile files: each is refused with the field named, and the form keeps what it had.
+    const before = await second.page.inputValue("#strengths");
+    for (const [name, message, guards] of [
+      // A semicolon CSV with decimal commas renamed .check.json: must not half-fill the form.
+      ["check-pane-not-json.check.json", /not a JSON file/, "a non-JSON file replacing the form"],
+      // A standard configuration (sizes in mm) with the part in in^3: must not relabel mm^3 as in^3 (issue 11).
+      ["check-pane-preset-in-inches.check.json", /in\^3/, "a preset's mm sizes read in another unit"],
+      // Another program's JSON: must be named as not a design-check file.
+      ["check-pane-wrong-format.check.json", /format/, "a foreign JSON file read as a check"],
+    ] as const) {
+      await second.page.setInputFiles("#open-check", join(ROOT, "test/fixtures/hostile", name));
+      await second.page.waitForFunction((n) => document.querySelector("#open-info")?.textContent?.includes(n), name);
+      expect(await second.page.textContent("#open-info"), `${name}: ${guards}`).toMatch(message);
+      expect(await second.page.textContent("#open-info"), name).toMatch(/The form is unchanged/);
+      expect(await second.page.inputValue("#strengths"), name).toBe(before);
+      expect(await second.page.inputValue("#check-title"), name).toBe("Bracket B-12 (invented)");
+      expect(await second.page.textContent("#verdict"), name).toBe(verdict);
+    }
+    await second.page.screenshot({ path: join(ARTIFACTS, "browser-reopened-check.png"), fullPage: true });
+    expect(problems).toEqual([]);
+    expect(second.problems).toEqual([]);
+    await page.close();
+    await second.page.close();
   });
 });

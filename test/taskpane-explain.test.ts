@@ -163,6 +163,8 @@ describe("explaining the selected cell through the spreadsheet API", () => {
     const e = await explainSelectedCell(mockContext({ address: "Tests!C2", formula, value: "#VALUE!" }, sheetValues()), metadata);
     expect(e.call.outcome.kind).toBe("error");
     if (e.call.outcome.kind !== "error") throw new Error("unreachable");
+    // A bad input is #VALUE!, the code whose message the host shows (cell policy, functions/cells.ts).
+    expect(e.call.outcome.code).toBe("#VALUE!");
     // The message names the argument and its domain (common practice: a survival probability lies in (0, 1)).
     expect(e.call.outcome.message).toMatch(/survival/);
     expect(e.call.outcome.message).toMatch(/between 0 and 1/);
