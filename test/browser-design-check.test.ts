@@ -375,6 +375,16 @@ describe("design-check form in headless Chromium, standalone", () => {
     expect(await page.isVisible("#print-inputs")).toBe(true);
     expect(await page.isHidden("#check-form")).toBe(true);
     expect(await page.textContent("#print-footer")).toMatch(/Printed .* UTC/);
+    expect(await page.textContent("#print-footer")).toMatch(/licensed engineer/);
+    // A report a reviewer can sign: identification fields left to fill, every specimen, the methods, the basis, signatures.
+    const ident = (await page.locator("#print-ident dt").allTextContents()).join("|");
+    for (const label of ["Part and drawing", "Material and supplier", "Lot or batch", "Revision", "Author", "Checker", "Date printed"]) expect(ident).toContain(label);
+    expect(await page.isVisible("#print-appendix")).toBe(true);
+    expect(await page.locator(".print-specimens tbody tr").count()).toBe(STRENGTHS.length);
+    expect((await page.locator("#print-methods li").allTextContents()).join(" ")).toMatch(/ASTM C1239.*ASTM C1683/s);
+    expect(await page.isVisible("#basis-list")).toBe(true);
+    expect(await page.isVisible("#step-explain")).toBe(false);
+    expect(await page.isVisible("#check-file")).toBe(false);
     await page.screenshot({ path: join(ARTIFACTS, "browser-design-check-print.png"), fullPage: true });
     const pdf = await page.pdf({ format: "A4" });
     expect(pdf.subarray(0, 5).toString()).toBe("%PDF-");
@@ -489,7 +499,7 @@ describe("the design check's guards, basis and saved file in the pane", () => {
     expect(await page.isVisible("#low-survival")).toBe(true);
     expect(await page.textContent("#requirement-error")).toMatch(/survival of 0\.0001 means 99\.99 % of parts may fail.*type the survival 0\.9999/);
     expect(await page.getAttribute("#verdict", "data-verdict")).toBeNull();
-    await page.screenshot({ path: join(ARTIFACTS, "browser-guard-low-survival.png"), fullPage: true });
+    await page.locator("#step-requirement").screenshot({ path: join(ARTIFACTS, "browser-guard-low-survival.png") });
 
     await page.check("#confirm-low-survival");
     await waitForVerdict(page);
@@ -555,6 +565,8 @@ describe("the design check's guards, basis and saved file in the pane", () => {
     for (let i = 0; i + 1 < numbers.length; i += 2) nearest = Math.min(nearest, Math.hypot(numbers[i] - mx, numbers[i + 1] - my));
     expect(nearest).toBeLessThan(0.05);
     await page.locator("#step-result").screenshot({ path: join(ARTIFACTS, "browser-verdict-basis.png") });
+    await page.locator("#verdict").screenshot({ path: join(ARTIFACTS, "browser-verdict-line.png") });
+    await page.locator("#basis").screenshot({ path: join(ARTIFACTS, "browser-verdict-basis-lines.png") });
     expect(problems).toEqual([]);
     await page.close();
   });
