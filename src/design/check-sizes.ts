@@ -63,7 +63,7 @@ export function resolveSizes(input: CheckDescription, shape: number): ResolvedSi
     shape,
     criterion: input.criterion,
   });
-  if (!(risk.peak > 0)) throw new InputError("input", "part.stresses: no element of the part's table carries tensile stress");
+  if (!(risk.peak > 0)) throw new InputError("notApplicable", "part.stresses: no element of the part's table carries tensile stress");
   const columns = p.columns === 1 ? "maximum principal stress" : p.columns === 3 ? "principal stresses" : "stress tensors";
   return {
     unit,

@@ -26,14 +26,11 @@ import {
 } from "./check-description";
 import { parseBUnit, parseSizeUnit, powerFor, TIME_UNITS } from "./check-units";
 
-/** The kind of InputError a bad field raises: the caller's input cannot be used. */
-const BAD_INPUT = "input" as const;
-
 /** A field of a check description that cannot be used; `field` is its path. */
 export class CheckFieldError extends InputError {
   readonly field: string;
   constructor(field: string, message: string) {
-    super(BAD_INPUT, field ? `${field}: ${message}` : message);
+    super("input", field ? `${field}: ${message}` : message);
     this.name = "CheckFieldError";
     this.field = field;
   }
@@ -50,6 +47,8 @@ function fail(field: string, message: string): never {
 }
 
 function show(value: unknown): string {
+  // Never echo "NaN" or "Infinity" into a message, even as typed.
+  if (typeof value === "string" && /nan|inf/i.test(value)) return "text that is not a number";
   if (typeof value === "string") return `text "${value.length > 40 ? value.slice(0, 40) + "..." : value}"`;
   if (typeof value === "number") return Number.isNaN(value) ? "not a number" : Number.isFinite(value) ? String(value) : "a number too large to represent";
   if (value === null) return "null";

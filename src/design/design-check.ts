@@ -200,7 +200,9 @@ function evaluate(input: CheckDescription, model: StrengthModel, confidence: Con
         check: "lifetime",
         name: `allowable stress over ${formatNumber(life.lifetime)} ${life.timeUnit} of sustained load (slow crack growth)`,
         allowable: lifetime!.value,
-        basis: lifetime!.basis,
+        basis:
+          "the constant stress the design flaw sustains for the lifetime under power-law crack growth, from its inert strength " +
+          (designInert > inertBasis ? `(the proof stress ${stress(proofStress)}, which every proof-test survivor reaches)` : `(${basisWord})`),
       }
     : {
         check: "inert",
@@ -388,9 +390,14 @@ function verdictText(input: CheckDescription, c: CheckNumbers, confidence: Confi
   const applied = `${formatNumber(c.applied)} ${unit}`;
   const allowable = `${formatNumber(c.governing.allowable)} ${unit}`;
   const point = c.governing.check === "lifetime" ? c.lifetime!.pointEstimate : Math.max(c.allowablePoint.value, input.proof?.proofStress ?? 0);
-  const basis = c.onBound
-    ? `${confidence.boundLabel}; point estimate ${formatNumber(point)} ${unit} shown beside, not used`
-    : "point estimate: no confidence bound, not a design verdict on its own";
+  const proofRaised = input.proof !== null && input.proof.proofStress > (c.allowableLower ?? c.allowablePoint).value;
+  const basis =
+    (proofRaised ? `from the proof stress ${formatNumber(input.proof!.proofStress)} ${unit}, credited above the ${c.onBound ? confidence.boundLabel : "point estimate"}; ` : "") +
+    (c.onBound
+      ? proofRaised
+        ? `point estimate ${formatNumber(point)} ${unit} shown beside, not used`
+        : `${confidence.boundLabel}; point estimate ${formatNumber(point)} ${unit} shown beside, not used`
+      : "point estimate: no confidence bound, not a design verdict on its own");
   const numbers = `reserve factor ${formatNumber(c.reserveFactor, 3)}, margin of safety ${formatNumber(c.reserveFactor - 1, 3)}`;
   return c.pass
     ? `PASS: the applied stress ${applied} is at or below the ${c.governing.name}, ${allowable} (${basis}); ${numbers}.`
