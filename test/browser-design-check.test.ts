@@ -656,4 +656,23 @@ describe("the design check's guards, basis and saved file in the pane", () => {
     await page.close();
     await second.page.close();
   });
+
+  it("opens each shipped example check and gives the verdict brittle check gives", async () => {
+    const { page, problems } = await open();
+    for (const name of ["check-pass.check.json", "check-fail.check.json", "check-lifetime-proof.check.json"]) {
+      const path = join(ROOT, "examples", name);
+      // Reference: the core run headless on the same file, as `brittle check` runs it.
+      const headless = runDesignCheck(parseCheckFile(await readFile(path, "utf8")));
+      await page.setInputFiles("#open-check", path);
+      await page.waitForFunction((n) => document.querySelector("#open-info")?.textContent === `Opened ${n}.`, name);
+      const verdict = await waitForVerdict(page);
+      expect(verdict.slice(0, 4), name).toBe(headless.verdict.pass ? "PASS" : "FAIL");
+      // B quoted per second in a file whose life is in years is converted to the form's one time unit: equal to rounding.
+      expect(relativeError(await rowValue(page, "reserve-factor"), headless.reserveFactor.value), name).toBeLessThan(1e-9);
+    }
+    expect(await page.inputValue("#time-unit")).toBe("years");
+    expect(await page.textContent("#b-unit")).toBe("MPa² years");
+    expect(problems).toEqual([]);
+    await page.close();
+  });
 });
