@@ -675,4 +675,21 @@ describe("the design check's guards, basis and saved file in the pane", () => {
     expect(problems).toEqual([]);
     await page.close();
   });
+
+  it("says so when the censored specimens include the weakest, with the verdict without censoring beside it", async () => {
+    const { page } = await open();
+    // The two weakest of the invented strengths (377.9 and 389.6) flagged censored.
+    const lines = STRENGTHS.map((x) => (x === 377.9 || x === 389.6 ? `${x}\tc` : String(x)));
+    await page.fill("#strengths", lines.join("\n"));
+    await page.selectOption("#method", "MLE-RAW");
+    await fillDesign(page, { specimen: "12.5", part: "800", applied: "150" });
+    await waitForVerdict(page);
+    await page.waitForSelector("#censoring-note:not([hidden])");
+    const note = (await page.textContent("#censoring-note")) ?? "";
+    expect(note).toMatch(/include some of the weakest \(ranks 1, 2 of 15/);
+    expect(note).toMatch(/Counting every specimen as a failure: modulus .*, (PASS|FAIL)/);
+    await page.fill("#strengths", STRENGTHS.join("\n"));
+    await page.waitForSelector("#censoring-note[hidden]", { state: "attached" });
+    await page.close();
+  });
 });
