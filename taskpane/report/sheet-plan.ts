@@ -12,7 +12,7 @@
 import type { DesignCheckResult } from "../../src/design/check-result";
 import type { Caution } from "../../src/design/check-result";
 import { formatPercent } from "../app/format";
-import { METHOD_LABELS } from "../app/inputs";
+import { METHOD_LABELS } from "../../src/design/check-description";
 import { weibullY } from "../plot/plot-data";
 import { reportContent } from "../export/report-content";
 import { absolute, absoluteRange, rangeAddress } from "./a1";
