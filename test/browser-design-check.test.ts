@@ -636,11 +636,11 @@ describe("the design check's guards, basis and saved file in the pane", () => {
     const before = await second.page.inputValue("#strengths");
     for (const [name, message, guards] of [
       // A semicolon CSV with decimal commas renamed .check.json: must not half-fill the form.
-      ["check-pane-not-json.check.json", /not a JSON file/, "a non-JSON file replacing the form"],
+      ["pane-not-json.check.json", /not a JSON file/, "a non-JSON file replacing the form"],
       // A standard configuration (sizes in mm) with the part in in^3: must not relabel mm^3 as in^3 (issue 11).
-      ["check-pane-preset-in-inches.check.json", /in\^3/, "a preset's mm sizes read in another unit"],
+      ["pane-preset-in-inches.check.json", /in\^3/, "a preset's mm sizes read in another unit"],
       // Another program's JSON: must be named as not a design-check file.
-      ["check-pane-wrong-format.check.json", /format/, "a foreign JSON file read as a check"],
+      ["pane-wrong-format.check.json", /format/, "a foreign JSON file read as a check"],
     ] as const) {
       await second.page.setInputFiles("#open-check", join(ROOT, "test/fixtures/hostile", name));
       await second.page.waitForFunction((n) => document.querySelector("#open-info")?.textContent?.includes(n), name);

@@ -21,7 +21,7 @@ export function inputRows(input: CheckDescription): InputRow[] {
     rows.push({ label: "Characteristic strength (datasheet)", value: m.scale, unit: input.stressUnit });
     rows.push({ label: "Specimens behind the datasheet values", value: m.specimens ?? "not given: no confidence bounds", unit: "" });
   }
-  rows.push({ label: "Confidence", value: confidenceConvention(input.confidence).boundLabel, unit: "" });
+  rows.push({ label: "Confidence level", value: confidenceConvention(input.confidence).boundLabel, unit: "" });
   rows.push({ label: "Fracture origins", value: input.flaws, unit: "" });
   const sp = input.specimen;
   if (sp.kind === "typed") rows.push({ label: "Specimen effective size", value: sp.effectiveSize, unit: input.sizeUnit });
