@@ -123,12 +123,13 @@ export function createPlugin(metadata: FunctionMetadata[]) {
 
 function spillSize(shape: SpillShape, sizeOf: (k: number) => ArraySize | undefined): ArraySize {
   const { rows, cols } = shape;
-  if (typeof rows === "number") return new ArraySize(cols, rows);
+  const header = shape.headerRows ?? 0;
+  if (typeof rows === "number") return new ArraySize(cols, rows + header);
   const k = "cellsOf" in rows ? rows.cellsOf : rows.rowsOf;
   const size = sizeOf(k);
   // A range argument's size carries isRef, for which isScalar() is true: use its dimensions, not that flag.
-  if (!size) return new ArraySize(cols, 1);
-  return new ArraySize(cols, "cellsOf" in rows ? size.width * size.height : size.height);
+  if (!size) return new ArraySize(cols, 1 + header);
+  return new ArraySize(cols, ("cellsOf" in rows ? size.width * size.height : size.height) + header);
 }
 
 let registered = false;

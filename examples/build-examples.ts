@@ -65,7 +65,7 @@ async function buildDatasheet(path: string): Promise<void> {
     ["Material scale sigma_0V, MPa mm^(3/m)", "BRITTLE.MATERIALSCALE(E15,E13,E6)"],
     ["Size ratio part / test bar", "E7/E6"],
     ["Design stress at the required survival, MPa", "BRITTLE.DESIGNSTRESS(E8,E13,E15,E18)"],
-    ["Design stress, lower 95 % confidence bound, MPa", `BRITTLE.DESIGNSTRESSBOUND(E8,${data},0.95,E18)`],
+    ["Design stress, lower 95 % confidence bound, MPa", `BRITTLE.DESIGNSTRESSBOUND(E8,${data},,0.95,E18)`],
     ["Failure probability at the applied stress", "BRITTLE.FAILPROB(E9,E13,E15,E18)"],
     ["Expected failures per lot", "BRITTLE.LOTFAILURES(E21,E10)"],
     ["Failures per lot not exceeded at 95 %", "BRITTLE.LOTFAILURES(E21,E10,0.95)"],

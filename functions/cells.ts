@@ -258,6 +258,19 @@ export function readOptionalNumber(value: unknown, name: string, fallback: numbe
   return value === null || value === undefined || value === "" ? fallback : readNumber(value, name);
 }
 
+/** An optional TRUE/FALSE: a missing or blank argument gives the default; 1/0 and the words TRUE/FALSE also count. */
+export function readOptionalBoolean(value: unknown, name: string, fallback: boolean): boolean {
+  if (value === null || value === undefined || value === "") return fallback;
+  if (value === true || value === 1) return true;
+  if (value === false || value === 0) return false;
+  if (typeof value === "string") {
+    const word = value.trim().toUpperCase();
+    if (word === "TRUE") return true;
+    if (word === "FALSE") return false;
+  }
+  throw new CellError("#VALUE!", `${name} must be TRUE or FALSE`);
+}
+
 /** An optional keyword, matched case-insensitively against the allowed words. */
 export function readChoice<T extends string>(value: unknown, name: string, allowed: readonly T[], fallback: T): T {
   if (value === null || value === undefined || value === "") return fallback;

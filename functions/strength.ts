@@ -12,7 +12,7 @@ import {
   scaleFromMean,
   scaleFromMedian,
 } from "../src/weibull/distribution";
-import { estimateWeibull } from "../src/weibull/estimate";
+import { estimateCharacteristicStrength, estimateWeibull } from "../src/weibull/estimate";
 import { readNumber, readOptionalNumber, readSample } from "./cells";
 import { readMethod } from "./fit-method";
 
@@ -24,7 +24,8 @@ function fitCells(strengths: unknown, censored: unknown, method: unknown) {
 
 /**
  * Weibull modulus m of a set of fracture strengths. Default: maximum likelihood with the unbiasing factor of
- * ASTM C1239 / ISO 20501 (see README for its definition). Blank cells and zeros are skipped.
+ * ASTM C1239 / ISO 20501 (see README for its definition), tabulated for N = 3 to 500 and fitted beyond; with two
+ * failures no factor exists (#N/A: use "MLE-RAW"). Blank cells and zeros are skipped.
  * Example: =BRITTLE.MODULUS(B2:B31) gives the modulus of the bend strengths in B2:B31.
  * @customfunction
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
@@ -39,7 +40,7 @@ export function MODULUS(strengths: any[][], censored?: any[][], method?: string)
 /**
  * Characteristic strength (Weibull scale parameter) of a set of fracture strengths: the stress at which 63.2 % of
  * specimens of the tested size fail. With "MLE" or "MLE-RAW" it is the maximum-likelihood value (unbiasing applies
- * to the modulus only). Example: =BRITTLE.CHARSTRENGTH(B2:B31) returns a stress in the units of B2:B31.
+ * to the modulus only, so two failures suffice). Example: =BRITTLE.CHARSTRENGTH(B2:B31) returns a stress in the units of B2:B31.
  * @customfunction
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
  * @param [censored] Optional flags, same shape as strengths: TRUE or 1 where the specimen did not fail from the population being fitted.
@@ -47,7 +48,8 @@ export function MODULUS(strengths: any[][], censored?: any[][], method?: string)
  * @returns Characteristic strength, in the units of the strengths.
  */
 export function CHARSTRENGTH(strengths: any[][], censored?: any[][], method?: string): number {
-  return fitCells(strengths, censored, method).scale;
+  const { method: how, estimator } = readMethod(method);
+  return estimateCharacteristicStrength(readSample(strengths, censored), how, estimator);
 }
 
 /**

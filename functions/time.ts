@@ -21,14 +21,14 @@ import {
   proofMinimumLife,
   proofStressForLife,
 } from "../src/design/proof-test";
-import { CellError, readChoice, readNumber, readOptionalNumber, readPairs, readPositiveNumbers } from "./cells";
+import { CellError, readChoice, readNumber, readOptionalNumber, readPairs } from "./cells";
 import { declareSpills } from "./spill-shapes";
 
 declareSpills({
-  SCGFIT: { rows: 1, cols: 2 },
-  SCGNBOUNDS: { rows: 1, cols: 4 },
-  SCGSTATICFIT: { rows: 1, cols: 2 },
-  SCGSTATICNBOUNDS: { rows: 1, cols: 4 },
+  SCGFIT: { rows: 2, cols: 2 },
+  SCGNBOUNDS: { rows: 4, cols: 2 },
+  SCGSTATICFIT: { rows: 2, cols: 2 },
+  SCGSTATICNBOUNDS: { rows: 4, cols: 2 },
 });
 
 function readConfidence(confidence: unknown): number {
@@ -47,16 +47,19 @@ function planCheck(decades: number, narrow: boolean, few: boolean, levels: numbe
  * Slow-crack-growth exponent n and parameter D from constant stress-rate strength tests (ASTM C1368): least squares
  * of log10 strength on log10 stress rate, one point per specimen; n = 1/slope - 1 and D = 10^intercept, so that
  * strength = D * rate^(1/(n+1)). Use at least four rates spanning three decades or more (see SCGNBOUNDS for the
- * check). Example: =BRITTLE.SCGFIT(A2:A31, B2:B31) spills n and D into two cells.
+ * check). Example: =BRITTLE.SCGFIT(A2:A31, B2:B31) spills n and D, labelled.
  * @customfunction
  * @param stressRates Stress rate of each specimen (stress unit per second, > 0), one per specimen.
  * @param strengths Fracture strength of each specimen (stress unit, > 0), same shape as stressRates.
- * @returns One row: n (dimensionless), D (stress unit at unit stress rate).
+ * @returns 2 x 2 table of labels and values: n (dimensionless), D (stress unit at unit stress rate).
  */
 export function SCGFIT(stressRates: any[][], strengths: any[][]): any[][] {
   const { x, y } = readPairs(stressRates, "stressRates", strengths, "strengths");
   const fit = fitStressRate({ stressRates: x, strengths: y });
-  return [[fit.n, fit.D]];
+  return [
+    ["crack-growth exponent n", fit.n],
+    ["D (strength at unit stress rate)", fit.D],
+  ];
 }
 
 /**
@@ -64,18 +67,24 @@ export function SCGFIT(stressRates: any[][], strengths: any[][]): any[][] {
  * The bounds are the two-sided Student t interval on the regression slope (N - 2 degrees of freedom) mapped through
  * n = 1/slope - 1; "unbounded" when the interval reaches zero slope. The check reads "OK", or names a span under
  * three decades of rate or fewer than four rates (ASTM C1368 test plan).
- * Example: =BRITTLE.SCGNBOUNDS(A2:A31, B2:B31, 0.95) spills lower n, upper n, decades spanned and the check.
+ * Example: =BRITTLE.SCGNBOUNDS(A2:A31, B2:B31, 0.95) spills lower n, upper n, decades spanned and the check, labelled.
  * @customfunction
  * @param stressRates Stress rate of each specimen (stress unit per second, > 0), one per specimen.
  * @param strengths Fracture strength of each specimen (stress unit, > 0), same shape as stressRates.
  * @param [confidence] Two-sided confidence level, strictly between 0 and 1; default 0.95.
- * @returns One row: lower n, upper n (or "unbounded"), decades of stress rate spanned, plan check text.
+ * @returns 4 x 2 table of labels and values: lower n, upper n (or "unbounded"), decades of stress rate spanned, plan check text.
  */
 export function SCGNBOUNDS(stressRates: any[][], strengths: any[][], confidence?: number): any[][] {
   const { x, y } = readPairs(stressRates, "stressRates", strengths, "strengths");
   const fit = fitStressRate({ stressRates: x, strengths: y, confidence: readConfidence(confidence) });
   const check = planCheck(fit.decades, fit.narrowSpan, fit.fewRates, fit.distinctRates, "RATES");
-  return [[fit.nLower, fit.nUpper ?? "unbounded", fit.decades, check]];
+  const level = `(${Number((fit.confidence * 100).toPrecision(4))} %, two-sided)`;
+  return [
+    [`n, lower bound ${level}`, fit.nLower],
+    [`n, upper bound ${level}`, fit.nUpper ?? "unbounded"],
+    ["decades of stress rate spanned", fit.decades],
+    ["test plan check", check],
+  ];
 }
 
 /**
@@ -86,30 +95,39 @@ export function SCGNBOUNDS(stressRates: any[][], strengths: any[][], confidence?
  * @customfunction
  * @param stresses Constant applied stress of each specimen (stress unit, > 0), one per specimen.
  * @param lifetimes Time to failure of each specimen (any time unit, > 0), same shape as stresses.
- * @returns One row: n (dimensionless), log10 Ds (Ds in time unit x stress unit^n).
+ * @returns 2 x 2 table of labels and values: n (dimensionless), log10 Ds (Ds in time unit x stress unit^n).
  */
 export function SCGSTATICFIT(stresses: any[][], lifetimes: any[][]): any[][] {
   const { x, y } = readPairs(stresses, "stresses", lifetimes, "lifetimes");
   const fit = fitStaticFatigue({ stresses: x, lifetimes: y });
-  return [[fit.n, fit.log10D]];
+  return [
+    ["crack-growth exponent n", fit.n],
+    ["log10 Ds", fit.log10D],
+  ];
 }
 
 /**
  * Confidence bounds on n from static-fatigue tests, and a check of the test plan: the two-sided Student t interval on
  * the regression slope (N - 2 degrees of freedom). The check reads "OK", or names failure times spanning under three
  * decades or fewer than four stress levels. Example: =BRITTLE.SCGSTATICNBOUNDS(A2:A21, B2:B21) spills lower n,
- * upper n, decades of time spanned and the check.
+ * upper n, decades of time spanned and the check, labelled.
  * @customfunction
  * @param stresses Constant applied stress of each specimen (stress unit, > 0), one per specimen.
  * @param lifetimes Time to failure of each specimen (any time unit, > 0), same shape as stresses.
  * @param [confidence] Two-sided confidence level, strictly between 0 and 1; default 0.95.
- * @returns One row: lower n, upper n, decades of failure time spanned, plan check text.
+ * @returns 4 x 2 table of labels and values: lower n, upper n, decades of failure time spanned, plan check text.
  */
 export function SCGSTATICNBOUNDS(stresses: any[][], lifetimes: any[][], confidence?: number): any[][] {
   const { x, y } = readPairs(stresses, "stresses", lifetimes, "lifetimes");
   const fit = fitStaticFatigue({ stresses: x, lifetimes: y, confidence: readConfidence(confidence) });
   const check = planCheck(fit.timeDecades, fit.narrowSpan, fit.fewStresses, fit.distinctStresses, "STRESSES");
-  return [[fit.nLower, fit.nUpper, fit.timeDecades, check]];
+  const level = `(${Number((fit.confidence * 100).toPrecision(4))} %, two-sided)`;
+  return [
+    [`n, lower bound ${level}`, fit.nLower],
+    [`n, upper bound ${level}`, fit.nUpper],
+    ["decades of failure time spanned", fit.timeDecades],
+    ["test plan check", check],
+  ];
 }
 
 /**

@@ -74,7 +74,7 @@ export function notRepresentable(name: string, which: "large" | "small"): InputE
     "notRepresentable",
     which === "large"
       ? `the ${name} is too large to represent in double precision`
-      : `the ${name} is too small to represent in double precision (it is not zero, but below 1e-308)`,
+      : `the ${name} is too small to represent in double precision (it is not zero, but below the smallest double, about 5e-324)`,
   );
 }
 

@@ -34,6 +34,7 @@ import { fillStrengths, MATERIAL_FIELDS, readMaterial, setupMaterial } from "./s
 import { fillElementTable, PART_FIELDS, readPart, setupPart } from "./steps/part";
 import { readRequirement, REQUIREMENT_FIELDS, setupRequirement } from "./steps/requirement";
 import { readSpecimen, setupSpecimen, SPECIMEN_FIELDS } from "./steps/specimen";
+import { setupPlanning } from "./steps/planning";
 
 registerInHost();
 
@@ -262,6 +263,7 @@ function wireHost(): void {
 }
 
 wireForm();
+setupPlanning();
 
 if (typeof Office !== "undefined") {
   Office.onReady((hostInfo) => {

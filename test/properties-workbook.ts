@@ -67,13 +67,14 @@ function spillArea(call: Call): { rows: number; cols: number } {
   const shape = spillShapes[call.id];
   if (!shape) return { rows: 1, cols: 1 };
   const { rows, cols } = shape;
-  if (typeof rows === "number") return { rows, cols };
+  const header = shape.headerRows ?? 0;
+  if (typeof rows === "number") return { rows: rows + header, cols };
   const k = "cellsOf" in rows ? rows.cellsOf : rows.rowsOf;
   const arg = call.args[k];
-  if (!arg || arg.kind !== "range") return { rows: 1, cols };
+  if (!arg || arg.kind !== "range") return { rows: 1 + header, cols };
   const height = arg.cells.length;
   const width = arg.cells[0]?.length ?? 1;
-  return { rows: "cellsOf" in rows ? height * width : height, cols };
+  return { rows: ("cellsOf" in rows ? height * width : height) + header, cols };
 }
 
 /** The formula text for a call whose range and cell arguments sit where `place` puts them. */

@@ -251,7 +251,7 @@ describe("writing the design check through the spreadsheet API (office-addin-moc
     rel("allowablePoint", result.allowablePoint.value);
     if (result.allowableLower) {
       // The sheet's bound is the registered DESIGNSTRESSBOUND on the same data, evaluated in the engine.
-      expect(text).toContain(`=BRITTLE.DESIGNSTRESSBOUND($B$10,$F$5:$F$19,$B$5,${p.refs.sizeRatio},$G$5:$G$19)`);
+      expect(text).toContain(`=BRITTLE.DESIGNSTRESSBOUND($B$10,$F$5:$F$19,$G$5:$G$19,$B$5,${p.refs.sizeRatio})`);
       rel("allowableLower", result.allowableLower.value);
     }
     rel("pfApplied", result.failureProbabilityAtApplied.value);
@@ -357,7 +357,8 @@ describe("writing the design check through the spreadsheet API (office-addin-moc
     expect(cells.flat()).toContain(
       live ? "censored sample: adjusted ranks from PLOTPOINTS in AG:AH, live" : "censored sample: plot points are values at the time of writing",
     );
-    if (live) expect(cells[4][32]).toBe("=BRITTLE.PLOTPOINTS($F$5:$F$19,$G$5:$G$19)");
+    // PLOTPOINTS spills its own header row, so the formula sits on the header's row.
+    if (live) expect(cells[3][32]).toBe("=BRITTLE.PLOTPOINTS($F$5:$F$19,$G$5:$G$19)");
     const { at, value } = evaluate({ [sheetName]: cells }, sheetName, p.refs);
     expect(relativeError(value("modulus") as number, result.parameters.shape)).toBeLessThan(1e-12);
     // Reference: the core's Johnson adjusted ranks (plotting-positions.ts), as the form plots them.
@@ -451,6 +452,26 @@ describe("writing the design check through the spreadsheet API (office-addin-moc
     const { sheetName } = await writeReportSheet(context, plan(result));
     expect(sheetName).toBe("Design check 2");
     expect(sheets.get("Design check")!.ranges).toEqual([]);
+  });
+
+  it("on a host below ExcelApi 1.7 (isSetSupported says no) plots the data points only, with no 1.7 chart calls", async () => {
+    // source: @types/office-js 1.0.612 API-set tags: ChartSeriesCollection.add, ChartSeries.setValues/setXAxisValues,
+    // ChartSeries.chartType and ChartAxis.scaleType are ExcelApi 1.7; the manifest requires 1.4.
+    const asked: [string, string | undefined][] = [];
+    const office = { context: { requirements: { isSetSupported: (name: string, version?: string) => (asked.push([name, version]), false) } } };
+    (globalThis as { Office?: unknown }).Office = office;
+    try {
+      const result = runDesignCheck(input());
+      const { context, sheets } = mockWorkbook([]);
+      await writeReportSheet(context, plan(result));
+      const chart = sheets.get("Design check")!.charts[0] as any;
+      expect(asked).toContainEqual(["ExcelApi", "1.7"]);
+      expect(chart.allSeries.map((s: any) => s.name)).toEqual(["Failures"]);
+      expect(chart.axes.categoryAxis.scaleType).toBeUndefined();
+      expect(chart.axes.categoryAxis.title.text).toBe("Stress (MPa)"); // the axis is linear, and says nothing else
+    } finally {
+      delete (globalThis as { Office?: unknown }).Office;
+    }
   });
 
   it("refuses to write into a new sheet that is not empty", async () => {

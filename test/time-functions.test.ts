@@ -20,10 +20,14 @@ function num(r: CellResult): number {
   if (typeof r !== "number") throw new Error(`expected a number, got ${JSON.stringify(r)}`);
   return r;
 }
+/** The values of a labelled two-column block (label, value), in order. */
 function row(r: CellResult): unknown[] {
   if (!Array.isArray(r)) throw new Error(`expected a spill, got ${JSON.stringify(r)}`);
-  expect(r.length).toBe(1);
-  return r[0];
+  for (const line of r) {
+    expect(line).toHaveLength(2);
+    expect(typeof line[0]).toBe("string");
+  }
+  return r.map((line) => line[1]);
 }
 const B = (c: any) => num(guarded.SCGBFROMVELOCITY(c.n, c.A, c.K, c.Y));
 
@@ -150,7 +154,7 @@ describe("the JSDoc examples say what the functions return", () => {
 });
 
 describe("spill shapes", () => {
-  it("declares the 1-row spills with the widths the adapters return", () => {
+  it("declares the labelled two-column spills with the rows the adapters return", () => {
     const d = data.rateFits[0];
     const s = data.staticFits[0];
     for (const [name, args] of [
@@ -160,7 +164,7 @@ describe("spill shapes", () => {
       ["SCGSTATICNBOUNDS", [column(s.stresses), column(s.lifetimes)]],
     ] as const) {
       const out = row(guarded[name](...args));
-      expect(spillShapes[name]).toEqual({ rows: 1, cols: out.length });
+      expect(spillShapes[name]).toEqual({ rows: out.length, cols: 2 });
     }
   });
 });

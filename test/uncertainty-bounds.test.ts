@@ -166,15 +166,18 @@ describe("censored samples: bootstrap conditional on the censoring values", () =
   it("gives the same numbers on every call (seeded by the data) and refuses tails it cannot resolve", () => {
     const c = ref.censoredBootstrap[0];
     const sample = { strengths: c.strengths, censored: c.censored };
-    const a = guarded.MODULUSBOUNDS(column(sample.strengths), 0.9, column(sample.censored));
+    const a = guarded.MODULUSBOUNDS(column(sample.strengths), column(sample.censored), 0.9);
     const b = parameterBounds({ ...sample, confidence: 0.9 });
-    expect(a).toEqual([[b.shape.lower, b.shape.upper]]);
+    expect(a).toEqual([
+      ["modulus, lower bound (90 %, two-sided)", b.shape.lower],
+      ["modulus, upper bound (90 %, two-sided)", b.shape.upper],
+    ]);
     expect(designStressBound({ ...sample, survival: 0.99 }).lower).toBe(designStressBound({ ...sample, survival: 0.99 }).lower);
     // 200 specimens get 2000 bootstrap draws: the 0.005 quantile would rest on 10 of them.
     const big = weibullSample(new SeededRandom(31), 200, 9, 300);
     const flags = big.map((_, i) => i % 9 === 0);
-    expect(code(guarded.MODULUSBOUNDS(column(big), 0.99, column(flags)))).toBe("#VALUE!");
-    expect(typeof (guarded.MODULUSBOUNDS(column(big), 0.9, column(flags)) as number[][])[0][0]).toBe("number");
+    expect(code(guarded.MODULUSBOUNDS(column(big), column(flags), 0.99))).toBe("#VALUE!");
+    expect(typeof (guarded.MODULUSBOUNDS(column(big), column(flags), 0.9) as unknown[][])[0][1]).toBe("number");
   });
 });
 
@@ -257,7 +260,7 @@ describe("design stress bound, complete samples", () => {
     const point = guarded.DESIGNSTRESS(0.9999, fit.shape, fit.scale, 25) as number;
     expect(relativeError(r.estimate, point)).toBeLessThan(1e-13);
     expect(r.lower).toBeLessThan(r.estimate);
-    expect(guarded.DESIGNSTRESSBOUND(0.9999, column(strengths), 0.95, 25)).toBe(r.lower);
+    expect(guarded.DESIGNSTRESSBOUND(0.9999, column(strengths), null, 0.95, 25)).toBe(r.lower);
   });
 });
 
@@ -265,15 +268,15 @@ describe("cell policy", () => {
   const s = column([312, 355, 371, 389, 398, 402, 415, 421]);
   it("confidence outside (0, 1), or beyond the simulated range, is #VALUE!", () => {
     for (const c of [0, 1, 1.5, -0.2]) {
-      expect(code(guarded.MODULUSBOUNDS(s, c))).toBe("#VALUE!");
-      expect(code(guarded.CHARSTRENGTHBOUNDS(s, c))).toBe("#VALUE!");
-      expect(code(guarded.DESIGNSTRESSBOUND(0.999, s, c))).toBe("#VALUE!");
+      expect(code(guarded.MODULUSBOUNDS(s, null, c))).toBe("#VALUE!");
+      expect(code(guarded.CHARSTRENGTHBOUNDS(s, null, c))).toBe("#VALUE!");
+      expect(code(guarded.DESIGNSTRESSBOUND(0.999, s, null, c))).toBe("#VALUE!");
       expect(code(guarded.FIT(s, null, c))).toBe("#VALUE!");
     }
-    expect(code(guarded.MODULUSBOUNDS(s, 0.995))).toBe("#VALUE!"); // two-sided needs the 0.0025 quantile
-    expect(code(guarded.MODULUSBOUNDS(s, 0.995, null, 1))).not.toBe("#VALUE!");
-    expect(code(guarded.DESIGNSTRESSBOUND(0.999, s, 0.999))).toBe("#VALUE!");
-    expect(code(guarded.MODULUSBOUNDS(s, 0.9, null, 3))).toBe("#VALUE!");
+    expect(code(guarded.MODULUSBOUNDS(s, null, 0.995))).toBe("#VALUE!"); // two-sided needs the 0.0025 quantile
+    expect(code(guarded.MODULUSBOUNDS(s, null, 0.995, 1))).not.toBe("#VALUE!");
+    expect(code(guarded.DESIGNSTRESSBOUND(0.999, s, null, 0.999))).toBe("#VALUE!");
+    expect(code(guarded.MODULUSBOUNDS(s, null, 0.9, 3))).toBe("#VALUE!");
   });
 
   it("bad strengths, flags, survival and size ratio follow the one policy", () => {
@@ -281,13 +284,13 @@ describe("cell policy", () => {
     expect(code(guarded.MODULUSBOUNDS([[300], [-5], [400]]))).toBe("#VALUE!");
     expect(code(guarded.MODULUSBOUNDS([[300]]))).toBe("#VALUE!");
     expect(code(guarded.MODULUSBOUNDS([[300], [0], [null], [""], [350], [410]]))).toEqual(guarded.MODULUSBOUNDS([[300], [350], [410]]));
-    expect(code(guarded.CHARSTRENGTHBOUNDS(s, 0.9, [[true], [false]]))).toBe("#VALUE!");
+    expect(code(guarded.CHARSTRENGTHBOUNDS(s, [[true], [false]], 0.9))).toBe("#VALUE!");
     expect(code(guarded.DESIGNSTRESSBOUND(1, s))).toBe("#VALUE!");
     expect(code(guarded.DESIGNSTRESSBOUND(0, s))).toBe("#VALUE!");
-    expect(code(guarded.DESIGNSTRESSBOUND(0.99, s, 0.9, 0))).toBe("#VALUE!");
+    expect(code(guarded.DESIGNSTRESSBOUND(0.99, s, null, 0.9, 0))).toBe("#VALUE!");
     expect(code(guarded.DESIGNSTRESSBOUND("x" as unknown as number, s))).toBe("#VALUE!");
     expect(code(guarded.MODULUSBOUNDS([[300], [300], [300]]))).toBe("#VALUE!"); // no finite ML modulus
     const all = [[300, true], [350, true], [410, false]];
-    expect(code(guarded.MODULUSBOUNDS(all.map((r) => [r[0]]), 0.9, all.map((r) => [r[1]])))).toBe("#VALUE!"); // one failure
+    expect(code(guarded.MODULUSBOUNDS(all.map((r) => [r[0]]), all.map((r) => [r[1]]), 0.9))).toBe("#VALUE!"); // one failure
   });
 });

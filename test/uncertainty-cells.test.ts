@@ -27,10 +27,10 @@ describe("FIT", () => {
     expect(value(/^specimens$/)).toBe(30);
     expect(value(/^modulus m$/)).toBe(guarded.MODULUS(s));
     expect(value(/^characteristic strength$/)).toBe(guarded.CHARSTRENGTH(s));
-    const [[mLo, mHi]] = guarded.MODULUSBOUNDS(s) as number[][];
+    const [[, mLo], [, mHi]] = guarded.MODULUSBOUNDS(s) as unknown[][];
     expect(value(/^modulus, lower bound \(90 %, two-sided\)$/)).toBe(mLo);
     expect(value(/^modulus, upper bound/)).toBe(mHi);
-    const [[a, osl]] = guarded.FITQUALITY(s) as number[][];
+    const [[, a], [, osl]] = guarded.FITQUALITY(s) as unknown[][];
     expect(value(/A\*/)).toBe(a);
     expect(value(/OSL/)).toBe(osl);
     expect(value(/^mean strength$/)).toBe(guarded.MEANSTRENGTH(value(/^modulus m$/), value(/^characteristic strength$/)));
@@ -60,10 +60,13 @@ describe("PLOTPOINTS", () => {
       ["medianrank", (i) => (i - 0.3) / (n + 0.4)],
     ];
     for (const [name, p] of estimators) {
-      const rows = guarded.PLOTPOINTS(column(s), null, name) as number[][];
-      rows.forEach(([x, y], k) => {
+      const [header, ...rows] = guarded.PLOTPOINTS(column(s), null, name) as number[][];
+      expect(header).toEqual(["ln(strength)", "ln(ln(1/(1-P)))", "failure probability P"]);
+      rows.forEach(([x, y, fraction], k) => {
         expect(relativeError(x, Math.log(sorted[k]))).toBeLessThan(1e-15);
         expect(relativeError(y, Math.log(Math.log(1 / (1 - p(k + 1)))))).toBeLessThan(1e-13);
+        // The third column is P itself, for a percent axis.
+        expect(relativeError(fraction, p(k + 1))).toBeLessThan(1e-15);
       });
     }
     expect(code(guarded.PLOTPOINTS(column(s), null, "WEIRD"))).toBe("#VALUE!");
@@ -75,8 +78,9 @@ describe("PLOTPOINTS", () => {
     // Hazen P = (rank - 0.5)/5 = 0.1, 0.35, 0.6, 0.85.
     const s = [[300], [320], [null], [350], [380], [395]];
     const c = [[false], [true], [null], [0], [""], ["F"]];
-    const rows = guarded.PLOTPOINTS(s, c) as unknown[][];
-    expect(rows).toHaveLength(6); // one row per cell of the range
+    const [header, ...rows] = guarded.PLOTPOINTS(s, c) as unknown[][];
+    expect(header).toHaveLength(3);
+    expect(rows).toHaveLength(6); // one row per cell of the range, under the header
     const expected = [
       [300, 0.1],
       [350, 0.35],
@@ -86,10 +90,11 @@ describe("PLOTPOINTS", () => {
     expected.forEach(([strength, p], k) => {
       expect(relativeError(rows[k][0] as number, Math.log(strength))).toBeLessThan(1e-15);
       expect(relativeError(rows[k][1] as number, Math.log(-Math.log1p(-p)))).toBeLessThan(1e-13);
+      expect(relativeError(rows[k][2] as number, p)).toBeLessThan(1e-15);
     });
     expect(rows.slice(4)).toEqual([
-      ["", ""],
-      ["", ""],
+      ["", "", ""],
+      ["", "", ""],
     ]);
   });
 });
@@ -110,31 +115,38 @@ describe("in the embedded engine", () => {
       "=BRITTLE.FIT(A1:A30)",
       ...Array(19).fill(null),
       "=BRITTLE.MODULUSBOUNDS(A1:A30)",
-      "=brittle.charstrengthbounds(A1:A30, 0.95, B1:B30)",
+      null,
+      "=brittle.charstrengthbounds(A1:A30, B1:B30, 0.95)",
+      null,
       "=BRITTLE.FITQUALITY(A1:A30)",
+      null,
       "=BRITTLE.LOTCHECK(A1:A10, A11:A30)",
-      "=BRITTLE.DESIGNSTRESSBOUND(0.9999, A1:A30, 0.95, 25)",
-      "=BRITTLE.MODULUSBOUNDS(A1:A30, 1.2)",
+      null,
+      null,
+      "=BRITTLE.DESIGNSTRESSBOUND(0.9999, A1:A30, , 0.95, 25)",
+      "=BRITTLE.MODULUSBOUNDS(A1:A30, , 1.2)",
+      null,
       "=BRITTLE.FITQUALITY(A1:A30, B1:B30)",
     ]);
     const g = grids.S;
+    const block = (r: number, rows: number) => g.slice(r, r + rows).map((row) => [row[3], row[4]]);
     const fit = guarded.FIT(column(data.strengths)) as unknown[][];
-    for (let r = 0; r < 20; r++) expect([g[r][3], g[r][4]]).toEqual(fit[r]);
-    expect([g[20][3], g[20][4]]).toEqual((guarded.MODULUSBOUNDS(column(data.strengths)) as number[][])[0]);
+    expect(block(0, 20)).toEqual(fit);
+    expect(block(20, 2)).toEqual(guarded.MODULUSBOUNDS(column(data.strengths)));
     const censored = data.strengths.map((_: number, i: number) => [i % 7 === 3 ? true : null]);
-    expect([g[21][3], g[21][4]]).toEqual((guarded.CHARSTRENGTHBOUNDS(column(data.strengths), 0.95, censored) as number[][])[0]);
-    expect([g[22][3], g[22][4]]).toEqual((guarded.FITQUALITY(column(data.strengths)) as number[][])[0]);
-    expect(g[23][5]).toMatch(/baseline/);
-    expect(g[24][3]).toBe(guarded.DESIGNSTRESSBOUND(0.9999, column(data.strengths), 0.95, 25));
-    expect([g[25][3], g[25][4]]).toEqual(["#VALUE!", "#VALUE!"]);
-    expect(g[26][3]).toBe("#N/A");
+    expect(block(22, 2)).toEqual(guarded.CHARSTRENGTHBOUNDS(column(data.strengths), censored, 0.95));
+    expect(block(24, 2)).toEqual(guarded.FITQUALITY(column(data.strengths)));
+    expect(g[28][4]).toMatch(/baseline/);
+    expect(g[29][3]).toBe(guarded.DESIGNSTRESSBOUND(0.9999, column(data.strengths), null, 0.95, 25));
+    expect(g[30][3]).toBe("#VALUE!");
+    expect(g[32][3]).toBe("#N/A");
   });
 
   it("spills PLOTPOINTS over one row per cell of the strengths range, blank rows last", () => {
     const { grids } = evaluate(["=BRITTLE.PLOTPOINTS(A1:A30, B1:B30)"]);
     const expected = guarded.PLOTPOINTS(column(data.strengths), data.strengths.map((_: number, i: number) => [i % 7 === 3 ? true : null])) as unknown[][];
-    expect(expected).toHaveLength(30);
-    for (let r = 0; r < 30; r++) expect([grids.S[r][3], grids.S[r][4]]).toEqual(expected[r]);
-    expect(expected[29]).toEqual(["", ""]);
+    expect(expected).toHaveLength(31); // a header row, then one row per cell
+    for (let r = 0; r < 31; r++) expect([grids.S[r][3], grids.S[r][4], grids.S[r][5]]).toEqual(expected[r]);
+    expect(expected[30]).toEqual(["", "", ""]);
   });
 });

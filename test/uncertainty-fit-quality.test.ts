@@ -38,7 +38,10 @@ describe("Anderson-Darling A*, OSL", () => {
       expect(relativeError(q.osl, d.osl)).toBeLessThan(1e-10);
       // scipy.stats.goodness_of_fit fits with a general optimiser (about 1e-6 relative in the parameters).
       expect(relativeError(q.a2, d.scipyA2)).toBeLessThan(1e-4);
-      expect(code(guarded.FITQUALITY(column(d.strengths)))).toEqual([[q.aStar, q.osl]]);
+      expect(code(guarded.FITQUALITY(column(d.strengths)))).toEqual([
+        ["Anderson-Darling A*", q.aStar],
+        ["observed significance level (OSL)", q.osl],
+      ]);
     });
   }
 

@@ -69,9 +69,10 @@ describe("lot check", () => {
       const se = Math.sqrt(Math.max(c.monteCarloP * (1 - c.monteCarloP), 1e-4) * (1 / r.replications + 1 / c.replications));
       expect(Math.abs(r.pValue - c.monteCarloP)).toBeLessThan(4 * se + 1 / r.replications);
       const cells = guarded.LOTCHECK(column(c.lot), column(c.baseline)) as unknown[][];
-      expect(cells[0][0]).toBe(r.statistic);
-      expect(cells[0][1]).toBe(r.pValue);
-      expect(cells[0][2]).toMatch(r.differs ? /^The lot differs/ : /^Consistent with the baseline/);
+      expect(cells.map((row) => row[0])).toEqual(["likelihood-ratio statistic", "p-value (simulated)", "verdict"]);
+      expect(cells[0][1]).toBe(r.statistic);
+      expect(cells[1][1]).toBe(r.pValue);
+      expect(cells[2][1]).toMatch(r.differs ? /^The lot differs/ : /^Consistent with the baseline/);
     });
   }
 

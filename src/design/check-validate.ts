@@ -111,6 +111,7 @@ function text(value: unknown, field: string): string {
   if (typeof value !== "string") fail(field, `expected text, got ${show(value)}`);
   if (value.trim() === "") fail(field, "is empty");
   if (value.length > MAX_TEXT) fail(field, `is longer than ${MAX_TEXT} characters`);
+  // eslint-disable-next-line no-control-regex -- finding control characters is the point of this test
   if (/[\u0000-\u001f\u007f]/.test(value)) fail(field, "holds control characters");
   return value;
 }

@@ -33,15 +33,19 @@
  * Materials with a rising crack-growth resistance (R-curve: Y-TZP, some
  * silicon nitrides) do not follow it.
  */
-import { ensure, ensureFiniteResult, ensurePositive } from "../errors";
+import { ensure, ensurePositive, ensurePositiveResult } from "../errors";
 
 export function checkExponent(n: number): void {
   ensure(Number.isFinite(n) && n > 2, `the crack-growth exponent n must be greater than 2 (got ${n})`);
 }
 
+/**
+ * Every quantity here is positive by construction (it is exp of a finite
+ * logarithm), so 0 means an underflow and Infinity an overflow: both are
+ * errors, never a number in a cell.
+ */
 function finite(value: number, name: string): number {
-  ensureFiniteResult(value, name);
-  return value;
+  return ensurePositiveResult(value, name);
 }
 
 /**

@@ -161,6 +161,6 @@ export function loadHistoryStress({
     if (stresses[j] > 0 && durations[j] > 0) damage.add(durations[j] * Math.pow(stresses[j] / maxStress, n));
   }
   const stress = maxStress * Math.exp((Math.log(damage.value) - Math.log(reference)) / n);
-  ensureFiniteResult(stress, "equivalent stress");
+  ensurePositiveResult(stress, "equivalent stress");
   return { stress, totalDuration, referenceDuration: reference };
 }

@@ -8,7 +8,7 @@
  * set out this analysis; the relations below are re-derived from the Weibull
  * distribution and the power-law crack velocity (crack-growth-life.ts).
  */
-import { ensure, ensurePositive } from "../errors";
+import { ensure, ensurePositive, notRepresentable } from "../errors";
 import { failureProbability } from "../weibull/distribution";
 import { checkExponent, inertStrengthToSurvive, timeToFailureFromInertStrength } from "./crack-growth-life";
 
@@ -49,7 +49,10 @@ export function postProofFailureProbability({
   // ln(s_p/s) as -log1p((s - s_p)/s_p): the subtraction is exact near s_p, a quotient is not.
   const truncated = -Math.expm1(-shape * Math.log1p((stress - proofStress) / proofStress));
   const hazard = Math.exp(logHazardAtStress) * truncated;
-  return -Math.expm1(-hazard);
+  // Positive above the proof stress: 0 there is an underflow, an error rather than a probability.
+  const pf = -Math.expm1(-hazard);
+  if (pf === 0) throw notRepresentable("failure probability", "small");
+  return pf;
 }
 
 /**

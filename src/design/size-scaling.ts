@@ -23,7 +23,7 @@ export function scaleStrengthToSize({
   ensurePositive(shape, "modulus");
   ensurePositive(fromSize, "effective size of the tested body");
   ensurePositive(toSize, "effective size of the other body");
-  return finitePositive(strength * Math.exp((Math.log(fromSize) - Math.log(toSize)) / shape));
+  return ensurePositiveResult(strength * Math.exp((Math.log(fromSize) - Math.log(toSize)) / shape), "scaled strength");
 }
 
 /**
@@ -42,10 +42,5 @@ export function materialScale({
   ensurePositive(scale, "characteristic strength");
   ensurePositive(shape, "modulus");
   ensurePositive(effectiveSize, "effective size");
-  return finitePositive(scale * Math.exp(Math.log(effectiveSize) / shape));
-}
-
-function finitePositive(x: number): number {
-  ensurePositiveResult(x, "scaled strength");
-  return x;
+  return ensurePositiveResult(scale * Math.exp(Math.log(effectiveSize) / shape), "material scale");
 }

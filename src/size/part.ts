@@ -18,7 +18,7 @@
  * syz, szx; principal stresses by principal.ts). Sums are compensated; the
  * stresses are divided by s_max before the power, so nothing overflows.
  */
-import { ensure, ensureApplicable, ensurePositive, InputError } from "../errors";
+import { ensure, ensureApplicable, ensurePositive, InputError, notRepresentable } from "../errors";
 import { type Criterion, NsaEvaluator } from "./criteria";
 import { type CompensatedTotal, ScaledPower, newTotal, totalValue } from "./power-kernel";
 import { principalStresses } from "./principal";
@@ -196,7 +196,10 @@ export function riskOfRupture(risk: PartRiskSum, shape: number, materialScale: n
 /** Failure probability of the part: -expm1(-risk), accurate at tiny probabilities. */
 export function partFailureProbability(table: PartTable & { materialScale: number }): number {
   const risk = partRisk(table);
-  return -Math.expm1(-riskOfRupture(risk, table.shape, table.materialScale));
+  const pf = -Math.expm1(-riskOfRupture(risk, table.shape, table.materialScale));
+  // With tension somewhere the probability is positive: 0 then is an underflow, an error rather than a probability.
+  if (pf === 0 && risk.peak > 0 && risk.effectiveSize > 0) throw notRepresentable("failure probability", "small");
+  return pf;
 }
 
 /** Each element's share of the part's risk (sums to 1). */

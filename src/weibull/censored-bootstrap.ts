@@ -24,7 +24,7 @@
  * the ML estimates. The generator is seeded from the data, so the same sample
  * always gives the same numbers: a recalculation never changes a cell.
  */
-import { ensure, describe } from "../errors";
+import { ensure } from "../errors";
 import { SeededRandom } from "../numeric/random";
 import { requireSimulationSize } from "./simulation-limits";
 import { solveShapeFromLogs } from "./pivotal-simulation";

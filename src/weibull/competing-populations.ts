@@ -17,7 +17,7 @@
  * ratio for surface flaws). The design stress at survival S solves
  * sum_j k_j (s/th_j)^m_j = -ln S (Brent's method on ln s).
  */
-import { ensure, ensureConverged, ensurePositiveResult, ensurePositive, ensureProbability, InputError } from "../errors";
+import { ensure, ensureConverged, ensurePositiveResult, ensurePositive, ensureProbability, InputError, notRepresentable } from "../errors";
 import { findRoot } from "../numeric/roots";
 import { cumulativeHazard, type WeibullParameters } from "./distribution";
 import type { StrengthSample } from "./sample";
@@ -79,7 +79,10 @@ function checkPopulations(populations: readonly Population[]): void {
 export function competingFailureProbability({ stress, populations }: { stress: number; populations: readonly Population[] }): number {
   checkPopulations(populations);
   ensure(Number.isFinite(stress) && stress >= 0, `stress must be zero or positive (got ${stress})`);
-  return -Math.expm1(-totalHazard(stress, populations));
+  const pf = -Math.expm1(-totalHazard(stress, populations));
+  // Positive at any positive stress: 0 there is an underflow, an error rather than a probability.
+  if (pf === 0 && stress > 0) throw notRepresentable("failure probability", "small");
+  return pf;
 }
 
 /** Stress a body survives with probability `survival` with all populations acting. */

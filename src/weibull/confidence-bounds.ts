@@ -87,14 +87,7 @@ const sortedDraws = new WeakMap<object, { q: Float64Array; t: Float64Array }>();
  */
 export function pivotalSource(sample: StrengthSample, fit?: MaximumLikelihoodFit): PivotalSource {
   const n = sample.strengths.length;
-  if (!isCensored(sample)) {
-    const table = pivotalTable();
-    return {
-      kind: "table",
-      shapeQuantile: (p) => table.shapeQuantile(n, p),
-      scaleQuantile: (p) => table.scaleQuantile(n, p),
-    };
-  }
+  if (!isCensored(sample)) return tablePivotalSource(n);
   const censored = sample.censored ?? [];
   const draws = bootstrapCensored({
     strengths: sample.strengths,
@@ -122,6 +115,40 @@ export function pivotalSource(sample: StrengthSample, fit?: MaximumLikelihoodFit
     scaleQuantile: (p) => sortedQuantile(t, inTail(p)),
     pairs: { shapeRatio: draws.shapeRatio, scaleLogError: draws.scaleLogError },
   };
+}
+
+/** The q and t quantiles of a complete sample of n specimens, from the seeded table. */
+export function tablePivotalSource(n: number): PivotalSource {
+  const table = pivotalTable();
+  return {
+    kind: "table",
+    shapeQuantile: (p) => table.shapeQuantile(n, p),
+    scaleQuantile: (p) => table.scaleQuantile(n, p),
+  };
+}
+
+/**
+ * The bounds themselves, from raw ML estimates and the pivotal quantiles:
+ * the one piece of arithmetic shared by bounds from data and bounds from
+ * datasheet values, so both give the same numbers for the same estimates.
+ */
+export function boundsFromPivots(
+  fit: { shape: number; scale: number },
+  source: PivotalSource,
+  confidence: number,
+  sides: BoundSides,
+): { shape: Interval; scale: Interval } {
+  const { forLower, forUpper } = tailProbabilities(confidence, sides);
+  const m = fit.shape;
+  const shape = { lower: m / source.shapeQuantile(forLower), upper: m / source.shapeQuantile(forUpper) };
+  const scale = {
+    lower: fit.scale * Math.exp(-source.scaleQuantile(forLower) / m),
+    upper: fit.scale * Math.exp(-source.scaleQuantile(forUpper) / m),
+  };
+  for (const v of [shape.lower, shape.upper, scale.lower, scale.upper]) {
+    ensurePositiveResult(v, "confidence bound");
+  }
+  return { shape, scale };
 }
 
 /**
@@ -156,19 +183,11 @@ export function parameterBounds({
   confidence = 0.9,
   sides = 2,
 }: StrengthSample & { confidence?: number; sides?: BoundSides }): ParameterBounds {
-  const { forLower, forUpper } = tailProbabilities(confidence, sides);
+  tailProbabilities(confidence, sides); // refuse a bad confidence before any fitting or simulation
   const sample = { strengths, censored };
   const fit = fitMaximumLikelihood(sample);
   ensureConverged(fit.converged, "the maximum-likelihood fit did not converge");
   const source = pivotalSource(sample, fit);
-  const m = fit.shape;
-  const shape = { lower: m / source.shapeQuantile(forLower), upper: m / source.shapeQuantile(forUpper) };
-  const scale = {
-    lower: fit.scale * Math.exp(-source.scaleQuantile(forLower) / m),
-    upper: fit.scale * Math.exp(-source.scaleQuantile(forUpper) / m),
-  };
-  for (const v of [shape.lower, shape.upper, scale.lower, scale.upper]) {
-    ensurePositiveResult(v, "confidence bound");
-  }
+  const { shape, scale } = boundsFromPivots(fit, source, confidence, sides);
   return { fit, shape, scale, confidence, sides, source };
 }

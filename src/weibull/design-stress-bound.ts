@@ -73,9 +73,17 @@ export function designStressBound({
     u.sort();
     uC = sortedQuantile(u, confidence);
   }
-  const estimate = fit.scale * Math.exp(w / m);
-  const lower = fit.scale * Math.exp((w - uC) / m);
+  return { ...boundFromPivot(fit, w, uC), pivotQuantile: uC, source: censoredSample ? "bootstrap" : "table" };
+}
+
+/**
+ * x_hat = th_hat exp(w/m_hat) and x_L = th_hat exp((w - u_C)/m_hat): shared by
+ * the bound from data and the bound from datasheet values.
+ */
+export function boundFromPivot(fit: { shape: number; scale: number }, logHazard: number, pivotQuantile: number): { lower: number; estimate: number } {
+  const estimate = fit.scale * Math.exp(logHazard / fit.shape);
+  const lower = fit.scale * Math.exp((logHazard - pivotQuantile) / fit.shape);
   ensurePositiveResult(lower, "design stress bound");
   ensurePositiveResult(estimate, "design stress");
-  return { lower, estimate, pivotQuantile: uC, source: censoredSample ? "bootstrap" : "table" };
+  return { lower, estimate };
 }

@@ -9,8 +9,8 @@
  * Pf = 1e-4 .. 1e-9, where `1 - exp(-x)` keeps only a few digits, so every
  * probability here goes through expm1/log1p.
  */
-import { ensure, ensurePositiveResult, ensurePositive, ensureProbability } from "../errors";
-import { gamma, logGamma } from "../numeric/gamma";
+import { ensure, ensurePositiveResult, ensurePositive, ensureProbability, notRepresentable } from "../errors";
+import { gamma, logGamma, logGammaRatioTwoOne } from "../numeric/gamma";
 
 export interface WeibullParameters {
   /** Weibull modulus m (dimensionless). */
@@ -42,9 +42,15 @@ export function cumulativeHazard({ stress, shape, scale, sizeRatio = 1 }: AtStre
   return Math.exp(Math.log(sizeRatio) + shape * Math.log(stress / scale));
 }
 
-/** Probability of failure at or below `stress`: -expm1(-H), exact to rounding at tiny Pf. */
+/**
+ * Probability of failure at or below `stress`: -expm1(-H), exact to rounding
+ * at tiny Pf. Positive at any positive stress, so a 0 there is an underflow
+ * (below about 5e-324) and an error, not a probability.
+ */
 export function failureProbability(args: AtStress): number {
-  return -Math.expm1(-cumulativeHazard(args));
+  const pf = -Math.expm1(-cumulativeHazard(args));
+  if (pf === 0 && args.stress > 0) throw notRepresentable("failure probability", "small");
+  return pf;
 }
 
 /** Probability of survival at `stress`. */
@@ -116,9 +122,9 @@ export function scaleFromMedian({ median, shape }: { median: number; shape: numb
 export function strengthStandardDeviation({ shape, scale }: WeibullParameters): number {
   checkParameters({ shape, scale }, 1);
   const g1 = logGamma(1 + 1 / shape);
-  const g2 = logGamma(1 + 2 / shape);
-  // exp(g2) - exp(2 g1) = exp(2 g1) * expm1(g2 - 2 g1): no cancellation at large m.
-  return finite(scale * Math.exp(g1) * Math.sqrt(Math.expm1(g2 - 2 * g1)), "standard deviation");
+  // Gamma(1 + 2/m) - Gamma(1 + 1/m)^2 = Gamma(1 + 1/m)^2 expm1(D), with D = ln Gamma(1 + 2/m) - 2 ln Gamma(1 + 1/m)
+  // from a series whose Euler terms cancel exactly: no cancellation at any modulus.
+  return finite(scale * Math.exp(g1) * Math.sqrt(Math.expm1(logGammaRatioTwoOne(1 / shape))), "standard deviation");
 }
 
 function gammaOnePlusInverse(shape: number): number {

@@ -69,3 +69,19 @@ export function estimateWeibull(
 function pick(fit: WeibullParameters & { specimens: number; failures: number }) {
   return { shape: fit.shape, scale: fit.scale, specimens: fit.specimens, failures: fit.failures };
 }
+
+/**
+ * The characteristic strength by `method`. The unbiasing factor applies to
+ * the modulus only, so "MLE" gives the ML characteristic strength, which
+ * exists from two failures on (where the unbiased modulus does not).
+ *
+ * @example
+ * estimateCharacteristicStrength({ strengths: [300, 350] }) // the ML value, about 336.6
+ */
+export function estimateCharacteristicStrength(
+  sample: StrengthSample,
+  method: EstimationMethod = "MLE",
+  estimator: PlottingEstimator = "HAZEN",
+): number {
+  return estimateWeibull(sample, method === "MLE" ? "MLE-RAW" : method, estimator).scale;
+}

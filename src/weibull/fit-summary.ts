@@ -11,6 +11,11 @@
  * - the modified Anderson-Darling A* and its OSL (complete samples only);
  * - the two single-population checks: plot bend and low outlier.
  *
+ * With two failures the default unbiased ML modulus does not exist (E[m_hat/m]
+ * is infinite at N = 2), so the summary gives the raw ML modulus and says so
+ * (`unbiasingUnavailable`) rather than no fit at all: the characteristic
+ * strength and the bounds never used the unbiasing factor.
+ *
  * A finding is flagged at the 5 % level (OSL <= 0.05, the CMH-17-1G practice
  * for rejecting a distribution; the same level for the two checks).
  */
@@ -31,6 +36,8 @@ export interface FitSummary {
   method: EstimationMethod;
   estimator: PlottingEstimator;
   unbiasingFactor: number;
+  /** True when "MLE" was asked for with two failures: `shape` is then the raw ML modulus. */
+  unbiasingUnavailable: boolean;
   shape: number;
   scale: number;
   shapeBounds: Interval;
@@ -56,7 +63,9 @@ export function summarizeFit({
   estimator = "HAZEN",
 }: StrengthSample & { confidence?: number; method?: EstimationMethod; estimator?: PlottingEstimator }): FitSummary {
   const sample = { strengths, censored };
-  const estimate = estimateWeibull(sample, method, estimator);
+  const failures = strengths.length - (censored?.filter(Boolean).length ?? 0);
+  const unbiasingUnavailable = method === "MLE" && failures === 2;
+  const estimate = estimateWeibull(sample, unbiasingUnavailable ? "MLE-RAW" : method, estimator);
   const bounds = parameterBounds({ ...sample, confidence, sides: 2 });
   const params = { shape: estimate.shape, scale: estimate.scale };
   const quality = isCensored(sample) ? null : fitQuality(sample);
@@ -68,6 +77,7 @@ export function summarizeFit({
     method,
     estimator,
     unbiasingFactor: estimate.unbiasingFactor,
+    unbiasingUnavailable,
     shape: estimate.shape,
     scale: estimate.scale,
     shapeBounds: bounds.shape,

@@ -59,7 +59,6 @@ export interface SheetPlan {
 const A = 0;
 const B = 1;
 const C = 2;
-const D = 3;
 const F = 5;
 const I = 8;
 // Spill area of PLOTPOINTS, right of a pasted element table (W to AC at most).
@@ -242,7 +241,7 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
     result1(
       "allowableLower",
       `Allowable stress, ${conf} lower bound`,
-      `=BRITTLE.DESIGNSTRESSBOUND(${refs.survivalUsed},${strengths},${refs.confidence},${k}${flags ? `,${flags}` : ""})`,
+      `=BRITTLE.DESIGNSTRESSBOUND(${refs.survivalUsed},${strengths},${flags},${refs.confidence},${k})`,
       stressUnit,
       "one-sided lower confidence bound, pivotal quantities (ASTM C1239)",
       STRESS,
@@ -375,9 +374,9 @@ function planChart(
         ];
       }), "data", true);
     } else if (strengths && plotPoints) {
-      // Adjusted ranks have no native formula: PLOTPOINTS spills ln(strength) and Y from column AG, failures first.
-      put(3, AG, [["ln(strength)", "ln(-ln(1-P))"]], "heading");
-      put(4, AG, [[`=BRITTLE.PLOTPOINTS(${strengths}${flags ? `,${flags}` : ""})`]], "data", true);
+      // Adjusted ranks have no native formula: PLOTPOINTS spills its header row, then ln(strength), Y and P
+      // from column AG, failures first.
+      put(3, AG, [[`=BRITTLE.PLOTPOINTS(${strengths}${flags ? `,${flags}` : ""})`]], "data", true);
       put(row, I, points.map((_, i) => {
         const r = row + i + 1;
         return [i + 1, `=EXP(AG${r})`, `=AH${r}`, `=1-EXP(-EXP(K${r}))`];
