@@ -29,6 +29,7 @@ import { fillElementTable, PART_FIELDS, readPart, setupPart } from "./steps/part
 import { readRequirement, REQUIREMENT_FIELDS, setupRequirement } from "./steps/requirement";
 import { readSpecimen, setupSpecimen, SPECIMEN_FIELDS } from "./steps/specimen";
 import { setupPlanning } from "./steps/planning";
+import { setupRecordImport } from "./steps/record-import";
 
 registerInHost();
 
@@ -200,6 +201,11 @@ function wireHost(): void {
 
 wireForm();
 setupPlanning();
+setupRecordImport((text, description) => {
+  fillStrengths(text, null);
+  byId("selection-info").textContent = description;
+  scheduleUpdate();
+});
 
 if (typeof Office !== "undefined") {
   Office.onReady((hostInfo) => {

@@ -264,6 +264,32 @@ describe.skipIf(chromiumFound.executablePath === null)(`design-check form in hea
     await page.close();
   });
 
+  it("imports the invented test-machine record: maps the columns, previews each specimen, fills step 1 with origins as censoring", async () => {
+    const { page, problems } = await open();
+    await page.click("#record-import summary");
+    await page.fill("#record-text", await readFile(join(ROOT, "examples/machine-export-bars.csv"), "utf8"));
+    await page.click("#record-read");
+    // The header's words give the guess; the spans are typed once for the whole record.
+    expect(await page.inputValue("#record-col-load")).toBe("3");
+    expect(await page.inputValue("#record-col-origin")).toBe("4");
+    await page.fill("#record-val-outerSpan", "40");
+    await page.fill("#record-val-innerSpan", "20");
+    await page.waitForFunction(() => !(document.querySelector("#record-use") as HTMLButtonElement).disabled);
+    expect(await page.locator("#record-preview-body tr").count()).toBe(19);
+    expect(await page.textContent("#record-notes")).toMatch(/Row 9 \(VB-X1\) left out: Fmax \[N\] is blank/);
+    await page.selectOption("#record-population", "surface");
+    await page.waitForFunction(() => /Fitting origin "surface"/.test(document.querySelector("#record-notes")?.textContent ?? ""));
+    await page.click("#record-use");
+    const box = await page.inputValue("#strengths");
+    const lines = box.split("\n");
+    expect(lines).toHaveLength(18);
+    expect(lines.filter((l) => l.endsWith("\tC"))).toHaveLength(1); // the one pore origin is censored
+    expect(await page.textContent("#selection-info")).toMatch(/From a test-machine record: 18 strengths, fitting origin "surface"/);
+    await page.screenshot({ path: join(ARTIFACTS, "record-import.png"), fullPage: true });
+    expect(problems).toEqual([]);
+    await page.close();
+  });
+
   it("uses the default method exactly as the core does (result or the core's own message)", async () => {
     const { page } = await open();
     await page.fill("#strengths", STRENGTHS.join("\n"));
