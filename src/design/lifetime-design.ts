@@ -9,7 +9,7 @@
  * survives the lifetime with probability R exactly when the flaw at the
  * inert-strength quantile 1 - R survives it.
  */
-import { ensure, ensurePositiveResult, ensureFiniteResult, ensurePositive, InputError, describe } from "../errors";
+import { ensure, ensurePositiveResult, ensurePositive, InputError, describe } from "../errors";
 import { findRoot } from "../numeric/roots";
 import { CompensatedSum } from "../numeric/sum";
 import { designStress } from "../weibull/distribution";

@@ -57,7 +57,6 @@ export function designStressBound({
   ensureConverged(fit.converged, "the maximum-likelihood fit did not converge");
   // -ln S is exact for S near 1 (no 1 - S subtraction).
   const w = Math.log(-Math.log(survival)) - Math.log(sizeRatio);
-  const m = fit.shape;
   let uC: number;
   const censoredSample = isCensored(sample);
   if (!censoredSample) {
