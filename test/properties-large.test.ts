@@ -66,13 +66,14 @@ describe("a full column of strengths", () => {
     expect(Math.abs((unbiased as number) / mm - 1)).toBeLessThan(1e-4);
     // The same numbers through the host path (guarded adapter) give the same modulus to the last bit.
     expect(guarded.MODULUS(rows.map((r) => [r[0]]), null, "MLE-RAW")).toBe(m);
-  });
+  }, 900_000); // generous own timeout: a full column takes minutes on a loaded machine
 });
 
 describe("200,000 rows in every range: a value or a clear error, never an internal error", () => {
   const ROWS = 200_000;
+  const SIMULATING = new Set(["FIT", "ORIGINFIT", "LOTCHECK"]);
 
-  it("runs every function that takes a range (those that simulate are timed at 100 rows first)", () => {
+  it("runs every function that takes a range (those that simulate at 100 rows)", () => {
     const withRanges = metadata.filter((f) => f.parameters.some((p) => p.dimensionality === "matrix"));
     expect(withRanges.length).toBeGreaterThan(5);
     const skipped: string[] = [];
@@ -86,12 +87,12 @@ describe("200,000 rows in every range: a value or a clear error, never an intern
           if (/label/i.test(p.description ?? "")) return Array.from({ length: n }, (_, i) => [i % 3 ? "surface" : "pore"]);
           return Array.from({ length: n }, (_, i) => [strengthAt(i) * (k + 1)]);
         });
-      // Probe at 100 rows: a closed form takes well under a millisecond, a simulation tens of them or more.
-      const started = performance.now();
-      guarded[fn.id](...stretch(100));
-      const probeMs = performance.now() - started;
-      if (probeMs > 20) {
-        skipped.push(`${fn.id} (${probeMs.toFixed(0)} ms at 100 rows)`);
+      // Functions that simulate run at 100 rows only: a fixed list, never a timing probe (a loaded machine
+      // would skip different functions on different runs).
+      if (SIMULATING.has(fn.id)) {
+        const small = guarded[fn.id](...stretch(100));
+        problems.push(...hostViolations(small, fn).map((p) => `${fn.id} at 100 rows: ${p}`));
+        skipped.push(`${fn.id} (simulates: 100 rows)`);
         continue;
       }
       const result = guarded[fn.id](...stretch(ROWS));
@@ -100,7 +101,7 @@ describe("200,000 rows in every range: a value or a clear error, never an intern
     }
     console.log(`properties-large: ${withRanges.length - skipped.length} functions at ${ROWS} rows; not tried at that size: ${skipped.join(", ") || "none"}`);
     expect(problems).toEqual([]);
-  });
+  }, 900_000); // generous own timeout: a full column takes minutes on a loaded machine
 });
 
 // Once faults: Math.max(...array) on a whole range overflowed the call stack beyond about 120,000 values.
