@@ -1,7 +1,8 @@
 import { defineConfig } from "vite";
 import { resolve } from "node:path";
 
-// The task pane and help pages; office.js and functions.json are added by scripts/build.mjs.
+// The task pane; functions.json, the help page generated from it, functions.js and (with --office-js local) office.js
+// are added by scripts/build.mjs.
 export default defineConfig({
   root: "taskpane",
   base: "./",
@@ -13,7 +14,6 @@ export default defineConfig({
     rollupOptions: {
       input: {
         taskpane: resolve(import.meta.dirname, "taskpane/taskpane.html"),
-        help: resolve(import.meta.dirname, "taskpane/help.html"),
       },
     },
   },

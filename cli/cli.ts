@@ -2,6 +2,7 @@
  * `brittle`: the add-in's functions with no spreadsheet application.
  *
  *   brittle calc FILE [--out FILE.xlsx] [--force] [--json]
+ *   brittle part FILE --modulus M [options]
  *   brittle check FILE.check.json [--json]
  *   brittle demo
  *
@@ -16,15 +17,20 @@ import { existsSync } from "node:fs";
 import { mkdir } from "node:fs/promises";
 import { dirname, resolve } from "node:path";
 import type { FormulaResult } from "./evaluate-workbook";
-// The workbook engine, exceljs and the metadata generator (which loads the TypeScript compiler) are
-// imported where they are needed, so `brittle part` starts without them.
+// The workbook engine, exceljs and the function catalogue are imported where they are needed, so `brittle part`
+// starts without them. Compiled (lib/), the catalogue is the built functions.json; from source, the metadata
+// generator (see scripts/build.mjs).
 
-const USAGE = `usage: brittle calc FILE [--out FILE.xlsx] [--force] [--json]
+const USAGE = `usage: brittle calc FILE [--out FILE.xlsx] [--force] [--json] [--decimal-comma | --decimal-point]
+       brittle part FILE --modulus M [options]   (brittle part --help lists them)
        brittle check FILE.check.json [--json]
        brittle demo
-FILE is an .xlsx workbook or a .csv sheet whose cells may hold BRITTLE.* formulas.
-check reruns a saved design check and prints the verdict with its basis:
-exit 0 PASS, 1 FAIL, 2 bad input.`;
+calc: FILE is an .xlsx workbook or a .csv sheet whose cells may hold BRITTLE.* formulas. A .csv's
+  encoding, delimiter and decimal mark are detected; --decimal-comma or --decimal-point states the
+  mark when the file leaves it ambiguous (docs/files-and-formats.md).
+part: FILE is a table of element stresses and sizes (effective size, failure probability, risk shares).
+check: reruns a saved design check and prints the verdict with its basis: exit 0 PASS, 1 FAIL, 2 bad input.
+demo: evaluates the invented supplier datasheet shipped with the package.`;
 
 export interface Io {
   out: (text: string) => void;
@@ -43,6 +49,7 @@ interface CalcOptions {
   out?: string;
   json: boolean;
   force: boolean;
+  decimalMark?: "comma" | "point";
 }
 
 function parseCalc(args: string[]): CalcOptions {
@@ -51,6 +58,11 @@ function parseCalc(args: string[]): CalcOptions {
     const a = args[i];
     if (a === "--json") options.json = true;
     else if (a === "--force") options.force = true;
+    else if (a === "--decimal-comma" || a === "--decimal-point") {
+      const mark = a === "--decimal-comma" ? "comma" : "point";
+      if (options.decimalMark && options.decimalMark !== mark) throw new UsageError("give --decimal-comma or --decimal-point, not both");
+      options.decimalMark = mark;
+    }
     else if (a === "--out") {
       if (!args[i + 1] || args[i + 1].startsWith("--")) throw new UsageError("--out needs a file name");
       options.out = args[++i];
@@ -71,7 +83,8 @@ export async function calc(options: CalcOptions, io: Io): Promise<FormulaResult[
   const { loadWorkbook } = await import("./workbook-io");
   const { evaluateWorkbook, writeEvaluated } = await import("./evaluate-workbook");
   const { generateMetadata } = await import("../functions/metadata");
-  const workbook = await loadWorkbook(options.file);
+  const workbook = await loadWorkbook(options.file, { decimalMark: options.decimalMark });
+  if (workbook.readAs) io.err(`brittle: read ${options.file} as ${workbook.readAs}\n`);
   const { functions } = await generateMetadata();
   const evaluation = evaluateWorkbook(workbook, functions);
   if (options.json) io.out(JSON.stringify(evaluation.grids) + "\n");

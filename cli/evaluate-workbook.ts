@@ -3,7 +3,7 @@
  * would see: every cell's value, errors as their code text ("#NUM!").
  */
 import { CellType, DetailedCellError, type HyperFormula } from "hyperformula";
-import ExcelJS from "exceljs";
+import { loadExcelJs, type ExcelJS } from "./exceljs-loader";
 import { createEngine } from "./engine";
 import type { FunctionMetadata } from "../functions/metadata";
 import type { Contents, LoadedWorkbook } from "./workbook-io";
@@ -69,7 +69,7 @@ export function columnName(index: number): string {
  * over the cells it fills, so a spreadsheet opening the file shows the same.
  */
 export async function writeEvaluated(workbook: LoadedWorkbook, evaluation: Evaluation, outPath: string): Promise<void> {
-  const book = workbook.source ?? new ExcelJS.Workbook();
+  const book = workbook.source ?? new (await loadExcelJs()).Workbook();
   const { engine } = evaluation;
   for (const [name, contents] of Object.entries(workbook.sheets)) {
     const ws = book.getWorksheet(name) ?? book.addWorksheet(name);

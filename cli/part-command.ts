@@ -5,13 +5,16 @@
  *   brittle part FILE --modulus M [--scale S0] [--criterion PIA|NSA|MAXPRINCIPAL]
  *                [--stress COLS] [--size COL] [--id COL|none]
  *                [--header auto|yes|no] [--delimiter auto|,|;|tab|space]
- *                [--top N] [--json] [--quiet]
+ *                [--decimal-comma|--decimal-point] [--top N] [--json] [--quiet]
  *
  * FILE is a delimited text table (or "-" for standard input), one element per
  * line. Columns are found from the header names or, without a header, from
  * the number of fields (src/size/part-columns.ts); --stress, --size and --id
  * choose them by header name or 1-based position (--stress takes 1, 3 or 6
- * comma-separated columns). Progress goes to stderr; results to stdout.
+ * comma-separated columns). Encoding, delimiter and decimal mark are
+ * detected (src/input); --decimal-comma or --decimal-point settles a table
+ * the detection refuses as ambiguous. Progress and the list of skipped lines
+ * go to stderr; results to stdout.
  * Exit status: 0 done, 1 bad data (the message names the line), 2 bad usage.
  */
 import { createReadStream, statSync } from "node:fs";
@@ -29,7 +32,8 @@ export interface PartCommandIo {
 
 export const PART_USAGE = `usage: brittle part FILE --modulus M [--scale S0] [--criterion PIA|NSA|MAXPRINCIPAL]
                    [--stress COLS] [--size COL] [--id COL|none] [--header auto|yes|no]
-                   [--delimiter auto|,|;|tab|space] [--top N] [--json] [--quiet]
+                   [--delimiter auto|,|;|tab|space] [--decimal-comma|--decimal-point]
+                   [--top N] [--json] [--quiet]
 FILE: a table of element stresses and sizes, one element per line ("-" reads standard input).
   --modulus M      Weibull modulus (required)
   --scale S0       material scale parameter for the size unit of the table: prints the failure probability
@@ -39,6 +43,8 @@ FILE: a table of element stresses and sizes, one element per line ("-" reads sta
   --size COL       element volume or area column;  --id COL  element id column, or "none"
   --header H       auto (default: a first line with no number in it is a header), yes, no
   --delimiter D    auto (default), a character, "tab" or "space" (runs of blanks)
+  --decimal-comma  the decimal mark is a comma (--decimal-point: a point); default: from the numbers,
+                   and a number that could be read two ways ("1,250") is refused
   --top N          hot spots to list, default 10;  --json  machine-readable output;  --quiet  no progress`;
 
 class UsageError extends Error {}
@@ -63,6 +69,7 @@ export function parsePartArgs(args: string[]): PartArgs {
   const columns: ColumnChoice = {};
   let header: "auto" | "yes" | "no" = "auto";
   let delimiter: string | undefined;
+  let decimalMark: "comma" | "point" | undefined;
   let top = 10;
   let json = false;
   let quiet = false;
@@ -120,6 +127,13 @@ export function parsePartArgs(args: string[]): PartArgs {
         delimiter = value(i, a);
         i++;
         break;
+      case "--decimal-comma":
+      case "--decimal-point": {
+        const mark = a === "--decimal-comma" ? "comma" : "point";
+        if (decimalMark && decimalMark !== mark) throw new UsageError("give --decimal-comma or --decimal-point, not both");
+        decimalMark = mark;
+        break;
+      }
       case "--top": {
         const n = Number(value(i, a));
         if (!(Number.isInteger(n) && n >= 0 && n <= 10000)) throw new UsageError("--top must be a whole number from 0 to 10000");
@@ -144,7 +158,7 @@ export function parsePartArgs(args: string[]): PartArgs {
   if (modulus === undefined) throw new UsageError("part needs --modulus (the Weibull modulus m)");
   return {
     file,
-    options: { shape: modulus, materialScale: scale, criterion, columns, header, delimiter, top },
+    options: { shape: modulus, materialScale: scale, criterion, columns, header, delimiter, decimalMark, top },
     json,
     quiet,
   };
@@ -171,13 +185,16 @@ export async function streamPartFile(
   return reader.finish();
 }
 
+/** Numbers for the report; the reader lets nothing non-finite through, and this never prints one either. */
 function fmt(x: number): string {
+  if (!Number.isFinite(x)) return "(too large to represent)";
   if (x === 0) return "0";
   const a = Math.abs(x);
   return a < 1e-3 || a >= 1e7 ? x.toExponential(4) : x.toPrecision(6).replace(/\.?0+$/, "");
 }
 
 function percent(x: number): string {
+  if (!Number.isFinite(x)) return "(too large to represent)";
   return `${(100 * x).toFixed(x >= 0.001 ? 2 : 4)} %`;
 }
 
@@ -186,7 +203,16 @@ export function formatPartReport(file: string, r: PartStreamResult): string {
   const kinds = { 1: "maximum principal", 3: "principal", 6: "tensor, principal stresses computed" } as const;
   const lines: string[] = [];
   const row = (label: string, text: string) => lines.push(`${label.padEnd(16)}${text}`);
-  row("element table", `${file}: ${r.rows} elements (${r.skippedLines} header, blank or comment line${r.skippedLines === 1 ? "" : "s"} skipped), delimiter "${r.delimiter}"`);
+  const header = r.skipped.find((s) => s.reason === "header");
+  const others = r.skippedLines - (header ? 1 : 0);
+  row(
+    "element table",
+    `${file}: ${r.rows} elements` +
+      (header ? `, header on line ${header.from}` : ", no header") +
+      (others > 0 ? `; ${others} blank or comment line${others === 1 ? "" : "s"} skipped (listed on stderr)` : ""),
+  );
+  const mark = r.decimalMark === null ? "no decimal mark needed (whole numbers)" : `decimal ${r.decimalMark} (${r.decimalBasis})`;
+  row("read as", `${r.encoding}, delimiter "${r.delimiter}", ${mark}`);
   row(
     "columns",
     `stresses ${r.columns.labels.stress.join(", ")} (${kinds[r.columns.kind]}); size ${r.columns.labels.size}` +
@@ -219,6 +245,21 @@ export function formatPartReport(file: string, r: PartStreamResult): string {
   return lines.join("\n") + "\n";
 }
 
+/**
+ * The lines that held no element, other than the header (which the report
+ * names: its column names are used), as one line for stderr:
+ * "skipped lines 4-6 (blank), line 9 (comment)".
+ */
+export function formatSkipped(r: PartStreamResult): string {
+  const runs = r.skipped.filter((s) => s.reason !== "header");
+  const headers = r.skipped.filter((s) => s.reason === "header").length;
+  if (r.skippedLines - headers === 0) return "";
+  const text = runs.map((s) => (s.from === s.to ? `line ${s.from}` : `lines ${s.from}-${s.to}`) + ` (${s.reason})`);
+  const listed = runs.reduce((n, s) => n + s.to - s.from + 1, 0);
+  const more = r.skippedLines - headers > listed ? `, and ${r.skippedLines - headers - listed} more` : "";
+  return `brittle part: skipped ${text.join(", ")}${more}\n`;
+}
+
 /** Runs `brittle part ARGS`; returns the exit status. */
 export async function runPartCommand(args: string[], io: PartCommandIo): Promise<number> {
   let parsed: PartArgs;
@@ -249,6 +290,7 @@ export async function runPartCommand(args: string[], io: PartCommandIo): Promise
   try {
     const result = await streamPartFile(parsed.file, parsed.options, progress);
     if (reported && tty) io.err("\n");
+    io.err(formatSkipped(result));
     if (parsed.json) io.out(JSON.stringify(result) + "\n");
     else io.out(formatPartReport(parsed.file, result));
     return 0;

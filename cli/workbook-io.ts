@@ -6,7 +6,11 @@
  * computed value beside it.
  */
 import { readFile } from "node:fs/promises";
-import ExcelJS from "exceljs";
+import { InputError } from "../src/errors";
+import type { Dialect, DialectChoice } from "../src/input/delimited-text";
+import { type TextEncodingName, decodeText } from "../src/input/encoding";
+import { fieldNumber, readDelimited } from "../src/input/read-table";
+import { loadExcelJs, type ExcelJS } from "./exceljs-loader";
 
 export type Contents = number | string | boolean | null;
 
@@ -15,23 +19,40 @@ export interface LoadedWorkbook {
   sheets: Record<string, Contents[][]>;
   /** The exceljs workbook an .xlsx came from, kept so --out preserves its formatting. */
   source?: ExcelJS.Workbook;
+  /** How a .csv was read (encoding, delimiter, decimal mark), for the user to see. */
+  readAs?: string;
 }
 
 export class WorkbookError extends Error {}
 
-export async function loadWorkbook(path: string): Promise<LoadedWorkbook> {
+/** `csv`: how to read a .csv when detection is not wanted (--decimal-comma, --decimal-point). */
+export async function loadWorkbook(path: string, csv: DialectChoice = {}): Promise<LoadedWorkbook> {
   const lower = path.toLowerCase();
-  if (lower.endsWith(".csv")) return { kind: "csv", sheets: { [sheetNameFor(path)]: parseCsv(await readText(path)) } };
+  if (lower.endsWith(".csv")) {
+    try {
+      const { rows, dialect, encoding } = readCsvBytes(await readBytes(path), csv);
+      return { kind: "csv", sheets: { [sheetNameFor(path)]: rows }, readAs: describeReading(encoding, dialect) };
+    } catch (error) {
+      if (error instanceof InputError) throw new WorkbookError(`${path}: ${error.message}`);
+      throw error;
+    }
+  }
   if (lower.endsWith(".xlsx")) return loadXlsx(path);
   throw new WorkbookError(`${path}: unsupported file type (use .xlsx or .csv)`);
 }
 
-async function readText(path: string): Promise<string> {
+async function readBytes(path: string): Promise<Uint8Array> {
   try {
-    return await readFile(path, "utf8");
+    return await readFile(path);
   } catch (error) {
     throw new WorkbookError(`cannot read ${path}: ${(error as NodeJS.ErrnoException).code ?? String(error)}`);
   }
+}
+
+function describeReading(encoding: TextEncodingName, d: Dialect): string {
+  const delimiter = { ",": "comma", ";": "semicolon", "\t": "tab", space: "blanks" }[d.delimiter];
+  const mark = d.decimalMark === null ? "decimal mark not needed (whole numbers only)" : `decimal ${d.decimalMark} (${d.basis.decimalMark})`;
+  return `${encoding}, ${delimiter}-delimited, ${mark}`;
 }
 
 function sheetNameFor(path: string): string {
@@ -40,7 +61,7 @@ function sheetNameFor(path: string): string {
 }
 
 async function loadXlsx(path: string): Promise<LoadedWorkbook> {
-  const workbook = new ExcelJS.Workbook();
+  const workbook = new (await loadExcelJs()).Workbook();
   try {
     await workbook.xlsx.load((await readFile(path)) as never);
   } catch (error) {
@@ -108,52 +129,36 @@ function excelSerial(d: Date): number {
   return d.getTime() / 86400000 + 25569;
 }
 
-/** RFC 4180 CSV: quoted fields, doubled quotes, CRLF or LF. Numbers and TRUE/FALSE become values. */
-export function parseCsv(text: string): Contents[][] {
-  const rows: Contents[][] = [];
-  let row: Contents[] = [];
-  let field = "";
-  let quoted = false;
-  let wasQuoted = false;
-  const endField = () => {
-    row.push(wasQuoted ? field : csvValue(field));
-    field = "";
-    wasQuoted = false;
-  };
-  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
-  for (let i = 0; i < body.length; i++) {
-    const ch = body[i];
-    if (quoted) {
-      if (ch === '"' && body[i + 1] === '"') {
-        field += '"';
-        i++;
-      } else if (ch === '"') quoted = false;
-      else field += ch;
-    } else if (ch === '"' && field === "") {
-      quoted = true;
-      wasQuoted = true;
-    } else if (ch === ",") endField();
-    else if (ch === "\n" || ch === "\r") {
-      if (ch === "\r" && body[i + 1] === "\n") i++;
-      endField();
-      rows.push(row);
-      row = [];
-    } else field += ch;
-  }
-  if (quoted) throw new WorkbookError("malformed CSV: a quoted field is not closed");
-  if (field !== "" || row.length > 0) {
-    endField();
-    rows.push(row);
-  }
-  return rows.map((r) => (r.every((v) => v === null) ? [] : r));
+/**
+ * A CSV sheet from its bytes: encoding, delimiter and decimal mark as
+ * src/input settles them; one row per record, as a spreadsheet opens it
+ * (a blank line is an empty row; a quoted line end stays inside its row).
+ */
+export function readCsvBytes(bytes: Uint8Array, choice: DialectChoice = {}): { rows: Contents[][]; dialect: Dialect; encoding: TextEncodingName } {
+  const { text, encoding } = decodeText(bytes);
+  const { rows, dialect } = readCsvText(text, choice);
+  return { rows, dialect, encoding };
 }
 
-function csvValue(text: string): Contents {
-  const t = text.trim();
+/** CSV text (RFC 4180 quoting; see src/input/delimited-text.ts). Numbers and TRUE/FALSE become values. */
+export function parseCsv(text: string, choice: DialectChoice = {}): Contents[][] {
+  return readCsvText(text, choice).rows;
+}
+
+function readCsvText(text: string, choice: DialectChoice): { rows: Contents[][]; dialect: Dialect } {
+  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  const { dialect, records } = readDelimited(body, choice);
+  const rows: Contents[][] = [];
+  for (const record of records) {
+    rows.push(record.fields.map((f, k) => (f.quoted ? f.text : csvValue(f.text, dialect, record.line, k + 1))));
+  }
+  return { rows, dialect };
+}
+
+function csvValue(t: string, dialect: Dialect, line: number, field: number): Contents {
   if (t === "") return null;
   if (t.startsWith("=")) return t;
-  if (/^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(t)) return Number(t);
   if (/^true$/i.test(t)) return true;
   if (/^false$/i.test(t)) return false;
-  return text;
+  return fieldNumber(t, dialect.decimalMark, line, field) ?? t;
 }

@@ -3,19 +3,24 @@
  * spreadsheet application, writes the filled copy, and prints the results.
  */
 import { mkdir } from "node:fs/promises";
+import { dirname } from "node:path";
+import { fileURLToPath } from "node:url";
 import { formatNumber, type Io } from "../cli/cli";
 import { evaluateWorkbook, writeEvaluated } from "../cli/evaluate-workbook";
 import { generateMetadata } from "../functions/metadata";
 import { loadWorkbook } from "../cli/workbook-io";
 
-export const DEMO_INPUT = "examples/supplier-datasheet.xlsx";
+// Beside this module in the repository, and one level above the compiled lib/ in an installed
+// package (which ships the datasheet): both resolve to <package>/examples/.
+export const DEMO_INPUT = fileURLToPath(new URL("../examples/supplier-datasheet.xlsx", import.meta.url));
+// Written under the current folder, never into the installed package.
 export const DEMO_OUTPUT = "examples/out/supplier-datasheet.filled.xlsx";
 
 export async function runDemo(io: Io): Promise<void> {
   const workbook = await loadWorkbook(DEMO_INPUT);
   const { functions } = await generateMetadata();
   const evaluation = evaluateWorkbook(workbook, functions);
-  await mkdir("examples/out", { recursive: true });
+  await mkdir(dirname(DEMO_OUTPUT), { recursive: true });
   await writeEvaluated(workbook, evaluation, DEMO_OUTPUT);
 
   const sheet = workbook.sheets.Datasheet;

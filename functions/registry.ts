@@ -6,6 +6,7 @@
  */
 import { guard, type CellResult } from "./cells";
 import * as loadStrength from "./load-strength";
+import * as material from "./material";
 import * as size from "./size";
 import * as strength from "./strength";
 import * as time from "./time";
@@ -19,6 +20,7 @@ export const families: { title: string; adapters: Record<string, Adapter> }[] = 
   { title: "Confidence bounds, fit quality, flaw populations and lot checks", adapters: uncertainty },
   { title: "Effective volume and area: specimens, fixtures and parts", adapters: size },
   { title: "Slow crack growth, lifetime and proof testing", adapters: time },
+  { title: "One material across specimen geometries, and test planning", adapters: material },
 ];
 
 export const adapters: Record<string, Adapter> = Object.assign({}, ...families.map((f) => f.adapters));

@@ -21,7 +21,7 @@ import {
   proofMinimumLife,
   proofStressForLife,
 } from "../src/design/proof-test";
-import { CellError, readChoice, readNumber, readOptionalNumber, readPairs, readPositiveNumbers } from "./cells";
+import { CellError, readChoice, readNumber, readOptionalNumber, readPairs } from "./cells";
 import { declareSpills } from "./spill-shapes";
 
 declareSpills({

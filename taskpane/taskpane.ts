@@ -28,6 +28,8 @@ import { fillStrengths, MATERIAL_FIELDS, readMaterial, setupMaterial } from "./s
 import { fillElementTable, PART_FIELDS, readPart, setupPart } from "./steps/part";
 import { readRequirement, REQUIREMENT_FIELDS, setupRequirement } from "./steps/requirement";
 import { readSpecimen, setupSpecimen, SPECIMEN_FIELDS } from "./steps/specimen";
+import { setupPlanning } from "./steps/planning";
+import { setupRecordImport } from "./steps/record-import";
 
 registerInHost();
 
@@ -198,6 +200,12 @@ function wireHost(): void {
 }
 
 wireForm();
+setupPlanning();
+setupRecordImport((text, description) => {
+  fillStrengths(text, null);
+  byId("selection-info").textContent = description;
+  scheduleUpdate();
+});
 
 if (typeof Office !== "undefined") {
   Office.onReady((hostInfo) => {

@@ -326,3 +326,14 @@ describe("the verdict explains itself", () => {
     for (const b of r.basis) expect(b.text).not.toMatch(/NaN|Infinity|undefined/);
   });
 });
+
+describe("lifetimeStressFromInert at the edges", () => {
+  it("solves B s^(n-2) + t s^n = B s_i^(n-2) when t s_i^2 / B is near the top of the double range (written out in logarithms)", () => {
+    // t s_i^2 / B = 1e12 * 1e12 / 1e-250 = 1e274.
+    const si = 1e6;
+    const s = lifetimeStressFromInert({ inertStrength: si, lifetime: 1e12, n: 20, B: 1e-250 });
+    const lhs = Math.log(1e-250) + 18 * Math.log(s) + Math.log1p((1e12 * s * s) / 1e-250);
+    expect(Number.isFinite(s) && s > 0 && s < si).toBe(true);
+    expect(Math.abs(lhs - (Math.log(1e-250) + 18 * Math.log(si)))).toBeLessThan(1e-9);
+  });
+});

@@ -4,7 +4,10 @@
 // sizes they claim, the least permissions the add-in needs, a shared runtime,
 // and every URL a file that scripts/build.mjs writes into dist/.
 //
-// The XML parser is saxes, already installed as a dependency of exceljs.
+// The same checks run on the repository's manifest (the development server)
+// and on the one `npm run build -- --base-url` writes for a team's server.
+//
+// The XML parser is saxes (a declared development dependency).
 // Schema facts marked "from memory" come from the Office add-in manifest
 // schema (OfficeApp 1.1, VersionOverrides 1.0) as its documentation states them.
 import { existsSync, readFileSync } from "node:fs";
@@ -12,6 +15,7 @@ import { join } from "node:path";
 import { SaxesParser } from "saxes";
 import { describe, expect, it } from "vitest";
 import { NAMESPACE } from "../cli/engine";
+import { BuildOptionError, DEVELOPMENT_BASE, DIST_FILES, manifestForBase, OFFICE_JS_CDN, paneHtmlFor, parseBuildOptions } from "../scripts/deploy";
 
 const OFFICE_APP = "http://schemas.microsoft.com/office/appforoffice/1.1";
 const BASIC_TYPES = "http://schemas.microsoft.com/office/officeappbasictypes/1.0";
@@ -52,38 +56,42 @@ const attr = (el: Element, name: string) => el.attributes.get(name)?.value;
 const child = (el: Element, local: string) => el.children.find((c) => c.local === local);
 const xsiType = (el: Element) => [...el.attributes.entries()].find(([k, v]) => k === "type" && v.uri === XSI)?.[1].value;
 
-const xml = readFileSync("manifest.xml", "utf8");
-const { root, errors } = parse(xml);
-const doc = root as unknown as Element;
-const everything = doc ? all(doc) : [];
-const resources = everything.filter((e) => e.uri === BASIC_TYPES && ["Image", "Url", "String"].includes(e.local) && attr(e, "id"));
-const byId = new Map(resources.map((r) => [attr(r, "id")!, r]));
-const resolve = (resid: string) => attr(byId.get(resid)!, "DefaultValue")!;
+/** A parsed manifest and the lookups the checks use. */
+function loadManifest(xml: string) {
+  const { root, errors } = parse(xml);
+  const doc = root as unknown as Element;
+  const everything = doc ? all(doc) : [];
+  const resources = everything.filter((e) => e.uri === BASIC_TYPES && ["Image", "Url", "String"].includes(e.local) && attr(e, "id"));
+  const byId = new Map(resources.map((r) => [attr(r, "id")!, r]));
+  const resolve = (resid: string) => attr(byId.get(resid)!, "DefaultValue")!;
 
-/** Every URL the manifest names, with where it was found. */
-function urls(): { where: string; url: string }[] {
-  const found: { where: string; url: string }[] = [];
-  for (const e of everything) {
-    const value = attr(e, "DefaultValue");
-    if (value && (["IconUrl", "HighResolutionIconUrl", "SupportUrl", "SourceLocation"].includes(e.local) || (e.uri === BASIC_TYPES && ["Image", "Url"].includes(e.local)))) {
-      found.push({ where: `${e.local}${attr(e, "id") ? ` ${attr(e, "id")}` : ""}`, url: value });
+  /** Every URL the manifest names, with where it was found. */
+  function urls(): { where: string; url: string }[] {
+    const found: { where: string; url: string }[] = [];
+    for (const e of everything) {
+      const value = attr(e, "DefaultValue");
+      if (value && (["IconUrl", "HighResolutionIconUrl", "SupportUrl", "SourceLocation"].includes(e.local) || (e.uri === BASIC_TYPES && ["Image", "Url"].includes(e.local)))) {
+        found.push({ where: `${e.local}${attr(e, "id") ? ` ${attr(e, "id")}` : ""}`, url: value });
+      }
+      if (e.local === "AppDomain") found.push({ where: "AppDomain", url: e.text.trim() });
     }
-    if (e.local === "AppDomain") found.push({ where: "AppDomain", url: e.text.trim() });
+    return found;
   }
-  return found;
+  return { errors, doc, everything, resources, byId, resolve, urls };
 }
 
-/** The paths under dist/ that scripts/build.mjs produces, read from the build script and the vite config. */
+/** The paths under dist/ the add-in build writes (it checks each exists before it finishes). */
 function builtPaths(): Set<string> {
-  const build = readFileSync("scripts/build.mjs", "utf8");
-  const vite = readFileSync("vite.config.ts", "utf8");
-  const paths = new Set<string>();
-  for (const m of build.matchAll(/(?:writeFile\(|outfile:\s*)"dist\/([^"]+)"/g)) paths.add(m[1]);
-  for (const m of vite.matchAll(/resolve\(import\.meta\.dirname,\s*"taskpane\/([^"/]+\.html)"\)/g)) paths.add(m[1]);
-  const assets = /cp\("taskpane\/assets",\s*"dist\/assets"/.test(build);
-  if (assets) for (const icon of ["icon-16.png", "icon-32.png", "icon-64.png", "icon-80.png", "icon-128.png"]) if (existsSync(join("taskpane/assets", icon))) paths.add(`assets/${icon}`);
-  return paths;
+  return new Set<string>(DIST_FILES);
 }
+
+const REPOSITORY_MANIFEST = readFileSync("manifest.xml", "utf8");
+// A team's own server, below a path, as `npm run build -- --base-url` is meant for (example host).
+const TEAM_BASE = "https://addins.example.org/tools/brittle/";
+const VARIANTS = [
+  { title: "manifest.xml (development: npm start on https://localhost:3000/)", xml: REPOSITORY_MANIFEST, base: DEVELOPMENT_BASE },
+  { title: `dist/manifest.xml built with --base-url ${TEAM_BASE}`, xml: manifestForBase(REPOSITORY_MANIFEST, TEAM_BASE), base: TEAM_BASE },
+];
 
 function pngSize(file: string): { width: number; height: number } | null {
   const bytes = readFileSync(file);
@@ -92,7 +100,9 @@ function pngSize(file: string): { width: number; height: number } | null {
   return { width: bytes.readUInt32BE(16), height: bytes.readUInt32BE(20) };
 }
 
-describe("manifest.xml", () => {
+describe.each(VARIANTS)("$title", ({ xml, base }) => {
+  const { errors, doc, everything, resources, byId, resolve, urls } = loadManifest(xml);
+
   it("is well-formed XML with an OfficeApp task-pane root in the 1.1 namespace", () => {
     expect(errors).toEqual([]);
     expect(doc).not.toBeNull();
@@ -142,14 +152,47 @@ describe("manifest.xml", () => {
     expect(NAMESPACE).toBe("BRITTLE");
   });
 
-  it("names HTTPS URLs only, all on one origin, the port the dev server uses", () => {
+  it("names HTTPS URLs only, every one under the base URL, and the base's origin as its app domain", () => {
     const found = urls();
     expect(found.length).toBeGreaterThan(5);
     for (const { where, url } of found) expect(url, where).toMatch(/^https:\/\/[^\s/]+/);
-    const origins = new Set(found.map(({ url }) => new URL(url).origin));
-    expect(origins.size).toBe(1);
+    for (const { where, url } of found) {
+      if (where === "AppDomain") expect(url).toBe(new URL(base).origin);
+      else expect(url.startsWith(base), `${where}: ${url} is not under ${base}`).toBe(true);
+    }
+    if (base !== DEVELOPMENT_BASE) expect(xml).not.toMatch(/localhost/);
+    // The development manifest points at the port the dev server listens on by default.
     const port = /PORT \?\? (\d+)/.exec(readFileSync("scripts/serve.mjs", "utf8"))?.[1];
-    expect(new URL(found[0].url).port).toBe(port);
+    if (base === DEVELOPMENT_BASE) expect(new URL(base).port).toBe(port);
+  });
+
+  it("declares every requirement set the code needs: shared runtime, custom functions runtime, ExcelApi 1.4", () => {
+    const sets = new Map(everything.filter((e) => e.local === "Set").map((e) => [attr(e, "Name"), attr(e, "MinVersion")]));
+    expect(sets.get("SharedRuntime")).toBe("1.1");
+    expect(sets.get("CustomFunctionsRuntime")).toBe("1.1");
+    // The highest API set the pane uses without asking isSetSupported first (sheet-writer.ts, host-selection.ts).
+    // source: @types/office-js 1.0.612, the "[Api set: ExcelApi x]" tag of each member.
+    const unguarded: Record<string, string> = {
+      "getUsedRangeOrNullObject(": "1.4",
+      "getResizedRange(": "1.2",
+      "format.columnWidth": "1.2",
+      "getSelectedRange(": "1.1",
+      "getOffsetRange(": "1.1",
+      "charts.add(": "1.1",
+      "worksheets": "1.1",
+    };
+    const code = ["taskpane/report/sheet-writer.ts", "taskpane/app/host-selection.ts"].map((f) => readFileSync(f, "utf8")).join("\n");
+    for (const member of Object.keys(unguarded)) expect(code, member).toContain(member);
+    const needed = Math.max(...Object.values(unguarded).map((v) => Number(v.split(".")[1])));
+    expect(sets.get("ExcelApi")).toBe(`1.${needed}`);
+    // ExcelApi 1.7 members (series.add, setValues, setXAxisValues, chartType, scaleType) run only after the check.
+    const writer = readFileSync("taskpane/report/sheet-writer.ts", "utf8");
+    const guard = writer.indexOf("if (!chartExtrasSupported())");
+    expect(guard).toBeGreaterThan(0);
+    for (const member of ["series.add(", "setValues(", "setXAxisValues(", ".chartType", ".scaleType"]) {
+      expect(writer.indexOf(member), member).toBeGreaterThan(guard);
+    }
+    expect(writer).toMatch(/isSetSupported\("ExcelApi", "1\.7"\)/);
   });
 
   it("points every icon at a PNG in taskpane/assets of the size it claims", () => {
@@ -163,7 +206,7 @@ describe("manifest.xml", () => {
       expect(Number(/\d+/.exec(attr(use, "resid")!)![0]), attr(use, "resid")).toBe(Number(attr(use, "size")));
     }
     for (const { url, size } of icons) {
-      const path = new URL(url).pathname.replace(/^\/assets\//, "");
+      const path = url.slice(base.length).replace(/^assets\//, "");
       const file = join("taskpane/assets", path);
       expect(existsSync(file), file).toBe(true);
       expect(pngSize(file), file).toEqual({ width: size, height: size });
@@ -192,21 +235,50 @@ describe("manifest.xml", () => {
     expect(readFileSync("taskpane/taskpane.ts", "utf8")).toMatch(/registerInHost\(\)/);
   });
 
-  it("names, for every URL, a file that scripts/build.mjs writes into dist/ (functions.json, functions.js, pages, icons)", () => {
+  it("names, for every URL, a file the build writes into dist/ (functions.json, functions.js, pages, icons)", () => {
     const built = builtPaths();
     expect(built).toContain("functions.json");
     expect(built).toContain("functions.js");
     const customFunctions = everything.find((e) => e.local === "ExtensionPoint" && xsiType(e) === "CustomFunctions")!;
     const script = resolve(attr(child(child(customFunctions, "Script")!, "SourceLocation")!, "resid")!);
     const metadata = resolve(attr(child(child(customFunctions, "Metadata")!, "SourceLocation")!, "resid")!);
-    expect(new URL(script).pathname).toBe("/functions.js");
-    expect(new URL(metadata).pathname).toBe("/functions.json");
+    expect(script).toBe(`${base}functions.js`);
+    expect(metadata).toBe(`${base}functions.json`);
     for (const { where, url } of urls()) {
       if (where === "AppDomain") continue;
-      const path = new URL(url).pathname.replace(/^\//, "");
+      const path = url.slice(base.length);
       expect(built.has(path), `${where} -> ${path} is not among the files the build writes: ${[...built].join(", ")}`).toBe(true);
       // After `npm run build`, the file is there.
       if (existsSync("dist/functions.json")) expect(existsSync(join("dist", path)), `dist/${path}`).toBe(true);
     }
+  });
+});
+
+describe("build options for a team's server (scripts/deploy.ts)", () => {
+  it("takes an HTTPS base URL, adds the closing slash, and refuses http, queries, fragments and credentials", () => {
+    expect(parseBuildOptions([])).toEqual({ baseUrl: DEVELOPMENT_BASE, officeJs: "cdn", cliOnly: false, ifStale: false });
+    expect(parseBuildOptions(["--base-url", "https://addins.example.org/brittle"]).baseUrl).toBe("https://addins.example.org/brittle/");
+    expect(parseBuildOptions(["--base-url=https://addins.example.org/", "--office-js=local"])).toMatchObject({ officeJs: "local" });
+    for (const bad of ["http://addins.example.org/", "https://a.example.org/x/?v=1", "https://a.example.org/#x", "https://u:p@a.example.org/", "addins/brittle"]) {
+      expect(() => parseBuildOptions(["--base-url", bad]), bad).toThrow(BuildOptionError);
+    }
+    expect(() => parseBuildOptions(["--base-url"])).toThrow(/needs a value/);
+    expect(() => parseBuildOptions(["--office-js", "bundled"])).toThrow(/cdn or local/);
+    expect(() => parseBuildOptions(["--baseurl", "https://a.example.org/"])).toThrow(/unknown option/);
+  });
+
+  it("loads office.js from the platform's CDN by default, allowed by the page's CSP; --office-js local points at the copy and allows 'self' only", () => {
+    const page = readFileSync("taskpane/taskpane.html", "utf8");
+    const csp = (html: string) => /http-equiv="Content-Security-Policy" content="([^"]+)"/.exec(html)![1];
+    const directive = (html: string, name: string) => csp(html).split(";").map((d) => d.trim()).find((d) => d.startsWith(name + " "));
+    expect(paneHtmlFor(page, "cdn")).toBe(page);
+    expect(page).toContain(`<script src="${OFFICE_JS_CDN}"></script>`);
+    expect(directive(page, "script-src")).toBe("script-src 'self' https://appsforoffice.microsoft.com");
+    const local = paneHtmlFor(page, "local");
+    expect(local).toContain('<script src="./office-js/office.js"></script>');
+    expect(local).not.toContain("appsforoffice.microsoft.com");
+    expect(directive(local, "script-src")).toBe("script-src 'self'");
+    expect(directive(local, "connect-src")).toBe("connect-src 'self'");
+    expect(() => paneHtmlFor(page.replace(OFFICE_JS_CDN, "./office.js"), "cdn")).toThrow(/must load office.js/);
   });
 });

@@ -16,7 +16,7 @@
 // Seeds are random; a failure prints fast-check's seed and path. Reproduce with
 // FC_SEED=<seed> (and FC_PATH=<path>); FC_SCALE=4 runs four times the cases.
 import fc from "fast-check";
-import { afterAll, describe, expect, it } from "vitest";
+import { afterAll, describe, expect, it, vi } from "vitest";
 import { generateMetadata } from "../functions/metadata";
 import { guarded } from "../functions/registry";
 import { spillShapes } from "../functions/spill-shapes";
@@ -33,6 +33,8 @@ const runs = (id: string, n: number, slow: number) => ({
   numRuns: Math.max(1, Math.round((SIMULATING.has(id) ? slow : n) * scale)),
   ...(process.env.FC_SEED ? { seed: Number(process.env.FC_SEED), path: process.env.FC_PATH } : {}),
 });
+// Generous, and never a verdict: a slow machine takes longer, it does not fail.
+vi.setConfig({ testTimeout: 600_000 });
 
 const CALLS_PER_WORKBOOK = 16;
 const totals: Record<string, Counts> = { engine: newCounts(), host: newCounts(), policy: newCounts() };
@@ -46,6 +48,7 @@ afterAll(() => {
 
 it("covers every registered function, and spilling functions are exactly those declared as matrix results", () => {
   expect(metadata.map((f) => f.id).sort()).toEqual(Object.keys(guarded).sort());
+  for (const id of SIMULATING) expect(guarded, `SIMULATING names ${id}, which is not registered`).toHaveProperty(id);
   for (const f of metadata) expect(f.id in spillShapes, f.id).toBe(f.result.dimensionality === "matrix");
 });
 

@@ -449,6 +449,26 @@ describe("writing the design check through the spreadsheet API (office-addin-moc
     expect(sheets.get("Design check")!.ranges).toEqual([]);
   });
 
+  it("on a host below ExcelApi 1.7 (isSetSupported says no) plots the data points only, with no 1.7 chart calls", async () => {
+    // source: @types/office-js 1.0.612 API-set tags: ChartSeriesCollection.add, ChartSeries.setValues/setXAxisValues,
+    // ChartSeries.chartType and ChartAxis.scaleType are ExcelApi 1.7; the manifest requires 1.4.
+    const asked: [string, string | undefined][] = [];
+    const office = { context: { requirements: { isSetSupported: (name: string, version?: string) => (asked.push([name, version]), false) } } };
+    (globalThis as { Office?: unknown }).Office = office;
+    try {
+      const result = runDesignCheck(input());
+      const { context, sheets } = mockWorkbook([]);
+      await writeReportSheet(context, plan(result));
+      const chart = sheets.get("Design check")!.charts[0] as any;
+      expect(asked).toContainEqual(["ExcelApi", "1.7"]);
+      expect(chart.allSeries.map((s: any) => s.name)).toEqual(["Failures"]);
+      expect(chart.axes.categoryAxis.scaleType).toBeUndefined();
+      expect(chart.axes.categoryAxis.title.text).toBe("Stress (MPa)"); // the axis is linear, and says nothing else
+    } finally {
+      delete (globalThis as { Office?: unknown }).Office;
+    }
+  });
+
   it("refuses to write into a new sheet that is not empty", async () => {
     const result = runDesignCheck(input());
     const { context, sheets } = mockWorkbook([], { newSheetNotEmpty: true });

@@ -21,7 +21,11 @@ export const POOR_FIT_SIGNIFICANCE = 0.05;
 export const FAR_EXTRAPOLATION_DECADES = 3;
 export const LARGE_SIZE_RATIO = 1000;
 
-/** The cautions for a result (its own `cautions` field excepted, which this fills). */
+/**
+ * The cautions for a result (its own `cautions` field excepted, which this fills).
+ *
+ * @example cautionsFor(result).filter((c) => c.level === "warning")
+ */
 export function cautionsFor(result: DesignCheckResult): Caution[] {
   const out: Caution[] = [];
   const n = result.parameters.failures ?? result.parameters.specimens;

@@ -27,7 +27,11 @@ export function weakestQuarter(specimens: number): number {
   return Math.max(1, Math.ceil(specimens / 4));
 }
 
-/** Ranks (1 = weakest) of the censored specimens; ties take the lowest rank. */
+/**
+ * Ranks (1 = weakest) of the censored specimens; ties take the lowest rank.
+ *
+ * @example censoredRanks([300, 250, 400], [true, false, false]) // [2]
+ */
 export function censoredRanks(strengths: readonly number[], censored: readonly boolean[]): number[] {
   const order = strengths.map((s, i) => ({ s, i })).sort((a, b) => a.s - b.s || Number(censored[b.i]) - Number(censored[a.i]));
   const ranks: number[] = [];

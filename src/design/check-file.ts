@@ -24,6 +24,8 @@ export const MAX_CHECK_FILE_BYTES = 200 * 1024 * 1024;
  * Decodes a check file's bytes: UTF-8 (a byte-order mark is dropped), or
  * UTF-16 little- or big-endian when the file starts with that mark. Invalid
  * UTF-8 is refused rather than read with replacement characters.
+ *
+ * @example decodeCheckFile(new Uint8Array([0xef, 0xbb, 0xbf, 0x7b, 0x7d])) // "{}"
  */
 export function decodeCheckFile(bytes: Uint8Array): string {
   if (bytes.length > MAX_CHECK_FILE_BYTES) {
@@ -73,7 +75,11 @@ export function parseCheckFile(text: string): CheckDescription {
   return validateCheckDescription(o);
 }
 
-/** Reads a check file from its bytes (decoding, then parseCheckFile). */
+/**
+ * Reads a check file from its bytes (decoding, then parseCheckFile).
+ *
+ * @example parseCheckFileBytes(new Uint8Array(await file.arrayBuffer()))
+ */
 export function parseCheckFileBytes(bytes: Uint8Array): CheckDescription {
   return parseCheckFile(decodeCheckFile(bytes));
 }
@@ -82,6 +88,8 @@ export function parseCheckFileBytes(bytes: Uint8Array): CheckDescription {
  * Writes a description as a check file: format and version first, then the
  * fields in the order docs/check-file.md lists them, two-space indented, with
  * lists of numbers or flags on one line so the data stay readable.
+ *
+ * @example serializeCheckFile(description) // '{\n  "format": "brittle-design-check",\n  "version": 1, ...'
  */
 export function serializeCheckFile(description: CheckDescription): string {
   const d = validateCheckDescription(description);

@@ -23,6 +23,7 @@ export function probabilityDisplay(p: number): string {
   return n ? `${formatProbability(p)} (${n})` : formatProbability(p);
 }
 
+/** @example resultRows(runDesignCheck(description)).find((row) => row.id === "reserve-factor") */
 export function resultRows(r: DesignCheckResult): ResultRow[] {
   const u = r.input.stressUnit;
   const stress = (x: number) => `${formatNumber(x)} ${u}`;

@@ -27,6 +27,7 @@ export interface ResolvedSizes {
   tablePeak: number | null;
 }
 
+/** @example resolveSizes(description, 10.5).specimen.value // the specimen's effective size in description.sizeUnit */
 export function resolveSizes(input: CheckDescription, shape: number): ResolvedSizes {
   const unit = parseSizeUnit(input.sizeUnit);
   if (!unit) throw new InputError("input", `sizeUnit: "${input.sizeUnit}" is not a size unit (use mm^3, cm^3, m^3, in^3, or ^2 for areas)`);

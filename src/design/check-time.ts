@@ -41,7 +41,10 @@ export function lifetimeStressFromInert({
 }): number {
   // s_i^(n-2) = s^(n-2) (1 + t s^2 / B) with s < s_i, so ln s lies in [ln s_i - ln(1 + t s_i^2 / B) / (n-2), ln s_i].
   const hi = Math.log(inertStrength);
-  const lo = hi - Math.log1p(Math.exp(Math.log(lifetime) + 2 * hi - Math.log(B))) / (n - 2) - 1e-9;
+  const x = Math.log(lifetime) + 2 * hi - Math.log(B);
+  // ln(1 + e^x) without overflow.
+  const growth = x > 0 ? x + Math.log1p(Math.exp(-x)) : Math.log1p(Math.exp(x));
+  const lo = hi - growth / (n - 2) - 1e-9;
   const f = (u: number) => Math.log(inertStrengthToSurvive({ stress: Math.exp(u), duration: lifetime, n, B })) - hi;
   const fHi = f(hi);
   if (fHi <= 0) return inertStrength;

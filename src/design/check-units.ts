@@ -24,6 +24,8 @@ export interface SizeUnit {
 /**
  * Reads "mm^3", "mm3", "mm³", "in^2", ... Returns null for anything else, so
  * the caller can say which field is wrong.
+ *
+ * @example parseSizeUnit("in³") // { text: "in^3", length: "in", power: 3, inMillimetres: 16387.064 }
  */
 export function parseSizeUnit(text: string): SizeUnit | null {
   if (typeof text !== "string") return null;
@@ -47,7 +49,11 @@ export function isTimeUnit(text: unknown): text is TimeUnit {
   return text === "s" || text === "h" || text === "years";
 }
 
-/** Converts a duration between the three time units. */
+/**
+ * Converts a duration between the three time units.
+ *
+ * @example convertTime(10, "years", "h") // 87660
+ */
 export function convertTime(value: number, from: TimeUnit, to: TimeUnit): number {
   return from === to ? value : (value * SECONDS_PER[from]) / SECONDS_PER[to];
 }
@@ -56,6 +62,8 @@ export function convertTime(value: number, from: TimeUnit, to: TimeUnit): number
  * Reads the unit of B, "<stress unit>^2 <time unit>" ("MPa^2 s", "MPa² h",
  * "MPa2 years"). Returns the stress and time parts, or null when the text has
  * another form.
+ *
+ * @example parseBUnit("MPa^2 s") // { stress: "MPa", time: "s" }
  */
 export function parseBUnit(text: string): { stress: string; time: TimeUnit } | null {
   if (typeof text !== "string") return null;

@@ -77,6 +77,24 @@ function number(value: unknown, field: string): number {
   return value;
 }
 
+function finite(value: unknown): value is number {
+  return typeof value === "number" && Number.isFinite(value);
+}
+
+/**
+ * A list of numbers that each pass `ok`: checked in one pass, and only a
+ * failing entry builds its field name and message (lists run to millions).
+ */
+function numbers(values: unknown[], field: string, ok: (x: number) => boolean, rule: string): number[] {
+  for (let i = 0; i < values.length; i++) {
+    const v = values[i];
+    if (finite(v) && ok(v)) continue;
+    const x = number(v, `${field}[${i}]`);
+    fail(`${field}[${i}]`, `${rule} (got ${x})`);
+  }
+  return values as number[];
+}
+
 function positive(value: unknown, field: string): number {
   const x = number(value, field);
   if (!(x > 0)) fail(field, `must be greater than 0 (got ${x})`);
@@ -93,6 +111,7 @@ function text(value: unknown, field: string): string {
   if (typeof value !== "string") fail(field, `expected text, got ${show(value)}`);
   if (value.trim() === "") fail(field, "is empty");
   if (value.length > MAX_TEXT) fail(field, `is longer than ${MAX_TEXT} characters`);
+  // eslint-disable-next-line no-control-regex -- finding control characters is the point of this test
   if (/[\u0000-\u001f\u007f]/.test(value)) fail(field, "holds control characters");
   return value;
 }
@@ -112,6 +131,8 @@ function list(value: unknown, field: string, lowest: number): unknown[] {
 /**
  * Checks a description (parsed JSON or built by the form) and returns it
  * typed, with defaults filled in. Throws CheckFieldError naming the field.
+ *
+ * @example validateCheckDescription(JSON.parse(text)) // throws CheckFieldError { field: "sizeUnit", ... } for mm^2 with volume flaws
  */
 export function validateCheckDescription(value: unknown): CheckDescription {
   const o = object(value, "");
@@ -181,10 +202,11 @@ function materialOf(value: unknown): MaterialDescription {
     return m;
   }
   onlyKeys(o, "material", ["kind", "strengths", "censored", "method", "source"]);
-  const strengths = list(o.strengths, "material.strengths", 2).map((s, i) => positive(s, `material.strengths[${i}]`));
+  const strengths = numbers(list(o.strengths, "material.strengths", 2), "material.strengths", (x) => x > 0, "must be greater than 0");
   const m: MaterialDescription = { kind, strengths, method: oneOf(o.method ?? "MLE", "material.method", ESTIMATION_METHODS) };
   if (o.censored !== undefined && o.censored !== null) {
-    const flags = list(o.censored, "material.censored", 0).map((c, i) => booleanOf(c, `material.censored[${i}]`));
+    const flags = list(o.censored, "material.censored", 0) as boolean[];
+    for (let i = 0; i < flags.length; i++) if (typeof flags[i] !== "boolean") booleanOf(flags[i], `material.censored[${i}]`);
     if (flags.length !== strengths.length) fail("material.censored", `has ${flags.length} flags for ${strengths.length} strengths: give one per strength`);
     const failures = flags.filter((c) => !c).length;
     if (failures < 2) fail("material.censored", `leaves ${failures} failure(s): a fit needs at least two`);
@@ -266,16 +288,16 @@ function partOf(value: unknown): PartDescription {
   if (columnCount !== 1 && columnCount !== 3 && columnCount !== 6) fail("part.columns", `must be 1, 3 or 6 stress columns (got ${columnCount})`);
   const columns = columnCount;
   const rows = list(o.stresses, "part.stresses", 1);
-  const stresses = rows.map((row, i) => {
+  const stresses = rows as number[][];
+  for (let i = 0; i < rows.length; i++) {
+    const row = rows[i];
+    if (Array.isArray(row) && row.length === columns && row.every(finite)) continue;
+    // Only a bad row builds its field name.
     const r = list(row, `part.stresses[${i}]`, columns);
     if (r.length !== columns) fail(`part.stresses[${i}]`, `has ${r.length} values for ${columns} stress column(s)`);
-    return r.map((s, j) => number(s, `part.stresses[${i}][${j}]`));
-  });
-  const sizes = list(o.sizes, "part.sizes", 1).map((s, i) => {
-    const x = number(s, `part.sizes[${i}]`);
-    if (x < 0) fail(`part.sizes[${i}]`, `an element size cannot be negative (got ${x})`);
-    return x;
-  });
+    numbers(r, `part.stresses[${i}]`, () => true, "");
+  }
+  const sizes = numbers(list(o.sizes, "part.sizes", 1), "part.sizes", (x) => x >= 0, "an element size cannot be negative");
   if (sizes.length !== stresses.length) fail("part.sizes", `has ${sizes.length} sizes for ${stresses.length} rows of stresses`);
   const part: PartDescription = { kind, stresses, columns, sizes };
   if (o.source !== undefined) {

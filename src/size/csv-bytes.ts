@@ -175,38 +175,19 @@ export function splitFields(buf: Uint8Array, start: number, end: number, delimit
   return fields;
 }
 
-/** Guesses the delimiter from a line: comma, then semicolon, then tab, else runs of whitespace. */
-export function detectDelimiter(buf: Uint8Array, start: number, end: number): number {
-  let commas = 0;
-  let semicolons = 0;
-  let tabs = 0;
-  let inQuotes = false;
-  for (let i = start; i < end; i++) {
-    const b = buf[i];
-    if (b === QUOTE) inQuotes = !inQuotes;
-    else if (!inQuotes) {
-      if (b === COMMA) commas++;
-      else if (b === SEMICOLON) semicolons++;
-      else if (b === TAB) tabs++;
-    }
-  }
-  if (semicolons > 0 && semicolons >= commas) return SEMICOLON;
-  if (commas > 0) return COMMA;
-  if (tabs > 0) return TAB;
-  return WHITESPACE;
-}
-
 /** Where the last fastNumber call stopped (the byte after the number). */
 export let fastStop = 0;
 
 /**
  * The common case only, fused with finding the field's end: a plain number
- * (sign, at most 19 significant digits, '.', exponent within +/-22) followed
- * directly by the delimiter, CR, LF or the end. Returns NaN for anything else
- * (spaces, quotes, decimal commas, long mantissas, junk), and the caller then
- * takes the general path, which gives the same value or the error message.
+ * (sign, at most 19 significant digits, the file's decimal mark `decimal`,
+ * exponent within +/-22) followed directly by the delimiter, CR, LF or the
+ * end. `decimal` is '.' or ',' once the file's mark is settled, -1 before
+ * (whole numbers only). Returns NaN for anything else (spaces, quotes, the
+ * other mark, long mantissas, junk), and the caller then takes the general
+ * path, which gives the same value or the error message.
  */
-export function fastNumber(buf: Uint8Array, start: number, end: number, delimiter: number): number {
+export function fastNumber(buf: Uint8Array, start: number, end: number, delimiter: number, decimal: number): number {
   let i = start;
   let b = buf[i];
   let negative = false;
@@ -228,7 +209,7 @@ export function fastNumber(buf: Uint8Array, start: number, end: number, delimite
     }
     b = buf[++i];
   }
-  if (i < end && b === 0x2e) {
+  if (i < end && b === decimal) {
     b = buf[++i];
     while (i < end) {
       const d = b - 0x30;

@@ -42,7 +42,7 @@ export interface ResolvedColumns {
 }
 
 function norm(name: string): string {
-  return name.toUpperCase().replace(/[\s_.\-()\[\]]+/g, "");
+  return name.toUpperCase().replace(/[\s_.\-()[\]]+/g, "");
 }
 
 const TENSOR: string[][] = [

@@ -9,12 +9,26 @@
  * arrays and summed by the same kernel as partRiskSum, so the streamed and
  * in-memory results agree to rounding.
  *
- * Lines: LF or CRLF; blank lines and lines of only delimiters are skipped;
- * lines starting with '#' are comments. Any other line must have a number in
- * every chosen column: the first that does not stops the read with its line
- * number (a silently skipped element would understate the risk).
+ * Text: the first 200 lines (or 4 MiB) are read ahead to settle the
+ * encoding (UTF-8, UTF-16 LE/BE, with or without a byte-order mark), the
+ * line ends (LF, CRLF or lone CR), the delimiter and the decimal mark by the
+ * rules every input shares (src/input); UTF-16 is turned into UTF-8 on the
+ * way in. A line may be at most MAX_LINE_BYTES long; a longer one stops the
+ * read (it is not a table line, and holding it would cost unbounded memory).
+ *
+ * Lines: blank lines and lines of only delimiters are skipped; lines
+ * starting with '#' are comments; every skipped line is in the result. Any
+ * other line must have as many fields as the first line (trailing empty
+ * fields excepted) and a number in every chosen column: the first that does
+ * not stops the read with its line number (a silently skipped or shifted
+ * element would misstate the risk). A number that could be read two ways
+ * ("1,250") is refused, never guessed. Nothing non-finite reaches the
+ * result: a value too large to represent stops the read, naming the element.
  */
 import { ensurePositive, InputError } from "../errors";
+import { contentLines, detectDelimiter, settleDecimalMark, type TextRecord } from "../input/delimited-text";
+import { type EncodingGuess, Utf16ToUtf8, detectEncoding } from "../input/encoding";
+import { type DecimalMark, looksNumeric, readNumber } from "../input/number-text";
 import { type Criterion, NsaEvaluator } from "./criteria";
 import {
   COMMA,
@@ -23,7 +37,6 @@ import {
   WHITESPACE,
   QUOTE,
   decodeAscii,
-  detectDelimiter,
   fastNumber,
   fastStop,
   fieldEnd,
@@ -47,6 +60,8 @@ export interface PartStreamOptions {
   header?: "auto" | "yes" | "no";
   /** Field delimiter: ",", ";", "\t", "space" (runs of blanks) or "auto" (default). */
   delimiter?: string;
+  /** Decimal mark: "point", "comma" or "auto" (default: settled by the numbers, see src/input). */
+  decimalMark?: DecimalMark | "auto";
   /** Number of hot spots to keep (default 10). */
   top?: number;
   /** Rows per batch (default 16384). */
@@ -65,11 +80,24 @@ export interface HotSpot {
   share: number;
 }
 
+/** Lines that held no element, as runs of consecutive lines with one reason. */
+export interface SkippedLines {
+  from: number;
+  to: number;
+  reason: "header" | "blank" | "comment";
+}
+
 export interface PartStreamResult {
   rows: number;
   skippedLines: number;
+  /** Where the skipped lines are (the first MAX_SKIPPED_RUNS runs). */
+  skipped: SkippedLines[];
   columns: ResolvedColumns;
   delimiter: string;
+  /** The decimal mark and how it was settled; null when only whole numbers were read. */
+  decimalMark: DecimalMark | null;
+  decimalBasis: string;
+  encoding: string;
   criterion: Criterion;
   shape: number;
   /** Largest tensile principal stress (0 if none). */
@@ -100,6 +128,14 @@ function delimiterByte(text: string | undefined): number | null {
   throw new InputError("input", `delimiter must be one character, "tab", "space" or "auto" (got "${text}")`);
 }
 
+/** The longest line an element table may have (bytes, line end excluded). */
+export const MAX_LINE_BYTES = 1 << 20;
+/** Lines (or bytes) read ahead to settle encoding, delimiter and decimal mark. */
+const SNIFF_LINES = 200;
+// Bytes: enough for a few lines of the longest kind, so an overlong first comment does not leave the sample empty.
+const SNIFF_BYTES = 4 * MAX_LINE_BYTES;
+const MAX_SKIPPED_RUNS = 100;
+
 function delimiterName(b: number): string {
   return b === WHITESPACE ? "space" : b === 0x09 ? "tab" : String.fromCharCode(b);
 }
@@ -111,6 +147,7 @@ export class PartTableReader {
   private readonly choice: ColumnChoice;
   private readonly headerMode: "auto" | "yes" | "no";
   private delimiter: number | null;
+  private readonly statedMark: DecimalMark | null;
   private readonly top: number;
   private readonly batchRows: number;
 
@@ -118,12 +155,31 @@ export class PartTableReader {
   /** Field position -> slot: 0..k-1 stresses, k size, k+1 id, -1 ignored. */
   private slotOf = new Int32Array(0);
   private lastField = -1;
-  private altDecimal = -1;
+  /** Fields on the first line: every element line must have as many. */
+  private fieldCount = 0;
+  private firstLineNumber = 0;
 
-  private carry = new Uint8Array(0);
+  /** Read-ahead until the dialect is settled. */
+  private sniffed = false;
+  private pending: Uint8Array[] = [];
+  private pendingBytes = 0;
+  private pendingLines = 0;
+  private transcoder: Utf16ToUtf8 | null = null;
+  private loneCr = false;
+  private encoding = "UTF-8";
+  private delimiterBasis = "";
+  private mark: DecimalMark | null = null;
+  private markBasis = "";
+  /** The decimal-mark byte the fast path accepts: '.' or ',' once settled, -1 before. */
+  private decimalByte = -1;
+
+  /** The unfinished last line, as the chunks it came in (joined once, when its line end arrives). */
+  private carryParts: Uint8Array[] = [];
+  private carryLength = 0;
   private lineNumber = 0;
   private rowsRead = 0;
   private skipped = 0;
+  private skippedRuns: SkippedLines[] = [];
 
   private raw = new Float64Array(0);
   private principal = new Float64Array(0);
@@ -151,6 +207,7 @@ export class PartTableReader {
     this.choice = options.columns ?? {};
     this.headerMode = options.header ?? "auto";
     this.delimiter = delimiterByte(options.delimiter);
+    this.statedMark = options.decimalMark && options.decimalMark !== "auto" ? options.decimalMark : null;
     this.top = Math.max(0, Math.floor(options.top ?? 10));
     this.batchRows = Math.max(1, Math.floor(options.batchRows ?? 16384));
     this.nsa = this.criterion === "NSA" ? new NsaEvaluator(this.shape) : null;
@@ -165,30 +222,123 @@ export class PartTableReader {
   push(bytes: Uint8Array): void {
     // Node's Buffer is a Uint8Array subclass: a plain view keeps the byte loops monomorphic.
     const chunk = bytes.constructor === Uint8Array ? bytes : new Uint8Array(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+    if (this.sniffed) {
+      this.take(chunk);
+      return;
+    }
+    this.pending.push(chunk);
+    this.pendingBytes += chunk.length;
+    for (let i = 0; i < chunk.length; i++) if (chunk[i] === LF || chunk[i] === CR) this.pendingLines++;
+    if (this.pendingLines >= SNIFF_LINES || this.pendingBytes >= SNIFF_BYTES) this.sniff();
+  }
+
+  /** A chunk after the read-ahead: into UTF-8 with LF line ends, then into lines. */
+  private take(chunk: Uint8Array): void {
+    let bytes = this.transcoder ? this.transcoder.push(chunk) : chunk;
+    if (this.loneCr) {
+      bytes = bytes.slice();
+      for (let i = 0; i < bytes.length; i++) if (bytes[i] === CR) bytes[i] = LF;
+    }
+    this.feed(bytes);
+  }
+
+  /** Settles encoding, line ends, delimiter and decimal mark from the read-ahead, then reads it. */
+  private sniff(): void {
+    this.sniffed = true;
+    const all = new Uint8Array(this.pendingBytes);
+    let at = 0;
+    for (const p of this.pending) {
+      all.set(p, at);
+      at += p.length;
+    }
+    this.pending = [];
+    const guess: EncodingGuess = detectEncoding(all.subarray(0, 1024));
+    let text: Uint8Array;
+    if (guess.encoding === "utf-8") {
+      text = all.subarray(guess.bom);
+      this.encoding = guess.bom ? "UTF-8 with BOM" : "UTF-8";
+      const nul = text.indexOf(0);
+      if (nul >= 0) throw new InputError("input", `the file holds a NUL byte (at byte ${nul + guess.bom}): not a text file`);
+    } else {
+      this.transcoder = new Utf16ToUtf8(guess);
+      this.encoding = guess.encoding === "utf-16le" ? "UTF-16 LE" : "UTF-16 BE";
+      text = this.transcoder.push(all);
+    }
+    if (text.indexOf(LF) < 0 && text.indexOf(CR) >= 0) {
+      this.loneCr = true;
+      text = text.slice();
+      for (let i = 0; i < text.length; i++) if (text[i] === CR) text[i] = LF;
+    }
+    const lastLf = text.lastIndexOf(LF);
+    const sampleText = decodeAscii(text, 0, lastLf >= 0 ? lastLf : Math.min(text.length, SNIFF_BYTES));
+    const sample = contentLines(sampleText, true, SNIFF_LINES);
+    if (this.delimiter === null) {
+      const found = detectDelimiter(sample, { allowWhitespace: true, decimalMark: this.statedMark ?? "auto" });
+      this.delimiter = found.delimiter === "space" ? WHITESPACE : found.delimiter.charCodeAt(0);
+      this.delimiterBasis = found.basis;
+    } else this.delimiterBasis = "stated";
+    const d = this.delimiter;
+    const records: TextRecord[] = sample.map((l) => ({
+      line: l.line,
+      fields: (d === WHITESPACE ? l.text.trim().split(/[ \t]+/) : l.text.split(String.fromCharCode(d))).map((t) => ({
+        text: t.trim().replace(/^"(.*)"$/, "$1").trim(),
+        quoted: false,
+      })),
+    }));
+    const dialect = settleDecimalMark(records, { delimiter: d === COMMA ? "," : ";", basis: this.delimiterBasis }, { decimalMark: this.statedMark ?? "auto" });
+    this.settleMark(dialect.decimalMark, dialect.basis.decimalMark);
+    this.feed(text);
+  }
+
+  private settleMark(mark: DecimalMark | null, basis: string): void {
+    this.mark = mark;
+    this.markBasis = basis;
+    this.decimalByte = mark === "point" ? 0x2e : mark === "comma" && this.delimiter !== COMMA ? COMMA : -1;
+  }
+
+  /** Splits UTF-8 bytes with LF line ends into lines; a partial last line waits for the next chunk. */
+  private feed(chunk: Uint8Array): void {
     let start = 0;
-    if (this.carry.length > 0) {
+    if (this.carryLength > 0) {
       const nl = chunk.indexOf(LF);
       if (nl < 0) {
-        const joined = new Uint8Array(this.carry.length + chunk.length);
-        joined.set(this.carry);
-        joined.set(chunk, this.carry.length);
-        this.carry = joined;
+        this.addCarry(chunk);
         return;
       }
-      const line = new Uint8Array(this.carry.length + nl);
-      line.set(this.carry);
-      line.set(chunk.subarray(0, nl), this.carry.length);
-      this.carry = new Uint8Array(0);
+      this.addCarry(chunk.subarray(0, nl));
+      const line = new Uint8Array(this.carryLength);
+      let at = 0;
+      for (const p of this.carryParts) {
+        line.set(p, at);
+        at += p.length;
+      }
+      this.carryParts = [];
+      this.carryLength = 0;
       this.line(line, 0, line.length);
       start = nl + 1;
     }
     const last = chunk.lastIndexOf(LF);
     if (last < start) {
-      this.carry = chunk.slice(start);
+      this.addCarry(chunk.subarray(start));
       return;
     }
     this.lines_(chunk, start, last + 1);
-    if (last + 1 < chunk.length) this.carry = chunk.slice(last + 1);
+    if (last + 1 < chunk.length) this.addCarry(chunk.subarray(last + 1));
+  }
+
+  /** Holds part of an unfinished line (a copy: the caller may reuse its buffer). */
+  private addCarry(part: Uint8Array): void {
+    if (part.length === 0) return;
+    this.carryLength += part.length;
+    if (this.carryLength > MAX_LINE_BYTES + 1) this.tooLong(this.lineNumber + 1);
+    this.carryParts.push(part.slice());
+  }
+
+  private tooLong(line: number): never {
+    throw new InputError(
+      "input",
+      `line ${line} is longer than ${MAX_LINE_BYTES} bytes, the most an element table line may have (is this a table, with line ends?)`,
+    );
   }
 
   /** Processes whole lines in [start, end) (end just past a LF). */
@@ -212,10 +362,12 @@ export class PartTableReader {
   /**
    * One row of plain numbers, parsed in a single pass with no line search:
    * returns the index after its LF, or -1 to leave the line to the general
-   * path (which handles blanks, comments, quotes, text ids and errors).
+   * path (which handles blanks, comments, quotes, text ids, odd field counts
+   * and errors).
    */
   private fastRow(buf: Uint8Array, start: number, end: number): number {
     const delimiter = this.delimiter as number;
+    const decimal = this.decimalByte;
     const slotOf = this.slotOf;
     const last = this.lastField;
     const k = this.columns!.stress.length;
@@ -233,7 +385,7 @@ export class PartTableReader {
           i++;
         }
       } else {
-        const v = fastNumber(buf, i, end, delimiter);
+        const v = fastNumber(buf, i, end, delimiter, decimal);
         if (v !== v) return -1;
         i = fastStop;
         if (slot < k) raw[row * k + slot] = v;
@@ -251,9 +403,17 @@ export class PartTableReader {
         i++;
       }
     }
+    // The rest of the line: count its fields (a row wider or narrower than the first goes the general way).
+    let fields = last + 1;
     let nl = i;
-    while (nl < end && buf[nl] !== LF) nl++;
-    if (nl >= end) return -1;
+    while (nl < end) {
+      const b = buf[nl];
+      if (b === LF) break;
+      if (b === delimiter) fields++;
+      else if (b === QUOTE) return -1;
+      nl++;
+    }
+    if (nl >= end || fields !== this.fieldCount || nl - start > MAX_LINE_BYTES) return -1;
     this.lineNumber++;
     this.lines[row] = this.lineNumber;
     this.rowsRead++;
@@ -265,12 +425,22 @@ export class PartTableReader {
   /** One line without its LF. */
   private line(buf: Uint8Array, start: number, endWithCr: number): void {
     this.lineNumber++;
+    if (endWithCr - start > MAX_LINE_BYTES + 1) this.tooLong(this.lineNumber);
     const end = endWithCr > start && buf[endWithCr - 1] === CR ? endWithCr - 1 : endWithCr;
     if (this.columns === null) {
       this.firstLine(buf, start, end);
       return;
     }
     this.dataLine(buf, start, end);
+  }
+
+  private skip(reason: SkippedLines["reason"]): void {
+    this.skipped++;
+    const line = this.lineNumber;
+    const runs = this.skippedRuns;
+    const lastRun = runs[runs.length - 1];
+    if (lastRun && lastRun.reason === reason && lastRun.to === line - 1) lastRun.to = line;
+    else if (runs.length < MAX_SKIPPED_RUNS) runs.push({ from: line, to: line, reason });
   }
 
   private isBlank(buf: Uint8Array, start: number, end: number): boolean {
@@ -283,27 +453,24 @@ export class PartTableReader {
   }
 
   private firstLine(buf: Uint8Array, start: number, end: number): void {
-    // A UTF-8 byte-order mark is not part of the first name.
-    if (this.lineNumber === 1 && end - start >= 3 && buf[start] === 0xef && buf[start + 1] === 0xbb && buf[start + 2] === 0xbf) {
-      start += 3;
-    }
     let i = start;
     while (i < end && (buf[i] === 0x20 || buf[i] === 0x09)) i++;
-    if (i >= end || buf[i] === 0x23) {
-      this.skipped++;
+    if (i < end && buf[i] === 0x23) {
+      this.skip("comment");
       return;
     }
-    if (this.delimiter === null) this.delimiter = detectDelimiter(buf, start, end);
-    if (this.isBlank(buf, start, end)) {
-      this.skipped++;
+    if (i >= end || this.isBlank(buf, start, end)) {
+      this.skip("blank");
       return;
     }
-    this.altDecimal = this.delimiter === COMMA ? -1 : COMMA;
-    const fields = splitFields(buf, start, end, this.delimiter);
+    const delimiter = this.delimiter as number;
+    const fields = splitFields(buf, start, end, delimiter);
     // A data line has numbers in its stress and size fields; a header has none (ids may be text).
-    const anyNumber = fields.some((f) => f !== "" && Number.isFinite(Number(f.replace(",", "."))));
+    const anyNumber = fields.some((f) => f !== "" && looksNumeric(f));
     const isHeader = this.headerMode === "yes" || (this.headerMode === "auto" && !anyNumber);
     this.columns = resolveColumns(isHeader ? fields : null, fields.length, this.choice);
+    this.fieldCount = fields.length;
+    this.firstLineNumber = this.lineNumber;
     const k = this.columns.stress.length;
     this.lastField = Math.max(...this.columns.stress, this.columns.size, this.columns.id);
     this.slotOf = new Int32Array(this.lastField + 1).fill(-1);
@@ -316,8 +483,33 @@ export class PartTableReader {
     this.sizes = new Float64Array(n);
     this.lines = new Float64Array(n);
     this.idNumbers = new Float64Array(this.columns.id >= 0 ? n : 0);
-    if (isHeader) this.skipped++;
+    if (isHeader) this.skip("header");
     else this.dataLine(buf, start, end);
+  }
+
+  /** A stress or size field: bytes straight to a number, or the shared text rules where a mark is involved. */
+  private numberField(buf: Uint8Array, i: number, e: number, what: string, field: number): number {
+    let points = false;
+    let commas = false;
+    for (let k = i; k < e; k++) {
+      const b = buf[k];
+      if (b === 0x2e) points = true;
+      else if (b === COMMA) commas = true;
+    }
+    // Bytes straight to a number where only the settled mark (or none) occurs; anything else goes
+    // through the shared text rules, which settle or refuse ("1,250" before any mark is known).
+    const direct = !commas && (!points || this.mark === "point") ? -1 : !points && this.mark === "comma" ? COMMA : -2;
+    if (direct !== -2) {
+      const v = parseNumber(buf, i, e, direct);
+      if (v === v) return v === 0 ? 0 : v;
+    }
+    const text = decodeAscii(buf, i, e).trim().replace(/^"(.*)"$/, "$1").trim();
+    const r = readNumber(text, this.mark);
+    if (r.ok) {
+      if (r.proves) this.settleMark(r.proves, `detected: "${text}" on line ${this.lineNumber}`);
+      return r.value;
+    }
+    throw new InputError("input", `line ${this.lineNumber}: the ${what} field ${field + 1} ("${text}") ${r.reason}`);
   }
 
   private dataLine(buf: Uint8Array, start: number, end: number): void {
@@ -330,13 +522,18 @@ export class PartTableReader {
     let field = 0;
     let i = delimiter === WHITESPACE ? nextFieldStart(buf, start, end, WHITESPACE) : start;
     // Blank lines, lines of bare delimiters and '#' comments are not elements.
-    if ((i < end && buf[i] === 0x23) || this.isBlank(buf, start, end)) {
-      this.skipped++;
+    if (i < end && buf[i] === 0x23) {
+      this.skip("comment");
       return;
     }
-    while (field <= last) {
+    if (this.isBlank(buf, start, end)) {
+      this.skip("blank");
+      return;
+    }
+    let extra = false;
+    for (;;) {
       const e = fieldEnd(buf, i, end, delimiter);
-      const slot = slotOf[field];
+      const slot = field <= last ? slotOf[field] : -1;
       if (slot >= 0) {
         if (slot === k + 1) {
           const v = parseNumber(buf, i, e, -1);
@@ -348,22 +545,25 @@ export class PartTableReader {
             this.idTexts[row] = decodeAscii(buf, i, e).trim().replace(/^"|"$/g, "");
           }
         } else {
-          const v = parseNumber(buf, i, e, this.altDecimal);
-          if (v !== v) {
-            const what = slot === k ? "size" : "stress";
-            const text = decodeAscii(buf, i, e).trim();
-            throw new InputError("input", `line ${this.lineNumber}: the ${what} field ${field + 1} ("${text}") is not a number`);
-          }
+          const v = this.numberField(buf, i, e, slot === k ? "size" : "stress", field);
           if (slot === k) this.sizes[row] = v;
           else raw[row * k + slot] = v;
         }
-      }
+      } else if (field >= this.fieldCount && !this.isBlank(buf, i, e)) extra = true;
       field++;
       if (e >= end) break;
       i = nextFieldStart(buf, e, end, delimiter);
+      if (delimiter === WHITESPACE && i >= end) break;
     }
-    if (field <= last) {
-      throw new InputError("input", `line ${this.lineNumber}: expected at least ${last + 1} fields, found ${field}`);
+    if (field < this.fieldCount) {
+      throw new InputError("input", `line ${this.lineNumber}: expected at least ${this.fieldCount} fields as on line ${this.firstLineNumber}, found ${field}`);
+    }
+    if (extra) {
+      throw new InputError(
+        "input",
+        `line ${this.lineNumber}: found ${field} fields, more than the ${this.fieldCount} on line ${this.firstLineNumber} ` +
+          `(a shifted column, or decimal commas in a comma-delimited file?)`,
+      );
     }
     const size = this.sizes[row];
     if (!(size >= 0)) throw new InputError("input", `line ${this.lineNumber}: the element size must be >= 0 (got ${size})`);
@@ -371,6 +571,12 @@ export class PartTableReader {
     this.rowsRead++;
     this.inBatch++;
     if (this.inBatch === this.batchRows) this.flush();
+  }
+
+  /** "element 7 (line 9)" or "line 9". */
+  private elementName(row: number): string {
+    const id = this.idOf(row);
+    return id !== null ? `element ${id} (line ${this.lines[row]})` : `the element on line ${this.lines[row]}`;
   }
 
   /** Sums the rows in the batch buffers. */
@@ -384,6 +590,9 @@ export class PartTableReader {
       for (let r = 0; r < n; r++) {
         const b = r * 6;
         principalStresses(raw[b], raw[b + 1], raw[b + 2], raw[b + 3], raw[b + 4], raw[b + 5], out, r * 3);
+        if (out[r * 3] - out[r * 3] !== 0 || out[r * 3 + 1] - out[r * 3 + 1] !== 0 || out[r * 3 + 2] - out[r * 3 + 2] !== 0) {
+          throw new InputError("notRepresentable", `${this.elementName(r)}: its principal stresses are too large to represent; give the stresses in a larger unit`);
+        }
       }
     }
     const stride = kind === 1 ? 1 : 3;
@@ -407,8 +616,19 @@ export class PartTableReader {
       accumulate(p, stride, this.sizes, 0, n, this.shape, this.criterion, this.peak, this.total, this.power!, this.nsa, visit, () =>
         this.held.length < this.top ? 0 : this.held[0].term,
       );
+      if (!Number.isFinite(this.total.sum + this.total.compensation)) this.sumOverflow(n);
     }
     this.inBatch = 0;
+  }
+
+  /** The running sum left double precision: name the largest element of the batch that overflowed it. */
+  private sumOverflow(n: number): never {
+    let largest = 0;
+    for (let r = 1; r < n; r++) if (this.sizes[r] > this.sizes[largest]) largest = r;
+    throw new InputError(
+      "notRepresentable",
+      `${this.elementName(largest)}: with its size ${this.sizes[largest]} the effective size is too large to represent; give the sizes in a larger unit`,
+    );
   }
 
   private idOf(row: number): string | null {
@@ -467,28 +687,40 @@ export class PartTableReader {
 
   /** Ends the stream (a last line without LF counts) and returns the result. */
   finish(): PartStreamResult {
-    if (this.carry.length > 0) {
-      const last = this.carry;
-      this.carry = new Uint8Array(0);
-      this.line(last, 0, last.length);
+    if (!this.sniffed) this.sniff();
+    if (this.carryLength > 0) this.feed(new Uint8Array([LF]));
+    if (this.columns === null) throw new InputError("input", "the table is empty: no line holds an element");
+    if (this.rowsRead === 0) {
+      throw new InputError("input", `the table is empty: ${this.lineNumber} line${this.lineNumber === 1 ? "" : "s"} read (header, blank or comment), no element`);
     }
-    if (this.columns === null) throw new InputError("input", "the table is empty");
     this.flush();
     const effectiveSize = this.peak > 0 ? totalValue(this.total) : 0;
     let risk: number | null = null;
     let failureProbability: number | null = null;
     if (this.materialScale !== undefined) {
       risk = this.peak > 0 && effectiveSize > 0 ? Math.exp(Math.log(effectiveSize) + this.shape * Math.log(this.peak / this.materialScale)) : 0;
+      if (!Number.isFinite(risk)) {
+        const where = this.peakId !== null ? `element ${this.peakId} (line ${this.peakLine})` : `the element on line ${this.peakLine}`;
+        throw new InputError(
+          "notRepresentable",
+          `${where}: the risk of rupture is too large to represent (peak stress ${this.peak} against material scale ${this.materialScale}, ` +
+            `modulus ${this.shape}): failure is certain to double precision; check the stress unit and the material scale`,
+        );
+      }
       failureProbability = -Math.expm1(-risk);
     }
     const hotSpots = [...this.held]
       .sort((a, b) => b.term - a.term)
-      .map((h) => ({ id: h.id, line: h.line, principal: h.principal, size: h.size, share: h.term / effectiveSize }));
+      .map((h) => ({ id: h.id, line: h.line, principal: h.principal, size: h.size, share: effectiveSize > 0 ? h.term / effectiveSize : 0 }));
     return {
       rows: this.rowsRead,
       skippedLines: this.skipped,
+      skipped: this.skippedRuns,
       columns: this.columns,
       delimiter: delimiterName(this.delimiter as number),
+      decimalMark: this.mark,
+      decimalBasis: this.markBasis,
+      encoding: this.encoding,
       criterion: this.criterion,
       shape: this.shape,
       peak: this.peak,

@@ -1,4 +1,10 @@
-/** How numbers read on screen and in exports: four significant figures, probabilities also as "1 in N". */
+/**
+ * How numbers read on screen and in exports: four significant figures;
+ * probabilities through the core's formatter (src/design/probability-text.ts),
+ * which never rounds a probability to 0 % or 100 %, with "1 in N" when small.
+ */
+import { probabilityDisplay } from "../../src/design/check-rows";
+
 export function sig(x: number, digits = 4): string {
   if (x === 0) return "0";
   const abs = Math.abs(x);
@@ -7,14 +13,10 @@ export function sig(x: number, digits = 4): string {
 }
 
 export function formatProbability(p: number): string {
-  if (p === 0) return "0";
-  const main = p >= 1e-3 ? `${Number((p * 100).toPrecision(3))} %` : p.toExponential(2);
-  if (p >= 0.5) return main;
-  const oneIn = 1 / p;
-  const n = oneIn < 1e12 ? Math.round(oneIn).toLocaleString("en-US") : oneIn.toExponential(1);
-  return `${main} (1 in ${n})`;
+  return probabilityDisplay(p);
 }
 
+/** A confidence level, "95 %"; say its sidedness beside it (src/design/confidence-convention.ts). */
 export function formatPercent(p: number): string {
   return `${Number((p * 100).toPrecision(4))} %`;
 }

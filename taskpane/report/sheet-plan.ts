@@ -58,7 +58,6 @@ export interface SheetPlan {
 const A = 0;
 const B = 1;
 const C = 2;
-const D = 3;
 const F = 5;
 const I = 8;
 // Spill area of PLOTPOINTS, right of a pasted element table (W to AC at most).

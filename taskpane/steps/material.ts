@@ -23,6 +23,7 @@ export function setupMaterial(onChange: () => void): void {
       onChange();
     });
   }
+  byId("decimal-comma").addEventListener("change", onChange);
   byId("load-demo").addEventListener("click", () => {
     fillStrengths(DEMO_TEXT, null);
     byId("selection-info").textContent = DEMO_DESCRIPTION;
@@ -50,8 +51,12 @@ export function readMaterial(): { material: MaterialInput; stressUnit: string; c
 
   const text = byId<HTMLTextAreaElement>("strengths").value;
   let parsed;
+  const note = byId("strengths-note");
+  note.textContent = "";
   try {
-    parsed = parsePasted(text);
+    parsed = parsePasted(text, { decimalComma: byId<HTMLInputElement>("decimal-comma").checked });
+    // Nothing is dropped unseen: the skipped lines and the decimal mark used show under the field.
+    note.textContent = parsed.notes.join(" ");
   } catch (error) {
     if (error instanceof PasteError) throw new FieldError("strengths", error.message);
     throw error;

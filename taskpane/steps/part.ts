@@ -5,7 +5,7 @@
  */
 import { byId, FieldError, radioValue, requiredNumber } from "../app/dom";
 import type { PartInput, TableSource } from "../app/inputs";
-import { parseElementTable, TableError } from "../app/parse-table";
+import { readElementTable, TableError } from "../app/parse-table";
 
 export const PART_FIELDS = ["part-size", "element-table"];
 
@@ -31,8 +31,11 @@ export function fillElementTable(text: string, source: (TableSource & { kind: "r
 export function readPart(): PartInput {
   if (radioValue("part-source") === "table") {
     const text = byId<HTMLTextAreaElement>("element-table").value;
+    const note = byId("element-table-note");
+    note.textContent = "";
     try {
-      const table = parseElementTable(text);
+      const { table, notes } = readElementTable(text, { decimalComma: byId<HTMLInputElement>("decimal-comma").checked });
+      note.textContent = notes.join(" ");
       const source: TableSource = fromRange && fromRange.text === text ? fromRange.source : { kind: "pasted" };
       return { kind: "table", ...table, source };
     } catch (error) {

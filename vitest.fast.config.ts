@@ -1,0 +1,9 @@
+// `npm run test:fast`: the inner loop (core, adapters, engine, command line in process), under a minute on a
+// two-core machine. Left to `npm test`: property tests (many random cases), the browser tests (build the pane and
+// drive Chromium), the pack-and-install test (npm pack and a registry install) and the million-row tests.
+import { configDefaults, defineConfig, mergeConfig } from "vitest/config";
+import base from "./vitest.config";
+
+export const SLOW_TESTS = ["test/properties-*.test.ts", "test/browser-*.test.ts", "test/package-install.test.ts"];
+
+export default mergeConfig(base, defineConfig({ test: { exclude: [...configDefaults.exclude, ...SLOW_TESTS] } }));
