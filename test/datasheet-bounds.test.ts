@@ -125,6 +125,8 @@ describe("DATASHEETBOUNDS in a cell", () => {
     const core = datasheetBounds({ shape: 10.2, scale: 412, specimens: 30, survival: 0.999 });
     expect(t.map((r) => r[1])).toEqual([core.shape.lower, core.shape.upper, core.scale.lower, core.scale.upper, core.designStress!.estimate, core.designStress!.lower]);
     expect(spillShapes.DATASHEETBOUNDS).toEqual({ rows: 6, cols: 2 });
+    // The JSDoc example's documented value (the last row, 172.1).
+    expect(relativeError(t[5][1] as number, 172.1)).toBeLessThan(5e-4);
     // Without a survival the design-stress rows stay blank; the default is an unbiased modulus.
     const short = guarded.DATASHEETBOUNDS(10.2, 412, 30) as unknown[][];
     expect(short.slice(0, 4)).toEqual(t.slice(0, 4));

@@ -12,18 +12,8 @@ import { InputError } from "../src/errors";
 import { fitStaticFatigue, fitStressRate } from "../src/design/crack-growth-fit";
 import { studentQuantile, studentUpperTail } from "../src/numeric/student-t";
 import fixture from "./fixtures/crack_growth.json";
-import { relativeError } from "./helpers";
+import { expectInputError, relativeError } from "./helpers";
 
-function expectInputError(fn: () => unknown, kind: "input" | "notApplicable"): void {
-  try {
-    fn();
-  } catch (e) {
-    expect(e).toBeInstanceOf(InputError);
-    expect((e as InputError).kind).toBe(kind);
-    return;
-  }
-  throw new Error("expected an InputError");
-}
 
 describe("Student t quantile", () => {
   it.each(fixture.tQuantiles)("t_$p with $df degrees of freedom matches scipy", ({ df, p, t }) => {
