@@ -85,14 +85,20 @@ describe("brittle check on bad input: exit 2, never 0 or 1", () => {
   });
 });
 
-describe("the installed command's exit status", () => {
-  it("sets the process exit code: 1 for the failing example", () => {
+describe("the command's exit status in a real process", () => {
+  it("sets the process exit code: 1 for the failing example, with the verdict printed", () => {
+    // The TypeScript entry through tsx (the compiled lib/ is exercised by test/package-install.test.ts).
+    const script = "const m = await import('./cli/cli.ts'); process.exitCode = await m.main(['check', 'examples/check-fail.check.json']);";
     let status = 0;
+    let stdout = "";
     try {
-      execFileSync(process.execPath, ["bin/brittle.js", "check", "examples/check-fail.check.json"], { stdio: "pipe" });
+      stdout = execFileSync(process.execPath, ["--import", "tsx", "--input-type=module", "-e", script], { stdio: "pipe", encoding: "utf8" });
     } catch (error) {
       status = (error as { status: number }).status;
+      stdout = String((error as { stdout: string }).stdout);
     }
     expect(status).toBe(1);
+    expect(stdout).toMatch(/^Design check: INVENTED EXAMPLE/);
+    expect(stdout).toMatch(/\nFAIL: the applied stress 100 MPa exceeds/);
   }, 60_000);
 });

@@ -24,6 +24,7 @@ import { failureProbabilityUpper, strengthModel } from "../src/design/check-stre
 import { lifetimeStressFromInert } from "../src/design/check-time";
 import { runDesignCheck } from "../src/design/design-check";
 import { formatProbability } from "../src/design/probability-text";
+import { datasheetBounds } from "../src/weibull/datasheet-bounds";
 import { designStressBound } from "../src/weibull/design-stress-bound";
 import { fitMaximumLikelihood } from "../src/weibull/maximum-likelihood";
 import { unbiasingFactor } from "../src/weibull/unbiasing";
@@ -289,6 +290,9 @@ describe("bounds from datasheet values (modulus, characteristic strength, specim
     const unbiased = runDesignCheck(input({ ...oneSided95, material: { kind: "typed", shape: fit.shape * unbiasingFactor(15), scale: fit.scale, specimens: 15 } }));
     expect(relativeError(unbiased.allowableLower!.value, data.allowableLower!.value)).toBeLessThan(1e-12);
     expect(unbiased.verdict.onLowerBound).toBe(true);
+    // The check uses the core function behind DATASHEETBOUNDS, one-sided at its confidence.
+    const cell = datasheetBounds({ shape: fit.shape * unbiasingFactor(15), scale: fit.scale, specimens: 15, confidence: 0.95, sides: 1, survival: 0.9999, sizeRatio: 64 });
+    expect(unbiased.allowableLower!.value).toBe(cell.designStress!.lower);
   });
 
   it("without the number of specimens gives the point estimate only, and says the verdict is not a design verdict", () => {

@@ -1,21 +1,12 @@
 /**
- * Lower confidence bound on the design stress from datasheet values alone:
- * the modulus, the characteristic strength and the number of specimens of a
- * complete sample. The pivotal quantity u = m_hat ln(x_hat / x) of a Weibull
- * quantile depends on the sample size and w only (design-stress-bound.ts), so
- * the raw maximum-likelihood values and N give the same bound the data would:
- *
- *   x_L = th_hat exp((w - u_C(N, w)) / m_raw),   w = ln(-ln S) - ln k,
- *
- * with m_raw = m / UF(N) when the datasheet reports the unbiased modulus (as
- * ASTM C1239 datasheets do).
- *
- * Interface note: the cell function DATASHEETBOUNDS gets its own core
- * function (src/weibull/datasheet-bounds.ts) from the numbers work; once it is
- * on main this file forwards to it, keeping this signature.
+ * The design check's lower bound from datasheet values alone (the modulus,
+ * the characteristic strength and the number of specimens of a complete
+ * sample): the core's datasheetBounds (src/weibull/datasheet-bounds.ts, the
+ * function behind DATASHEETBOUNDS), asked for the one-sided bound on the
+ * design stress at the check's confidence. The data's own maximum-likelihood
+ * values give the same bound as the data (test/design-check.test.ts).
  */
-import { quantilePivotQuantile } from "../weibull/quantile-pivot-table";
-import { unbiasingFactor } from "../weibull/unbiasing";
+import { datasheetBounds } from "../weibull/datasheet-bounds";
 
 export interface DatasheetValues {
   /** Weibull modulus as the datasheet gives it. */
@@ -28,19 +19,19 @@ export interface DatasheetValues {
   unbiased: boolean;
 }
 
-/** The raw maximum-likelihood modulus the pivotal bounds are built on. */
-export function rawModulus({ shape, specimens, unbiased }: DatasheetValues): number {
-  return unbiased ? shape / unbiasingFactor(specimens) : shape;
+/** The raw maximum-likelihood modulus the pivotal bounds are built on (shape / UF(N) when unbiased). */
+export function rawModulus(values: DatasheetValues): number {
+  return datasheetBounds({ ...values, confidence: 0.9, sides: 2 }).rawShape;
 }
 
 /**
+ * One-sided lower bound at `confidence` on the stress a body `sizeRatio`
+ * times the specimen survives with probability `survival`.
+ *
  * @example datasheetDesignStressLower({ shape: 10, scale: 400, specimens: 30, unbiased: false, survival: 0.999, confidence: 0.95, sizeRatio: 1 })
  */
 export function datasheetDesignStressLower(
   values: DatasheetValues & { survival: number; confidence: number; sizeRatio: number },
 ): number {
-  const m = rawModulus(values);
-  const w = Math.log(-Math.log(values.survival)) - Math.log(values.sizeRatio);
-  const uC = quantilePivotQuantile({ specimens: values.specimens, logHazard: w, probability: values.confidence });
-  return values.scale * Math.exp((w - uC) / m);
+  return datasheetBounds({ ...values, sides: 1 }).designStress!.lower;
 }
