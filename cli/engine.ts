@@ -13,6 +13,7 @@ import {
   EmptyValue,
   ErrorType,
   FunctionArgumentType,
+  DenseSparseChooseBasedOnThreshold,
   FunctionPlugin,
   HyperFormula,
   SimpleRangeValue,
@@ -23,6 +24,7 @@ import { isCellFailure, type CellResult } from "../functions/cells";
 import type { FunctionMetadata } from "../functions/metadata";
 import { guarded } from "../functions/registry";
 import { spillShapes, type SpillShape } from "../functions/spill-shapes";
+import { MAX_COLUMNS, MAX_ROWS } from "./workbook-limits";
 
 export const NAMESPACE = "BRITTLE";
 export const LICENSE_KEY = "gpl-v3";
@@ -146,7 +148,11 @@ export function registerFunctions(metadata: FunctionMetadata[]): void {
 /**
  * What a spreadsheet accepts but the engine's parser does not, rewritten
  * outside string literals: saved add-in calls (_xldudf_BRITTLE_NAME( becomes
- * BRITTLE.NAME( ) and an upper-case exponent in a number (3.15E8 becomes 3.15e8).
+ * BRITTLE.NAME( ), the prefix a spreadsheet saves before newer built-ins
+ * (_xlfn.STDEV.S( becomes STDEV.S( ), an upper-case exponent in a number
+ * (3.15E8 becomes 3.15e8), and a range from row 1 to the sheet's last row
+ * (A1:A1048576), which the engine would build cell by cell, as the same
+ * column range (A:A), which it does not.
  */
 export function normaliseFormula(formula: string): string {
   return formula
@@ -156,26 +162,85 @@ export function normaliseFormula(formula: string): string {
         ? part
         : part
             .replace(/_xldudf_BRITTLE_([A-Za-z0-9]+)\s*\(/gi, (_, name: string) => `${NAMESPACE}.${name.toUpperCase()}(`)
-            .replace(/(?<![A-Za-z_$\d.])(\d+\.?\d*|\.\d+)E([+-]?\d+)/g, "$1e$2"),
+            .replace(/(?<![A-Za-z0-9_.])_xl(?:fn|ws)\.(?=[A-Za-z][A-Za-z0-9_.]*\s*\()/gi, "")
+            .replace(/(?<![A-Za-z_$\d.])(\d+\.?\d*|\.\d+)E([+-]?\d+)/g, "$1e$2")
+            .replace(/(?<![A-Za-z0-9_.$])(\$?[A-Za-z]{1,3})\$?1:(\$?[A-Za-z]{1,3})\$?1048576(?![0-9A-Za-z_(])/g, "$1:$2"),
     )
     .join("");
 }
+
+/**
+ * A spreadsheet reads bare TRUE and FALSE as logical constants; the engine
+ * knows only the functions TRUE() and FALSE(), so the bare words are named
+ * expressions that call them (=IF(TRUE,1,2) is 1, as in any spreadsheet).
+ */
+export const LOGICAL_CONSTANTS = [
+  { name: "TRUE", expression: "=TRUE()" },
+  { name: "FALSE", expression: "=FALSE()" },
+];
+
+/** A workbook-level defined name, as the engine takes it: "=Sheet1!$A$1:$A$30". */
+export interface NamedRange {
+  name: string;
+  expression: string;
+  /** The engine's id of the one sheet the name belongs to; none for a workbook-wide name. */
+  scope?: number;
+}
+
+/**
+ * Below this share of filled cells in the rectangle a sheet spans, the engine
+ * keeps the sheet in a sparse map instead of a dense grid: a sheet holding A1
+ * and XFD1048576 would otherwise allocate 17 billion slots and abort.
+ */
+const DENSE_FILL_THRESHOLD = 0.25;
 
 export function createEngine(sheets: Record<string, unknown[][]>, metadata: FunctionMetadata[]): HyperFormula {
   registerFunctions(metadata);
   const normalised = Object.fromEntries(
     Object.entries(sheets).map(([name, rows]) => [
       name,
-      rows.map((row) => row.map((v) => (typeof v === "string" && v.startsWith("=") ? normaliseFormula(v) : v))),
+      // map() keeps the holes of a sparse row, so a far-away cell costs no more than a near one.
+      rows.map((row) => (row.length === 0 ? row : row.map((v) => (typeof v === "string" && v.startsWith("=") ? normaliseFormula(v) : v)))),
     ]),
   );
-  return HyperFormula.buildFromSheets(normalised as never, {
-    licenseKey: LICENSE_KEY,
-    // A spreadsheet's own limits; the engine's defaults (40 000 rows) would refuse a full column.
-    maxRows: 1048576,
-    maxColumns: 16384,
-    useArrayArithmetic: false,
-    smartRounding: false,
-    precisionRounding: 0,
-  });
+  return HyperFormula.buildFromSheets(
+    normalised as never,
+    {
+      licenseKey: LICENSE_KEY,
+      // A spreadsheet's own limits; the engine's defaults (40 000 rows) would refuse a full column.
+      maxRows: MAX_ROWS,
+      maxColumns: MAX_COLUMNS,
+      chooseAddressMappingPolicy: new DenseSparseChooseBasedOnThreshold(DENSE_FILL_THRESHOLD),
+      useArrayArithmetic: false,
+      smartRounding: false,
+      precisionRounding: 0,
+    },
+    LOGICAL_CONSTANTS,
+  );
+}
+
+/**
+ * Adds a workbook's defined names (=Strengths in a formula), re-evaluating
+ * once. Returns the names the engine refused (an invalid name, one that
+ * clashes with TRUE/FALSE or a cell address), so the caller can say so:
+ * formulas using them show #NAME?.
+ */
+export function addNamedRanges(engine: HyperFormula, names: NamedRange[]): string[] {
+  const refused: string[] = [];
+  if (names.length === 0) return refused;
+  engine.suspendEvaluation();
+  try {
+    for (const { name, expression, scope } of names) {
+      const formula = normaliseFormula(expression.startsWith("=") ? expression : `=${expression}`);
+      try {
+        if (engine.isItPossibleToAddNamedExpression(name, formula, scope)) engine.addNamedExpression(name, formula, scope);
+        else refused.push(name);
+      } catch {
+        refused.push(name);
+      }
+    }
+  } finally {
+    engine.resumeEvaluation();
+  }
+  return refused;
 }

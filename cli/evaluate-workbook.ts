@@ -1,59 +1,111 @@
 /**
  * Evaluate a loaded workbook in the embedded engine and collect what a user
- * would see: every cell's value, errors as their code text ("#NUM!").
+ * would see: every cell's value, errors as the standard code text ("#NUM!")
+ * with the engine's message beside them. Only cells that hold something are
+ * visited (and the cells their array results fill), never the rectangle a
+ * sheet spans.
  */
 import { CellType, DetailedCellError, type HyperFormula } from "hyperformula";
-import { loadExcelJs, type ExcelJS } from "./exceljs-loader";
-import { createEngine } from "./engine";
+import { addNamedRanges, createEngine, type NamedRange } from "./engine";
+import { NOT_REPRESENTABLE, standardError, type StandardError } from "./error-values";
+import { fitsRangeBudget } from "./range-budget";
+import { EMPTY_ROW } from "./workbook-limits";
 import type { FunctionMetadata } from "../functions/metadata";
-import type { Contents, LoadedWorkbook } from "./workbook-io";
+import type { LoadedWorkbook } from "./workbook-io";
 
 export type Shown = number | string | boolean | null;
 
-export interface FormulaResult {
+export interface FormulaResult extends ShownCell {
   sheet: string;
   address: string;
   formula: string;
-  value: Shown;
-  message?: string;
 }
 
 export interface Evaluation {
   engine: HyperFormula;
   grids: Record<string, Shown[][]>;
   formulas: FormulaResult[];
+  /** The add-in's function names (FIT, MODULUS...), which the safe-formula check needs when writing. */
+  addInNames: ReadonlySet<string>;
+  /** Defined names the engine could not take (formulas using them show #NAME?). */
+  refusedNames: string[];
+}
+
+/** A cell as shown: its value, or an error's standard code (as value and as error) and message. */
+export interface ShownCell {
+  value: Shown;
+  /** Set when the cell is an error, so text that merely looks like "#N/A" is never taken for one. */
+  error?: StandardError;
+  message?: string;
 }
 
 export function evaluateWorkbook(workbook: LoadedWorkbook, metadata: FunctionMetadata[]): Evaluation {
   const engine = createEngine(workbook.sheets, metadata);
+  const { names, tooLarge } = namedRanges(workbook, engine);
+  const refusedNames = [...tooLarge, ...addNamedRanges(engine, names)];
   const grids: Record<string, Shown[][]> = {};
   const formulas: FormulaResult[] = [];
   for (const name of Object.keys(workbook.sheets)) {
     const sheet = engine.getSheetId(name)!;
-    const values = engine.getSheetValues(sheet);
-    grids[name] = values.map((row) => row.map(shown));
+    const grid: Shown[][] = [];
+    const put = (r: number, c: number, v: Shown) => {
+      if (v === null) return;
+      while (grid.length <= r) grid.push(EMPTY_ROW as Shown[]);
+      if (grid[r] === EMPTY_ROW) grid[r] = [];
+      const row = grid[r];
+      while (row.length < c) row.push(null);
+      row[c] = v;
+    };
     workbook.sheets[name].forEach((row, r) =>
       row.forEach((contents, c) => {
+        const cell = shownCell(engine.getCellValue({ sheet, row: r, col: c }));
+        put(r, c, cell.value);
         if (typeof contents === "string" && contents.startsWith("=")) {
-          const v = engine.getCellValue({ sheet, row: r, col: c });
-          formulas.push({
-            sheet: name,
-            address: columnName(c) + (r + 1),
-            formula: contents,
-            value: shown(v),
-            ...(v instanceof DetailedCellError && v.message ? { message: v.message } : {}),
-          });
+          formulas.push({ sheet: name, address: columnName(c) + (r + 1), formula: contents, ...cell });
+          const extent = spillExtent(engine, sheet, r, c);
+          for (let i = 0; i < extent.rows; i++) {
+            for (let j = i === 0 ? 1 : 0; j < extent.cols; j++) put(r + i, c + j, shownCell(engine.getCellValue({ sheet, row: r + i, col: c + j })).value);
+          }
         }
       }),
     );
+    grids[name] = grid;
   }
-  return { engine, grids, formulas };
+  return { engine, grids, formulas, addInNames: new Set(metadata.map((f) => f.id)), refusedNames };
 }
 
-function shown(v: unknown): Shown {
-  if (v instanceof DetailedCellError) return v.value;
-  if (v === undefined) return null;
-  return v as Shown;
+/** What the engine returned, as a spreadsheet would show it. */
+export function shownCell(v: unknown): ShownCell {
+  if (v instanceof DetailedCellError) {
+    const { value, message } = standardError(v.value, v.message);
+    return { value, error: value, ...(message ? { message } : {}) };
+  }
+  if (typeof v === "number" && !Number.isFinite(v)) return { value: "#NUM!", error: "#NUM!", message: NOT_REPRESENTABLE };
+  if (v === undefined) return { value: null };
+  return { value: v as Shown };
+}
+
+/**
+ * The workbook's defined names the engine can take: workbook-wide and
+ * sheet-scoped ones, not the file's own (_xlnm.Print_Area and such) nor
+ * those that point into another file.
+ */
+function namedRanges(workbook: LoadedWorkbook, engine: HyperFormula): { names: NamedRange[]; tooLarge: string[] } {
+  const out: NamedRange[] = [];
+  const tooLarge: string[] = [];
+  for (const n of workbook.names ?? []) {
+    if (/^_xlnm\./i.test(n.name) || n.formula.includes("[")) continue;
+    // A name over a whole sheet would cost the engine minutes; formulas using it show #NAME?.
+    if (!fitsRangeBudget(n.formula)) {
+      tooLarge.push(n.name);
+      continue;
+    }
+    const sheetName = n.localSheet === undefined ? undefined : workbook.sheetOrder?.[n.localSheet];
+    const scope = sheetName === undefined ? undefined : engine.getSheetId(sheetName);
+    if (n.localSheet !== undefined && scope === undefined) continue;
+    out.push({ name: n.name, expression: n.formula, ...(scope === undefined ? {} : { scope }) });
+  }
+  return { names: out, tooLarge };
 }
 
 export function columnName(index: number): string {
@@ -62,57 +114,8 @@ export function columnName(index: number): string {
   return name;
 }
 
-/**
- * Writes the evaluated workbook: an .xlsx keeps its own formatting and
- * formulas (as written in the file, saved add-in names included), and every
- * formula gets its computed value; a spilling formula becomes an array formula
- * over the cells it fills, so a spreadsheet opening the file shows the same.
- */
-export async function writeEvaluated(workbook: LoadedWorkbook, evaluation: Evaluation, outPath: string): Promise<void> {
-  const book = workbook.source ?? new (await loadExcelJs()).Workbook();
-  const { engine } = evaluation;
-  for (const [name, contents] of Object.entries(workbook.sheets)) {
-    const ws = book.getWorksheet(name) ?? book.addWorksheet(name);
-    const sheet = engine.getSheetId(name)!;
-    contents.forEach((row, r) =>
-      row.forEach((cellContents, c) => {
-        const cell = ws.getCell(r + 1, c + 1);
-        if (typeof cellContents === "string" && cellContents.startsWith("=")) {
-          const original = originalFormula(cell, cellContents);
-          const extent = spillExtent(engine, sheet, r, c);
-          if (extent.rows > 1 || extent.cols > 1) {
-            const results: (number | string)[][] = [];
-            for (let i = 0; i < extent.rows; i++) {
-              results.push([]);
-              for (let j = 0; j < extent.cols; j++) results[i].push(resultFor(engine.getCellValue({ sheet, row: r + i, col: c + j })) as never);
-            }
-            const range = `${columnName(c)}${r + 1}:${columnName(c + extent.cols - 1)}${r + extent.rows}`;
-            // exceljs's types omit fillFormula's fourth argument, the share type.
-            (ws.fillFormula as (...a: unknown[]) => void).call(ws, range, original, results, "array");
-          } else {
-            cell.value = { formula: original, result: resultFor(engine.getCellValue({ sheet, row: r, col: c })) } as never;
-          }
-        } else if (!workbook.source) {
-          cell.value = cellContents as Contents as never;
-        }
-      }),
-    );
-  }
-  await book.xlsx.writeFile(outPath);
-}
-
-function originalFormula(cell: ExcelJS.Cell, contents: string): string {
-  const v = cell.value as Record<string, unknown> | null;
-  if (v && typeof v === "object" && ("formula" in v || "sharedFormula" in v)) return cell.formula;
-  return contents.slice(1);
-}
-
-function resultFor(v: unknown): unknown {
-  if (v instanceof DetailedCellError) return { error: v.value };
-  return v ?? "";
-}
-
-function spillExtent(engine: HyperFormula, sheet: number, row: number, col: number): { rows: number; cols: number } {
+/** The rows and columns an array formula fills (1 x 1 for any other cell). */
+export function spillExtent(engine: HyperFormula, sheet: number, row: number, col: number): { rows: number; cols: number } {
   if (engine.getCellType({ sheet, row, col }) !== CellType.ARRAYFORMULA) return { rows: 1, cols: 1 };
   const inSpill = (r: number, c: number) => engine.getCellType({ sheet, row: r, col: c }) === CellType.ARRAY;
   let cols = 1;

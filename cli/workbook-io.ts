@@ -10,7 +10,11 @@ import { InputError } from "../src/errors";
 import type { Dialect, DialectChoice } from "../src/input/delimited-text";
 import { type TextEncodingName, decodeText } from "../src/input/encoding";
 import { fieldNumber, readDelimited } from "../src/input/read-table";
-import { loadExcelJs, type ExcelJS } from "./exceljs-loader";
+import type { ExcelJS } from "./exceljs-loader";
+import { WorkbookError } from "./workbook-errors";
+import type { DefinedName, DroppedParts } from "./xlsx-parts";
+
+export { WorkbookError };
 
 export type Contents = number | string | boolean | null;
 
@@ -21,9 +25,13 @@ export interface LoadedWorkbook {
   source?: ExcelJS.Workbook;
   /** How a .csv was read (encoding, delimiter, decimal mark), for the user to see. */
   readAs?: string;
+  /** Parts of an .xlsx removed before reading (charts, images, comments...): not in a written copy. */
+  dropped?: DroppedParts;
+  /** An .xlsx's defined names, read from the file itself. */
+  names?: DefinedName[];
+  /** An .xlsx's sheet names in file order (chart sheets included), to place sheet-scoped names. */
+  sheetOrder?: string[];
 }
-
-export class WorkbookError extends Error {}
 
 /** `csv`: how to read a .csv when detection is not wanted (--decimal-comma, --decimal-point). */
 export async function loadWorkbook(path: string, csv: DialectChoice = {}): Promise<LoadedWorkbook> {
@@ -37,7 +45,7 @@ export async function loadWorkbook(path: string, csv: DialectChoice = {}): Promi
       throw error;
     }
   }
-  if (lower.endsWith(".xlsx")) return loadXlsx(path);
+  if (lower.endsWith(".xlsx")) return (await import("./xlsx-read")).loadXlsx(path);
   throw new WorkbookError(`${path}: unsupported file type (use .xlsx or .csv)`);
 }
 
@@ -58,75 +66,6 @@ function describeReading(encoding: TextEncodingName, d: Dialect): string {
 function sheetNameFor(path: string): string {
   const base = path.replace(/^.*[\\/]/, "").replace(/\.[^.]*$/, "");
   return base.replace(/[^A-Za-z0-9 _-]/g, "_").slice(0, 31) || "Sheet1";
-}
-
-async function loadXlsx(path: string): Promise<LoadedWorkbook> {
-  const workbook = new (await loadExcelJs()).Workbook();
-  try {
-    await workbook.xlsx.load((await readFile(path)) as never);
-  } catch (error) {
-    const reason = (error as NodeJS.ErrnoException).code ?? (error as Error).message ?? String(error);
-    throw new WorkbookError(`cannot read ${path} as an .xlsx workbook: ${String(reason).split("\n")[0]}`);
-  }
-  const sheets: Record<string, Contents[][]> = {};
-  workbook.eachSheet((ws) => {
-    const grid: Contents[][] = [];
-    const arrays: { top: number; left: number; bottom: number; right: number }[] = [];
-    ws.eachRow({ includeEmpty: false }, (row, r) => {
-      row.eachCell({ includeEmpty: false }, (cell, c) => {
-        while (grid.length < r) grid.push([]);
-        const line = grid[r - 1];
-        while (line.length < c) line.push(null);
-        line[c - 1] = cellContents(cell);
-        const v = cell.value as { shareType?: string; ref?: string } | null;
-        if (v && typeof v === "object" && v.shareType === "array" && v.ref) arrays.push(decodeRange(v.ref));
-      });
-    });
-    // The other cells of an array formula hold its cached results: the formula refills them.
-    for (const a of arrays) {
-      for (let r = a.top; r <= a.bottom; r++) {
-        for (let c = a.left; c <= a.right; c++) {
-          if ((r !== a.top || c !== a.left) && grid[r - 1] && c - 1 < grid[r - 1].length) grid[r - 1][c - 1] = null;
-        }
-      }
-    }
-    sheets[ws.name] = grid;
-  });
-  if (Object.keys(sheets).length === 0) throw new WorkbookError(`${path} has no worksheets`);
-  return { kind: "xlsx", sheets, source: workbook };
-}
-
-function cellContents(cell: ExcelJS.Cell): Contents {
-  const v = cell.value as unknown;
-  if (v === null || v === undefined) return null;
-  if (typeof v === "number" || typeof v === "boolean") return v;
-  // Text that merely starts with "=" stays text: the engine reads a leading apostrophe as "this is text".
-  if (typeof v === "string") return v.startsWith("=") ? `'${v}` : v;
-  if (v instanceof Date) return excelSerial(v);
-  if (typeof v === "object") {
-    const o = v as Record<string, unknown>;
-    if ("formula" in o || "sharedFormula" in o) return `=${cell.formula}`;
-    if ("richText" in o) return (o.richText as { text: string }[]).map((t) => t.text).join("");
-    if ("text" in o) return String(o.text);
-    if ("error" in o) return String(o.error);
-  }
-  return String(v);
-}
-
-function decodeRange(ref: string): { top: number; left: number; bottom: number; right: number } {
-  const [a, b = a] = ref.replace(/\$/g, "").split(":");
-  const cell = (x: string) => {
-    const m = /^([A-Z]+)(\d+)$/i.exec(x)!;
-    const col = [...m[1].toUpperCase()].reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0);
-    return { row: Number(m[2]), col };
-  };
-  const p = cell(a);
-  const q = cell(b);
-  return { top: Math.min(p.row, q.row), left: Math.min(p.col, q.col), bottom: Math.max(p.row, q.row), right: Math.max(p.col, q.col) };
-}
-
-function excelSerial(d: Date): number {
-  return d.getTime() / 86400000 + 25569;
 }
 
 /**

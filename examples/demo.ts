@@ -6,7 +6,8 @@ import { mkdir } from "node:fs/promises";
 import { dirname } from "node:path";
 import { fileURLToPath } from "node:url";
 import { formatNumber, type Io } from "../cli/cli";
-import { evaluateWorkbook, writeEvaluated } from "../cli/evaluate-workbook";
+import { evaluateWorkbook } from "../cli/evaluate-workbook";
+import { writeEvaluated } from "../cli/write-workbook";
 import { generateMetadata } from "../functions/metadata";
 import { loadWorkbook } from "../cli/workbook-io";
 

@@ -82,6 +82,8 @@ export interface RangeNumbers {
   indices: number[];
   rows: number;
   cols: number;
+  /** Cells skipped as "no specimen" (empty, empty text, zero): counted here so nothing downstream recounts. */
+  blanks: number;
 }
 
 /**
@@ -94,11 +96,15 @@ export function readPositiveNumbers(value: unknown, name: string): RangeNumbers 
   const cols = range[0].length;
   const values: number[] = [];
   const indices: number[] = [];
+  let blanks = 0;
   for (let r = 0; r < rows; r++) {
     if (range[r].length !== cols) throw new CellError("#VALUE!", `${name} must be a rectangular range`);
     for (let c = 0; c < cols; c++) {
       const v = range[r][c];
-      if (isBlank(v)) continue;
+      if (isBlank(v)) {
+        blanks++;
+        continue;
+      }
       if (typeof v !== "number") throw new CellError("#VALUE!", `${describePosition(name, r, c, cols)} is not a number`);
       if (!Number.isFinite(v)) throw new CellError("#VALUE!", `${describePosition(name, r, c, cols)} is too large to represent`);
       if (v < 0) throw new CellError("#VALUE!", `${describePosition(name, r, c, cols)} is negative`);
@@ -106,7 +112,7 @@ export function readPositiveNumbers(value: unknown, name: string): RangeNumbers 
       indices.push(r * cols + c);
     }
   }
-  return { values, indices, rows, cols };
+  return { values, indices, rows, cols, blanks };
 }
 
 /** A range that pairs with another (flags, labels, sizes) must have its rows and columns, else #VALUE!. */
@@ -206,6 +212,35 @@ export function readSample(strengths: unknown, censored: unknown): CellSample {
   }
   if (censored === null || censored === undefined) return { strengths: numbers.values };
   return { strengths: numbers.values, censored: readFlags(censored, "censored", numbers, "strengths") };
+}
+
+/** What a strengths range and its optional flags hold under the blank rule, as the fitting functions read them. */
+export interface SampleCounts {
+  cells: number;
+  /** Specimens read: failures plus censored. */
+  specimens: number;
+  failures: number;
+  censored: number;
+  /** Empty cells, empty text and zeros skipped. */
+  blanks: number;
+}
+
+/**
+ * The counts behind readSample, for "explain the selected cell": the same
+ * readers, so the pane says exactly what a function read. Throws CellError
+ * on what the readers refuse (text, a negative, mismatched ranges).
+ */
+export function readSampleCounts(strengths: unknown, censored: unknown): SampleCounts {
+  const numbers = readPositiveNumbers(strengths, "strengths");
+  const flags = censored === null || censored === undefined ? [] : readFlags(censored, "censored", numbers, "strengths");
+  const censoredCount = flags.filter(Boolean).length;
+  return {
+    cells: numbers.rows * numbers.cols,
+    specimens: numbers.values.length,
+    failures: numbers.values.length - censoredCount,
+    censored: censoredCount,
+    blanks: numbers.blanks,
+  };
 }
 
 /** A required number; hosts coerce typed parameters, so only blanks and odd types arrive here. */

@@ -31,7 +31,7 @@ import {
 import { readEstimator, readMethod } from "./fit-method";
 import { declareSpills } from "./spill-shapes";
 
-const FIT_ROWS = 20;
+const FIT_ROWS = 21;
 
 declareSpills({
   FIT: { rows: FIT_ROWS, cols: 2 },
@@ -80,14 +80,15 @@ function fitTable(summary: FitSummary, methodName: string): CellValue[][] {
     ["standard deviation of strength", summary.standardDeviation],
     ["Anderson-Darling A*", q ? q.aStar : "n/a (censored sample)"],
     ["observed significance level (OSL)", q ? q.osl : "n/a (censored sample)"],
-    ["plot bend check, p", b ? b.pValue : summary.checks.skipped ?? `n/a (fewer than ${BILINEAR_MIN_FAILURES} failures)`],
+    ["plot bend check (different moduli), p", b ? b.pValue : summary.checks.skipped ?? `n/a (fewer than ${BILINEAR_MIN_FAILURES} failures)`],
+    ["mixture check (same modulus), p", "pValue" in summary.mixture ? summary.mixture.pValue : summary.mixture.skipped],
     ["low value check, p", o ? o.pValue : summary.checks.skipped ?? `n/a (fewer than ${LOW_OUTLIER_MIN_FAILURES} failures)`],
     ["verdict", summary.verdict],
     [
       "bounds from",
       summary.boundsSource === "table"
         ? "maximum likelihood, pivotal table (complete sample)"
-        : `maximum likelihood, bootstrap conditional on the censoring (${summary.boundsReplications} draws; approximate)`,
+        : `maximum likelihood, bootstrap of the competing flaw populations (${summary.boundsReplications} draws; approximate)`,
     ],
     ["converged", summary.converged],
   ];
@@ -108,16 +109,17 @@ function fitFromCells(sample: { strengths: number[]; censored?: boolean[] }, con
 /**
  * Labelled two-column fit table for a supplier datasheet: counts, modulus and characteristic strength with
  * two-sided confidence bounds (ASTM C1239 pivotal method on the raw maximum-likelihood fit), mean, median, standard
- * deviation, Anderson-Darling A* and OSL, two single-population checks (plot bend, low value), a verdict in plain
- * words, and whether the fit converged. With two failures the default "MLE" modulus row gives the raw ML modulus
- * and says why (no unbiasing factor exists there: E[m_hat/m] is infinite; the factor is tabulated for N = 3 to 500).
- * Example: =BRITTLE.FIT(B2:B31) spills 20 rows of labels and values.
+ * deviation, Anderson-Darling A* and OSL, three single-population checks (plot bend: two populations of different
+ * moduli; mixture: two of the same modulus; low value), a verdict in plain words, and whether the fit converged.
+ * With two failures the default "MLE" modulus row gives the raw ML modulus and says why (no unbiasing factor exists
+ * there: E[m_hat/m] is infinite; the factor is tabulated for N = 3 to 500).
+ * Example: =BRITTLE.FIT(B2:B31) spills 21 rows of labels and values.
  * @customfunction
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
  * @param [censored] Optional flags, same shape as strengths: TRUE or 1 where the specimen did not fail from the population being fitted.
  * @param [confidence] Two-sided confidence for the bounds, strictly between 0 and 1 (at most 0.99); default 0.90.
  * @param [method] Point estimate: "MLE" (default, unbiased maximum likelihood), "MLE-RAW", "LSQ", "LSQ-MEANRANK" or "LSQ-MEDIANRANK". Bounds always come from maximum likelihood.
- * @returns 20 x 2 table of labels and values.
+ * @returns 21 x 2 table of labels and values.
  */
 export function FIT(strengths: any[][], censored?: any[][], confidence?: number, method?: string): any[][] {
   return fitFromCells(readSample(strengths, censored), confidence, method);
@@ -126,7 +128,7 @@ export function FIT(strengths: any[][], censored?: any[][], confidence?: number,
 /**
  * Fit one flaw population of a sample with mixed fracture origins: specimens whose origin label equals origin are
  * failures, all others are censored at their strength (ASTM C1239 / ISO 20501 competing populations). Returns the
- * same 20-row table as FIT. Example: =BRITTLE.ORIGINFIT(B2:B31, C2:C31, "surface") spills the fit of the surface-flaw
+ * same 21-row table as FIT. Example: =BRITTLE.ORIGINFIT(B2:B31, C2:C31, "surface") spills the fit of the surface-flaw
  * population.
  * @customfunction
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
@@ -134,7 +136,7 @@ export function FIT(strengths: any[][], censored?: any[][], confidence?: number,
  * @param origin The label of the population to fit (case and surrounding spaces ignored).
  * @param [confidence] Two-sided confidence for the bounds, strictly between 0 and 1 (at most 0.99); default 0.90.
  * @param [method] "MLE" (default), "MLE-RAW", "LSQ", "LSQ-MEANRANK" or "LSQ-MEDIANRANK".
- * @returns 20 x 2 table of labels and values.
+ * @returns 21 x 2 table of labels and values.
  */
 export function ORIGINFIT(strengths: any[][], origins: any[][], origin: string, confidence?: number, method?: string): any[][] {
   const numbers = readPositiveNumbers(strengths, "strengths");
@@ -158,7 +160,7 @@ function boundsFromCells(strengths: unknown, censored: unknown, confidence: unkn
 /**
  * Confidence bounds on the Weibull modulus by the pivotal method of ASTM C1239 / ISO 20501: m_hat/q, with q the
  * simulated quantiles of m_hat/m and m_hat the raw maximum-likelihood modulus. Censored samples take the quantiles
- * from a bootstrap conditional on their censoring values (approximate). Example: =BRITTLE.MODULUSBOUNDS(B2:B31)
+ * from a bootstrap of competing flaw populations (approximate). Example: =BRITTLE.MODULUSBOUNDS(B2:B31)
  * spills the labelled lower and upper 90 % two-sided bounds.
  * @customfunction
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.

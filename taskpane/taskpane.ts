@@ -9,15 +9,21 @@ import { adapters } from "../functions/registry";
 import { generalCautions } from "../src/design/check-cautions";
 import type { Caution, DesignCheckResult } from "../src/design/check-result";
 import { runDesignCheck } from "../src/design/design-check";
-import { toCheckDescription } from "./app/description";
 import { DEMO_DESIGN } from "./app/demo-data";
 import { byId, FieldError, showStepError } from "./app/dom";
 import { readSelection, readTableSelection } from "./app/host-selection";
-import type { FormInput } from "./app/inputs";
+import type { CheckDescription } from "../src/design/check-description";
+import { clearBasis, renderBasis } from "./app/render-basis";
 import { renderCautions } from "./app/render-cautions";
 import { renderIncomplete, renderLegend, renderResult } from "./app/render-result";
 import { resultRows, type ResultRow } from "./app/result-table";
+import { explainTypedFormula } from "./explain/explain-call";
+import { FormulaError, parseFormula } from "./explain/formula-parse";
+import { explainSelectedCell } from "./explain/host-explain";
+import { loadMetadata } from "./explain/load-metadata";
+import { renderExplainProblem, renderExplanation } from "./explain/render-explain";
 import { designCheckCsv } from "./export/csv";
+import { openCheckFile, saveCheckFile } from "./export/check-file-ui";
 import { downloadText } from "./export/download";
 import { printReport } from "./export/print";
 import { drawProbabilityPlot } from "./plot/probability-plot";
@@ -29,6 +35,7 @@ import { fillElementTable, PART_FIELDS, readPart, setupPart } from "./steps/part
 import { readRequirement, REQUIREMENT_FIELDS, setupRequirement } from "./steps/requirement";
 import { readSpecimen, setupSpecimen, SPECIMEN_FIELDS } from "./steps/specimen";
 import { setupPlanning } from "./steps/planning";
+import { setupRecordImport } from "./steps/record-import";
 
 registerInHost();
 
@@ -47,13 +54,14 @@ const STEPS: Step[] = [
 
 /** Steps the user has typed in: only those show field errors, so an untouched form is not a wall of red. */
 const touched = new Set<string>();
-let current: { result: DesignCheckResult; rows: ResultRow[]; cautions: Caution[] } | null = null;
+let current: { description: CheckDescription; result: DesignCheckResult; rows: ResultRow[]; cautions: Caution[] } | null = null;
 
 function show(text: string): void {
   byId("status").textContent = text;
 }
 
-function collect(): FormInput | null {
+/** The form as the core's check description, or null (with the first problem shown) while a step is incomplete. */
+function collect(): CheckDescription | null {
   const readers = [readMaterial, readSpecimen, () => ({ part: readPart() }), readRequirement];
   const parts: object[] = [];
   let firstProblem: string | null = null;
@@ -71,21 +79,24 @@ function collect(): FormInput | null {
     renderIncomplete(firstProblem);
     return null;
   }
-  return Object.assign({}, ...parts) as FormInput;
+  const title = byId<HTMLInputElement>("check-title").value.trim();
+  return Object.assign(title ? { title } : {}, ...parts) as CheckDescription;
 }
 
 function update(): void {
   current = null;
   setActions(false);
-  const input = collect();
-  if (!input) {
+  const description = collect();
+  if (!description) {
+    clearBasis();
     renderCautions(generalCautions());
     return;
   }
   let result: DesignCheckResult;
   try {
-    result = runDesignCheck(toCheckDescription(input));
+    result = runDesignCheck(description);
   } catch (error) {
+    clearBasis();
     renderIncomplete(`The check could not be computed: ${error instanceof Error ? error.message : String(error)}.`);
     renderCautions(generalCautions());
     return;
@@ -93,17 +104,18 @@ function update(): void {
   const rows = resultRows(result);
   const cautions = result.cautions;
   renderResult(result, rows);
+  renderBasis(result);
   renderCautions(cautions);
   const data = plotData(result);
   drawProbabilityPlot(byId("plot"), data, result.input.stressUnit);
   renderLegend(data);
   byId("plot-figure").hidden = false;
-  current = { result, rows, cautions };
+  current = { description, result, rows, cautions };
   setActions(true);
 }
 
 function setActions(enabled: boolean): void {
-  for (const id of ["write-sheet", "export-csv", "print-report"]) byId<HTMLButtonElement>(id).disabled = !enabled;
+  for (const id of ["write-sheet", "save-check", "export-csv", "print-report"]) byId<HTMLButtonElement>(id).disabled = !enabled;
 }
 
 let pending: ReturnType<typeof setTimeout> | undefined;
@@ -150,8 +162,61 @@ function wireForm(): void {
   byId("print-report").addEventListener("click", () => {
     if (current) printReport(current.result);
   });
+  byId("save-check").addEventListener("click", () => {
+    if (!current) return;
+    const name = saveCheckFile(current.description);
+    info(`Check saved as ${name}: every input, data included. Reopen it here, or run brittle check ${name}.`);
+  });
+  const open = byId<HTMLInputElement>("open-check");
+  open.addEventListener("change", async () => {
+    const file = open.files?.[0];
+    if (!file) return;
+    const outcome = await openCheckFile(file);
+    // Clear the chooser so the same file can be chosen again after a fix.
+    open.value = "";
+    if (outcome.ok) {
+      for (const step of STEPS) touched.add(step.section);
+      clearTimeout(pending);
+      update();
+      byId("open-info").textContent = `Opened ${outcome.name}.`;
+    } else {
+      byId("open-info").textContent = outcome.message;
+      if (outcome.fieldId) document.getElementById(outcome.fieldId)?.focus();
+    }
+  });
   renderCautions(generalCautions());
   update();
+  wireExplainTyped();
+}
+
+function wireExplainTyped(): void {
+  const output = byId("explain-output");
+  const run = async () => {
+    const text = byId<HTMLInputElement>("explain-formula").value;
+    try {
+      renderExplanation(output, explainTypedFormula(parseFormula(text.trim().startsWith("=") ? text : `=${text}`), await loadMetadata()));
+    } catch (error) {
+      renderExplainProblem(output, error instanceof FormulaError ? error.message : `Could not explain: ${String(error)}`);
+    }
+  };
+  byId("explain-typed").addEventListener("click", () => void run());
+  byId("explain-formula").addEventListener("keydown", (event) => {
+    if (event.key === "Enter") void run();
+  });
+}
+
+function wireExplainSelected(): void {
+  const button = byId<HTMLButtonElement>("explain-selected");
+  button.hidden = false;
+  button.addEventListener("click", async () => {
+    const output = byId("explain-output");
+    try {
+      const metadata = await loadMetadata();
+      renderExplanation(output, await Excel.run((context) => explainSelectedCell(context, metadata)));
+    } catch (error) {
+      renderExplainProblem(output, error instanceof FormulaError ? error.message : `Could not explain the selected cell: ${error instanceof Error ? error.message : String(error)}`);
+    }
+  });
 }
 
 function wireHost(): void {
@@ -200,11 +265,17 @@ function wireHost(): void {
 
 wireForm();
 setupPlanning();
+setupRecordImport((text, description) => {
+  fillStrengths(text, null);
+  byId("selection-info").textContent = description;
+  scheduleUpdate();
+});
 
 if (typeof Office !== "undefined") {
   Office.onReady((hostInfo) => {
     if (hostInfo.host === Office.HostType.Excel) {
       wireHost();
+      wireExplainSelected();
       show("Ready in the spreadsheet: BRITTLE functions are registered.");
     } else {
       show("Standalone: paste data, then export the check as CSV or print it.");

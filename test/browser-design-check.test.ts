@@ -32,6 +32,10 @@ import { expectedFailures, failuresUpperBound } from "../src/design/lot-failures
 import { specimenEffectiveSize } from "../src/size/presets";
 import { partEffectiveSize } from "../src/size/part";
 import { relativeError } from "./helpers";
+import { generateMetadata } from "../functions/metadata";
+import { runDesignCheck } from "../src/design/design-check";
+import { parseCheckFile } from "../src/design/check-file";
+import { writeFile } from "node:fs/promises";
 import { CHROMIUM_ARGS, findChromium } from "./browser-launch";
 import { OFFICE_JS_CDN } from "../scripts/deploy";
 
@@ -67,6 +71,8 @@ beforeAll(async () => {
   profileDir = await mkdtemp(join(tmpdir(), "brittle-profile-"));
   await mkdir(ARTIFACTS, { recursive: true });
   await build({ configFile: join(ROOT, "vite.config.ts"), logLevel: "silent", build: { outDir, emptyOutDir: true } });
+  // The build writes functions.json next to the pane (scripts/build.mjs); the explanation reads it.
+  await writeFile(join(outDir, "functions.json"), (await generateMetadata()).json);
 
   server = createServer((req, res) => {
     const path = decodeURIComponent(new URL(req.url ?? "/", "http://127.0.0.1").pathname);
@@ -201,10 +207,12 @@ describe.skipIf(chromiumFound.executablePath === null)(`design-check form in hea
     else expect(verdict).toMatch(/not a design verdict on its own/);
     expect(verdict).toMatch(governing >= 180 ? /^PASS/ : /^FAIL/);
     expect(relativeError(await rowValue(page, "reserve-factor"), governing / 180)).toBeLessThan(1e-14);
-    // Lot counts on the verdict's basis: the upper-bound failure probability where there is a bound.
-    const pfLot = lowerText ? await rowValue(page, "pf-upper") : pf;
-    expect(relativeError(await rowValue(page, "expected-failures"), expectedFailures({ failureProbability: pfLot, lotSize: 5000 }))).toBeLessThan(1e-14);
-    expect(await rowValue(page, "failures-bound")).toBe(failuresUpperBound({ failureProbability: pfLot, lotSize: 5000, confidence: 0.9 }));
+    // Lot counts rest on the verdict's basis: the one-sided upper bound on the failure probability in service
+    // (the dual of the lower-bound allowable), with the point estimate shown beside it.
+    const pfUpper = await rowValue(page, "pf-upper");
+    expect(pfUpper).toBeGreaterThan(pf);
+    expect(relativeError(await rowValue(page, "expected-failures"), expectedFailures({ failureProbability: pfUpper, lotSize: 5000 }))).toBeLessThan(1e-14);
+    expect(await rowValue(page, "failures-bound")).toBe(failuresUpperBound({ failureProbability: pfUpper, lotSize: 5000, confidence: 0.95 }));
 
     // Each result says what produced it.
     expect(await page.textContent('dd[data-row="modulus"] .basis')).toMatch(/maximum likelihood \(modulus as solved, not unbiased\); 15 specimens/);
@@ -261,6 +269,32 @@ describe.skipIf(chromiumFound.executablePath === null)(`design-check form in hea
   it("links to the function help page", async () => {
     const { page } = await open();
     expect(await page.getAttribute("#help-link", "href")).toBe("./help.html");
+    await page.close();
+  });
+
+  it("imports the invented test-machine record: maps the columns, previews each specimen, fills step 1 with origins as censoring", async () => {
+    const { page, problems } = await open();
+    await page.click("#record-import summary");
+    await page.fill("#record-text", await readFile(join(ROOT, "examples/machine-export-bars.csv"), "utf8"));
+    await page.click("#record-read");
+    // The header's words give the guess; the spans are typed once for the whole record.
+    expect(await page.inputValue("#record-col-load")).toBe("3");
+    expect(await page.inputValue("#record-col-origin")).toBe("4");
+    await page.fill("#record-val-outerSpan", "40");
+    await page.fill("#record-val-innerSpan", "20");
+    await page.waitForFunction(() => !(document.querySelector("#record-use") as HTMLButtonElement).disabled);
+    expect(await page.locator("#record-preview-body tr").count()).toBe(19);
+    expect(await page.textContent("#record-notes")).toMatch(/Row 9 \(VB-X1\) left out: Fmax \[N\] is blank/);
+    await page.selectOption("#record-population", "surface");
+    await page.waitForFunction(() => /Fitting origin "surface"/.test(document.querySelector("#record-notes")?.textContent ?? ""));
+    await page.click("#record-use");
+    const box = await page.inputValue("#strengths");
+    const lines = box.split("\n");
+    expect(lines).toHaveLength(18);
+    expect(lines.filter((l) => l.endsWith("\tC"))).toHaveLength(1); // the one pore origin is censored
+    expect(await page.textContent("#selection-info")).toMatch(/From a test-machine record: 18 strengths, fitting origin "surface"/);
+    await page.screenshot({ path: join(ARTIFACTS, "record-import.png"), fullPage: true });
+    expect(problems).toEqual([]);
     await page.close();
   });
 
@@ -323,7 +357,7 @@ describe.skipIf(chromiumFound.executablePath === null)(`design-check form in hea
     expect(verdict).toMatch(allowable >= 200 ? /^PASS/ : /^FAIL/);
     expect(verdict).toMatch(/not a design verdict on its own/);
     expect(await page.textContent('dd[data-row="allowable-lower"] .value')).toBe("not available");
-    expect(await page.textContent('dd[data-row="allowable-lower"] .basis')).toMatch(/carry no uncertainty/);
+    expect(await page.textContent('dd[data-row="allowable-lower"] .basis')).toMatch(/without the number of specimens carry no uncertainty/);
     expect(await page.textContent("label[for=specimen-size]")).toMatch(/Effective area/);
     const warnings = await page.locator("#caution-list li.warning").allTextContents();
     expect(warnings.some((w) => /parameters were typed/.test(w))).toBe(true);
@@ -415,6 +449,16 @@ describe.skipIf(chromiumFound.executablePath === null)(`design-check form in hea
     expect(await page.isVisible("#print-inputs")).toBe(true);
     expect(await page.isHidden("#check-form")).toBe(true);
     expect(await page.textContent("#print-footer")).toMatch(/Printed .* UTC/);
+    expect(await page.textContent("#print-footer")).toMatch(/licensed engineer/);
+    // A report a reviewer can sign: identification fields left to fill, every specimen, the methods, the basis, signatures.
+    const ident = (await page.locator("#print-ident dt").allTextContents()).join("|");
+    for (const label of ["Part and drawing", "Material and supplier", "Lot or batch", "Revision", "Author", "Checker", "Date printed"]) expect(ident).toContain(label);
+    expect(await page.isVisible("#print-appendix")).toBe(true);
+    expect(await page.locator(".print-specimens tbody tr").count()).toBe(STRENGTHS.length);
+    expect((await page.locator("#print-methods li").allTextContents()).join(" ")).toMatch(/ASTM C1239.*ASTM C1683/s);
+    expect(await page.isVisible("#basis-list")).toBe(true);
+    expect(await page.isVisible("#step-explain")).toBe(false);
+    expect(await page.isVisible("#check-file")).toBe(false);
     await page.screenshot({ path: join(ARTIFACTS, "browser-design-check-print.png"), fullPage: true });
     const pdf = await page.pdf({ format: "A4" });
     expect(pdf.subarray(0, 5).toString()).toBe("%PDF-");
@@ -470,6 +514,256 @@ describe.skipIf(chromiumFound.executablePath === null)(`design-check form in hea
       // WCAG 2.1 success criterion 1.4.3: at least 4.5:1 for normal text.
       expect((a + 0.05) / (b + 0.05), sel).toBeGreaterThanOrEqual(4.5);
     }
+    await page.close();
+  });
+});
+
+describe("explaining a BRITTLE formula in the pane", () => {
+  it("shows the full message behind an error, and what a fit read", async () => {
+    const { page, problems } = await open();
+    expect(await page.isHidden("#explain-selected")).toBe(true);
+    await page.fill("#explain-formula", "=BRITTLE.DESIGNSTRESS(1.5, 10, 400)");
+    await page.click("#explain-typed");
+    await page.waitForSelector("#explain-result");
+    // The host would show a bare code for some errors; here the message is in full (domain: survival in (0, 1), common practice).
+    const error = (await page.textContent("#explain-result")) ?? "";
+    expect(error).toMatch(/^#VALUE! .*survival.*between 0 and 1/);
+    expect(await page.textContent('dd[data-argument="sizeRatio"]')).toMatch(/omitted: the default applies/);
+
+    // Invented strengths as an array constant: a zero is skipped, one specimen is flagged censored (counted by hand).
+    await page.fill("#explain-formula", '=BRITTLE.CHARSTRENGTH({412.5;0;398.1;455},{FALSE;FALSE;TRUE;FALSE},"MLE-RAW")');
+    await page.click("#explain-typed");
+    await page.waitForFunction(() => document.querySelector("#explain-result")?.getAttribute("data-value"));
+    const counts = page.locator('dd[data-argument="strengths"] .explain-counts');
+    expect(await counts.getAttribute("data-specimens")).toBe("3");
+    expect(await counts.getAttribute("data-censored")).toBe("1");
+    expect(await counts.getAttribute("data-blanks")).toBe("1");
+    expect(await counts.textContent()).toBe("3 specimens read (2 failures and 1 censored); 1 blank or zero cell skipped, of 4");
+    // Reference: the 2-failure, 1-censored ML scale solved by the core; checked against the fitting core the cell uses.
+    const fit = estimateWeibull({ strengths: [412.5, 398.1, 455], censored: [false, true, false] }, "MLE-RAW");
+    expect(relativeError(Number(await page.getAttribute("#explain-result", "data-value")), fit.scale)).toBeLessThan(1e-14);
+
+    // A reference cannot be read without the spreadsheet: say what to type instead; pasted markup stays text.
+    await page.fill("#explain-formula", "=BRITTLE.MODULUS(A1:A10, <b>x</b>)");
+    await page.click("#explain-typed");
+    await page.waitForFunction(() => /Not re-evaluated/.test(document.querySelector("#explain-result")?.textContent ?? ""));
+    expect(await page.textContent("#explain-result")).toMatch(/array constant such as \{412,398,455\}/);
+    expect(await page.locator("#explain-output b").count()).toBe(0);
+    await page.fill("#explain-formula", "=SUM(A1:A3)");
+    await page.click("#explain-typed");
+    await page.waitForSelector(".explain-problem");
+    expect(await page.textContent(".explain-problem")).toBe("The selected cell's formula has no BRITTLE function.");
+
+    await page.fill("#explain-formula", '=BRITTLE.FIT({412.5;398.1;455;430.2;377.9;441.7;405.3;468.4;421;389.6},,0.9)');
+    await page.click("#explain-typed");
+    await page.waitForSelector("table.explain-table");
+    await page.locator("#step-explain").screenshot({ path: join(ARTIFACTS, "browser-explain-formula.png") });
+    expect(problems).toEqual([]);
+    await page.close();
+  });
+});
+
+describe("the design check's guards, basis and saved file in the pane", () => {
+  it("asks before checking against a survival below 50 %, and never shows a probability as 100 % or 0 %", async () => {
+    const { page, problems } = await open();
+    await page.fill("#strengths", STRENGTHS.join("\n"));
+    // 0.0001 typed where the survival 0.9999 was meant (the case reported in the issue).
+    await fillDesign(page, { specimen: "12.5", part: "800", applied: "120", survival: "0.0001" });
+    await page.waitForFunction(() => (document.querySelector("#requirement-error")?.textContent ?? "") !== "");
+    expect(await page.isVisible("#low-survival")).toBe(true);
+    expect(await page.textContent("#requirement-error")).toMatch(/survival of 0\.0001 means 99\.99 % of parts may fail.*type the survival 0\.9999/);
+    expect(await page.getAttribute("#verdict", "data-verdict")).toBeNull();
+    await page.locator("#step-requirement").screenshot({ path: join(ARTIFACTS, "browser-guard-low-survival.png") });
+
+    await page.check("#confirm-low-survival");
+    await waitForVerdict(page);
+    // The allowed failure probability 1 - 0.0001 keeps its digits (it read "100 %" before).
+    expect(await page.textContent('dd[data-row="target-pf"] .value')).toBe("99.99 %");
+
+    await page.fill("#survival", "0.9999");
+    await page.waitForFunction(() => document.querySelector('dd[data-row="target-pf"] .value')?.textContent?.startsWith("1.0e-4"));
+    expect(await page.isHidden("#low-survival")).toBe(true);
+    for (const text of await page.locator("#result-list .value").allTextContents()) {
+      expect(text).not.toMatch(/(^|[^.\d])(100|0) %/);
+    }
+    expect(problems).toEqual([]);
+    await page.close();
+  });
+
+  it("fixes the size unit to millimetres while a configuration defines the size", async () => {
+    const { page } = await open();
+    await page.selectOption("#size-unit", "in^3");
+    await page.check('input[name="specimen-source"][value="preset"]');
+    expect(await page.isDisabled("#size-unit")).toBe(true);
+    expect(await page.inputValue("#size-unit")).toBe("mm^3");
+    await page.check('input[name="flaws"][value="surface"]');
+    expect(await page.inputValue("#size-unit")).toBe("mm^2");
+    await page.check('input[name="specimen-source"][value="bar"]');
+    expect(await page.isDisabled("#size-unit")).toBe(true);
+    await page.check('input[name="specimen-source"][value="typed"]');
+    expect(await page.isDisabled("#size-unit")).toBe(false);
+    expect(await page.locator("#size-unit option").evaluateAll((o) => o.map((x) => (x as HTMLOptionElement).value))).toEqual(["mm^2", "cm^2", "m^2", "in^2"]);
+    await page.close();
+  });
+
+  it("shows the governing check, the reserve factor and margin of safety, the basis, and a band that meets the lower-bound marker", async () => {
+    const { page, problems } = await open();
+    await page.fill("#strengths", STRENGTHS.join("\n"));
+    await page.selectOption("#method", "MLE-RAW");
+    await fillDesign(page, { specimen: "12.5", part: "800", applied: "180" });
+    const verdict = await waitForVerdict(page);
+    const lower = await rowValue(page, "allowable-lower");
+    const reserve = await rowValue(page, "reserve-factor");
+    // Definitions from the issue: reserve factor = allowable / applied, margin of safety = reserve factor - 1.
+    expect(relativeError(reserve, lower / 180)).toBeLessThan(1e-14);
+    expect(relativeError(await rowValue(page, "margin-of-safety"), reserve - 1)).toBeLessThan(1e-12);
+    expect(relativeError(await rowValue(page, "highest-passing"), lower)).toBeLessThan(1e-14);
+    expect(await page.textContent("#label-reserve-factor")).toMatch(/Reserve factor/);
+    expect(await page.textContent("#label-margin-of-safety")).toMatch(/Margin of safety/);
+    expect(await page.textContent('dd[data-row="governing"] .value')).toMatch(/inert/i);
+    expect(verdict).toMatch(reserve >= 1 ? /^PASS/ : /^FAIL/);
+    // Every confidence on the page carries its sidedness.
+    const basis = await page.locator("#basis-list li").allTextContents();
+    expect(basis.length).toBeGreaterThan(2);
+    expect(basis.join(" ")).toMatch(/95 % one-sided/);
+    const legend = (await page.textContent("#plot-legend")) ?? "";
+    expect(legend).toMatch(/90 % two-sided/);
+    expect(legend).toMatch(/95 % one-sided/);
+
+    // The band's lower edge passes through the lower-bound marker on the drawn plot (within 0.05 px).
+    const marker = await page.getAttribute("svg.probability-plot .design-point-lower", "transform");
+    const [mx, my] = (marker ?? "").match(/-?\d+(\.\d+)?(e-?\d+)?/g)!.map(Number);
+    const band = (await page.getAttribute("svg.probability-plot .band", "d")) ?? "";
+    const numbers = (band.match(/-?\d+(\.\d+)?(e-?\d+)?/g) ?? []).map(Number);
+    let nearest = Infinity;
+    for (let i = 0; i + 1 < numbers.length; i += 2) nearest = Math.min(nearest, Math.hypot(numbers[i] - mx, numbers[i + 1] - my));
+    expect(nearest).toBeLessThan(0.05);
+    await page.locator("#step-result").screenshot({ path: join(ARTIFACTS, "browser-verdict-basis.png") });
+    await page.locator("#verdict").screenshot({ path: join(ARTIFACTS, "browser-verdict-line.png") });
+    await page.locator("#basis").screenshot({ path: join(ARTIFACTS, "browser-verdict-basis-lines.png") });
+    expect(problems).toEqual([]);
+    await page.close();
+  });
+
+  it("shows lower bounds from datasheet values when the number of specimens is typed", async () => {
+    const { page } = await open();
+    await page.check('input[name="material-source"][value="typed"]');
+    await page.fill("#typed-modulus", "10");
+    await page.fill("#typed-scale", "400");
+    await fillDesign(page, { specimen: "10", part: "500", applied: "150" });
+    await waitForVerdict(page);
+    expect(await page.textContent('dd[data-row="allowable-lower"] .value')).toBe("not available");
+    await page.fill("#typed-specimens", "30");
+    await page.waitForFunction(() => document.querySelector('dd[data-row="allowable-lower"]')?.getAttribute("data-value") !== "");
+    const lower = await rowValue(page, "allowable-lower");
+    const point = await rowValue(page, "allowable-point");
+    // A lower confidence bound lies below the point estimate it bounds.
+    expect(lower).toBeLessThan(point);
+    expect(await page.textContent('dd[data-row="allowable-lower"] .basis')).toMatch(/30/);
+    await page.close();
+  });
+
+  it("saves the check as a file, reopens it with the same verdict, and refuses a bad file without losing the form", async () => {
+    const { page, problems } = await open();
+    await page.fill("#check-title", "Bracket B-12 (invented)");
+    await page.fill("#strengths", STRENGTHS.join("\n"));
+    await page.selectOption("#method", "MLE-RAW");
+    await fillDesign(page, { specimen: "12.5", part: "800", applied: "150" });
+    await page.check("#use-lifetime");
+    await page.fill("#lifetime", "20000");
+    await page.selectOption("#time-unit", "h");
+    await page.fill("#scg-n", "30");
+    await page.fill("#scg-b", "50");
+    expect(await page.textContent("#b-unit")).toBe("MPa² h");
+    await page.check("#use-proof");
+    await page.fill("#proof-stress", "200");
+    const verdict = await waitForVerdict(page);
+    const ids = await page.locator("#result-list dd[data-row]").evaluateAll((d) => d.map((x) => x.getAttribute("data-row")!));
+    const values = await page.locator("#result-list dd[data-row]").evaluateAll((d) => d.map((x) => x.getAttribute("data-value")));
+
+    const [download] = await Promise.all([page.waitForEvent("download"), page.click("#save-check")]);
+    expect(download.suggestedFilename()).toBe("bracket-b-12-invented.check.json");
+    const saved = join(ARTIFACTS, "browser-saved.check.json");
+    await download.saveAs(saved);
+    const file = JSON.parse(await readFile(saved, "utf8"));
+    expect(file.format).toBe("brittle-design-check");
+    expect(file.title).toBe("Bracket B-12 (invented)");
+    expect(file.material.strengths).toEqual(STRENGTHS);
+    expect(file.confidence).toEqual({ level: 0.95, sides: "one-sided" });
+    expect(file.lifetime).toMatchObject({ lifetime: 20000, timeUnit: "h", n: 30, B: 50, bUnit: "MPa^2 h" });
+    expect(file.proof).toEqual({ proofStress: 200 });
+    // The saved file alone gives the pane's verdict headless (the core `brittle check` runs).
+    expect(runDesignCheck(parseCheckFile(await readFile(saved, "utf8"))).verdict.text).toBe(verdict);
+
+    const second = await open();
+    await second.page.setInputFiles("#open-check", saved);
+    const reopened = await waitForVerdict(second.page);
+    expect(reopened).toBe(verdict);
+    expect(await second.page.inputValue("#check-title")).toBe("Bracket B-12 (invented)");
+    expect(await second.page.inputValue("#time-unit")).toBe("h");
+    expect(await second.page.isChecked("#use-proof")).toBe(true);
+    expect(await second.page.locator("#result-list dd[data-row]").evaluateAll((d) => d.map((x) => x.getAttribute("data-row")!))).toEqual(ids);
+    expect(await second.page.locator("#result-list dd[data-row]").evaluateAll((d) => d.map((x) => x.getAttribute("data-value")))).toEqual(values);
+    expect(await second.page.textContent("#open-info")).toMatch(/Opened browser-saved\.check\.json/);
+
+    // Hostile files: each is refused with the field named, and the form keeps what it had.
+    const before = await second.page.inputValue("#strengths");
+    for (const [name, message, guards] of [
+      // A semicolon CSV with decimal commas renamed .check.json: must not half-fill the form.
+      ["pane-not-json.check.json", /not a JSON file/, "a non-JSON file replacing the form"],
+      // A standard configuration (sizes in mm) with the part in in^3: must not relabel mm^3 as in^3 (issue 11).
+      ["pane-preset-in-inches.check.json", /in\^3/, "a preset's mm sizes read in another unit"],
+      // Another program's JSON: must be named as not a design-check file.
+      ["pane-wrong-format.check.json", /format/, "a foreign JSON file read as a check"],
+    ] as const) {
+      await second.page.setInputFiles("#open-check", join(ROOT, "test/fixtures/hostile", name));
+      await second.page.waitForFunction((n) => document.querySelector("#open-info")?.textContent?.includes(n), name);
+      expect(await second.page.textContent("#open-info"), `${name}: ${guards}`).toMatch(message);
+      expect(await second.page.textContent("#open-info"), name).toMatch(/The form is unchanged/);
+      expect(await second.page.inputValue("#strengths"), name).toBe(before);
+      expect(await second.page.inputValue("#check-title"), name).toBe("Bracket B-12 (invented)");
+      expect(await second.page.textContent("#verdict"), name).toBe(verdict);
+    }
+    await second.page.screenshot({ path: join(ARTIFACTS, "browser-reopened-check.png"), fullPage: true });
+    expect(problems).toEqual([]);
+    expect(second.problems).toEqual([]);
+    await page.close();
+    await second.page.close();
+  });
+
+  it("opens each shipped example check and gives the verdict brittle check gives", async () => {
+    const { page, problems } = await open();
+    for (const name of ["check-pass.check.json", "check-fail.check.json", "check-lifetime-proof.check.json"]) {
+      const path = join(ROOT, "examples", name);
+      // Reference: the core run headless on the same file, as `brittle check` runs it.
+      const headless = runDesignCheck(parseCheckFile(await readFile(path, "utf8")));
+      await page.setInputFiles("#open-check", path);
+      await page.waitForFunction((n) => document.querySelector("#open-info")?.textContent === `Opened ${n}.`, name);
+      const verdict = await waitForVerdict(page);
+      expect(verdict.slice(0, 4), name).toBe(headless.verdict.pass ? "PASS" : "FAIL");
+      // B quoted per second in a file whose life is in years is converted to the form's one time unit: equal to rounding.
+      expect(relativeError(await rowValue(page, "reserve-factor"), headless.reserveFactor.value), name).toBeLessThan(1e-9);
+    }
+    expect(await page.inputValue("#time-unit")).toBe("years");
+    expect(await page.textContent("#b-unit")).toBe("MPa² years");
+    expect(problems).toEqual([]);
+    await page.close();
+  });
+
+  it("says so when the censored specimens include the weakest, with the verdict without censoring beside it", async () => {
+    const { page } = await open();
+    // The two weakest of the invented strengths (377.9 and 389.6) flagged censored.
+    const lines = STRENGTHS.map((x) => (x === 377.9 || x === 389.6 ? `${x}\tc` : String(x)));
+    await page.fill("#strengths", lines.join("\n"));
+    await page.selectOption("#method", "MLE-RAW");
+    await fillDesign(page, { specimen: "12.5", part: "800", applied: "150" });
+    await waitForVerdict(page);
+    await page.waitForSelector("#censoring-note:not([hidden])");
+    const note = (await page.textContent("#censoring-note")) ?? "";
+    expect(note).toMatch(/include some of the weakest \(ranks 1, 2 of 15/);
+    expect(note).toMatch(/Counting every specimen as a failure: modulus .*, (PASS|FAIL)/);
+    await page.fill("#strengths", STRENGTHS.join("\n"));
+    await page.waitForSelector("#censoring-note[hidden]", { state: "attached" });
     await page.close();
   });
 });

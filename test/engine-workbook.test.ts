@@ -98,7 +98,10 @@ describe("brittle calc", () => {
     const grid = JSON.parse(io.stdout).bend;
     expect(grid[0]).toEqual(["Strength", "Result"]);
     expect(relativeError(grid[1][1], data.ml.shapeFloat)).toBeLessThan(1e-12);
-    expect(grid[2][1]).toBe("#ERROR!"); // a semicolon list separator is a parse error, shown as such
+    // A semicolon list separator is a parse error: the engine's own #ERROR! is shown as the standard #VALUE!
+    // (ECMA-376 Part 1, 18.17.2.6 lists the error values a file may hold), its message on stderr.
+    expect(grid[2][1]).toBe("#VALUE!");
+    expect(io.stderr).toMatch(/bend!B3: #VALUE!: the formula cannot be read \(engine: #ERROR! Parsing error/);
   });
 
   it("--out writes formulas with values, never over the input, and refuses an existing file without --force", async () => {

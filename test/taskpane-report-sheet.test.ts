@@ -231,6 +231,11 @@ describe("writing the design check through the spreadsheet API (office-addin-moc
     // The cautions are on the sheet, warnings marked.
     for (const c of result.cautions) expect(text).toContain(c.text);
     expect(text).toContain("Warning");
+    // Below the live part: the verdict's basis lines, the methods, and the identification and sign-off fields to fill.
+    for (const b of result.basis) expect(text).toContain(b.text);
+    expect(text).toContain("Identification and sign-off");
+    for (const label of ["Part and drawing", "Lot or batch", "Revision", "Author", "Checker", "Checked by (name, signature, date)"]) expect(text).toContain(label);
+    expect(text.some((t) => /ASTM C1683/.test(t))).toBe(true);
     // Text written as values never starts a formula.
     for (const { mock } of state.ranges) {
       if (mock.values) for (const v of mock.values.flat()) if (typeof v === "string") expect(v).not.toMatch(/^[=+\-@]/);

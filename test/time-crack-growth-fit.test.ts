@@ -14,7 +14,7 @@ import { studentQuantile, studentUpperTail } from "../src/numeric/student-t";
 import fixture from "./fixtures/crack_growth.json";
 import { relativeError } from "./helpers";
 
-function expectInputError(fn: () => unknown, kind: "num" | "value"): void {
+function expectInputError(fn: () => unknown, kind: "input" | "notApplicable"): void {
   try {
     fn();
   } catch (e) {
@@ -41,9 +41,9 @@ describe("Student t quantile", () => {
   });
 
   it("rejects probabilities outside [0.5, 1) and non-positive degrees of freedom", () => {
-    expectInputError(() => studentQuantile(1, 5), "num");
-    expectInputError(() => studentQuantile(0.4, 5), "num");
-    expectInputError(() => studentQuantile(0.9, 0), "num");
+    expectInputError(() => studentQuantile(1, 5), "input");
+    expectInputError(() => studentQuantile(0.4, 5), "input");
+    expectInputError(() => studentQuantile(0.9, 0), "input");
   });
 });
 
@@ -97,17 +97,17 @@ describe("constant stress-rate fit (ASTM C1368)", () => {
   });
 
   it("rejects bad data", () => {
-    expectInputError(() => fitStressRate({ stressRates: [1, 10], strengths: [100, 110, 120] }), "value");
-    expectInputError(() => fitStressRate({ stressRates: [1, 10], strengths: [100, 110] }), "num");
-    expectInputError(() => fitStressRate({ stressRates: [1, 0, 100], strengths: [100, 110, 120] }), "num");
-    expectInputError(() => fitStressRate({ stressRates: [1, -10, 100], strengths: [100, 110, 120] }), "num");
-    expectInputError(() => fitStressRate({ stressRates: [1, 10, 100], strengths: [100, NaN, 120] }), "num");
-    expectInputError(() => fitStressRate({ stressRates: [5, 5, 5], strengths: [100, 110, 120] }), "num");
+    expectInputError(() => fitStressRate({ stressRates: [1, 10], strengths: [100, 110, 120] }), "input");
+    expectInputError(() => fitStressRate({ stressRates: [1, 10], strengths: [100, 110] }), "input");
+    expectInputError(() => fitStressRate({ stressRates: [1, 0, 100], strengths: [100, 110, 120] }), "input");
+    expectInputError(() => fitStressRate({ stressRates: [1, -10, 100], strengths: [100, 110, 120] }), "input");
+    expectInputError(() => fitStressRate({ stressRates: [1, 10, 100], strengths: [100, NaN, 120] }), "input");
+    expectInputError(() => fitStressRate({ stressRates: [5, 5, 5], strengths: [100, 110, 120] }), "input");
     // Strength falling with rate: no slow crack growth to fit.
-    expectInputError(() => fitStressRate({ stressRates: [1, 10, 100], strengths: [120, 110, 100] }), "num");
+    expectInputError(() => fitStressRate({ stressRates: [1, 10, 100], strengths: [120, 110, 100] }), "input");
     expectInputError(
       () => fitStressRate({ stressRates: [1, 10, 100], strengths: [100, 110, 120], confidence: 1 }),
-      "num",
+      "input",
     );
   });
 });
@@ -134,8 +134,8 @@ describe("static fatigue fit (ASTM C1576)", () => {
   }
 
   it("rejects lifetimes that do not fall with stress, and non-positive times", () => {
-    expectInputError(() => fitStaticFatigue({ stresses: [50, 60, 70], lifetimes: [10, 100, 1000] }), "num");
-    expectInputError(() => fitStaticFatigue({ stresses: [50, 60, 70], lifetimes: [1000, 0, 10] }), "num");
-    expectInputError(() => fitStaticFatigue({ stresses: [50, 60], lifetimes: [1000, 100, 10] }), "value");
+    expectInputError(() => fitStaticFatigue({ stresses: [50, 60, 70], lifetimes: [10, 100, 1000] }), "input");
+    expectInputError(() => fitStaticFatigue({ stresses: [50, 60, 70], lifetimes: [1000, 0, 10] }), "input");
+    expectInputError(() => fitStaticFatigue({ stresses: [50, 60], lifetimes: [1000, 100, 10] }), "input");
   });
 });

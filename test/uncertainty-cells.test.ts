@@ -18,10 +18,10 @@ beforeAll(async () => {
 });
 
 describe("FIT", () => {
-  it("is a 20 x 2 labelled table whose values agree with the single-purpose functions", () => {
+  it("is a 21 x 2 labelled table whose values agree with the single-purpose functions", () => {
     const s = column(data.strengths);
     const t = guarded.FIT(s) as unknown[][];
-    expect(t).toHaveLength(20);
+    expect(t).toHaveLength(21);
     expect(t.every((row) => row.length === 2 && typeof row[0] === "string")).toBe(true);
     const value = (label: RegExp) => t.find((row) => label.test(row[0] as string))![1];
     expect(value(/^specimens$/)).toBe(30);
@@ -113,7 +113,7 @@ describe("in the embedded engine", () => {
   it("spills FIT, the bounds, FITQUALITY and LOTCHECK, and computes DESIGNSTRESSBOUND", () => {
     const { grids } = evaluate([
       "=BRITTLE.FIT(A1:A30)",
-      ...Array(19).fill(null),
+      ...Array(20).fill(null),
       "=BRITTLE.MODULUSBOUNDS(A1:A30)",
       null,
       "=brittle.charstrengthbounds(A1:A30, B1:B30, 0.95)",
@@ -131,15 +131,15 @@ describe("in the embedded engine", () => {
     const g = grids.S;
     const block = (r: number, rows: number) => g.slice(r, r + rows).map((row) => [row[3], row[4]]);
     const fit = guarded.FIT(column(data.strengths)) as unknown[][];
-    expect(block(0, 20)).toEqual(fit);
-    expect(block(20, 2)).toEqual(guarded.MODULUSBOUNDS(column(data.strengths)));
+    expect(block(0, 21)).toEqual(fit);
+    expect(block(21, 2)).toEqual(guarded.MODULUSBOUNDS(column(data.strengths)));
     const censored = data.strengths.map((_: number, i: number) => [i % 7 === 3 ? true : null]);
-    expect(block(22, 2)).toEqual(guarded.CHARSTRENGTHBOUNDS(column(data.strengths), censored, 0.95));
-    expect(block(24, 2)).toEqual(guarded.FITQUALITY(column(data.strengths)));
-    expect(g[28][4]).toMatch(/baseline/);
-    expect(g[29][3]).toBe(guarded.DESIGNSTRESSBOUND(0.9999, column(data.strengths), null, 0.95, 25));
-    expect(g[30][3]).toBe("#VALUE!");
-    expect(g[32][3]).toBe("#N/A");
+    expect(block(23, 2)).toEqual(guarded.CHARSTRENGTHBOUNDS(column(data.strengths), censored, 0.95));
+    expect(block(25, 2)).toEqual(guarded.FITQUALITY(column(data.strengths)));
+    expect(g[29][4]).toMatch(/baseline/);
+    expect(g[30][3]).toBe(guarded.DESIGNSTRESSBOUND(0.9999, column(data.strengths), null, 0.95, 25));
+    expect(g[31][3]).toBe("#VALUE!");
+    expect(g[33][3]).toBe("#N/A");
   });
 
   it("spills PLOTPOINTS over one row per cell of the strengths range, blank rows last", () => {

@@ -7,11 +7,14 @@ import { isCellFailure, type CellResult } from "../functions/cells";
 import { guarded } from "../functions/registry";
 import { competingDesignStress, competingFailureProbability, populationSample } from "../src/weibull/competing-populations";
 import { meanStrength, strengthStandardDeviation } from "../src/weibull/distribution";
-import { compareLots } from "../src/weibull/lot-comparison";
+import { compareLots, lotPValue } from "../src/weibull/lot-comparison";
 import { logOnePlusSquaredCv, modulusFromCoefficientOfVariation } from "../src/weibull/modulus-from-cv";
+import { SeededRandom } from "../src/numeric/random";
 import { fixture, relativeError } from "./helpers";
 
 const ref = fixture("uncertainty.json");
+const edges = fixture("competing_edges.json");
+const lotTails = fixture("lot_pvalue.json");
 const fits = fixture("weibull_fits.json").datasets;
 const column = (xs: readonly unknown[]) => xs.map((x) => [x]);
 const code = (r: CellResult) => (isCellFailure(r) ? r.cellError : r);
@@ -53,6 +56,45 @@ describe("competing flaw populations", () => {
     expect(() => populationSample({ strengths: [1, 2], origins: ["a", "b"], population: " " })).toThrow(/name the flaw population/);
   });
 
+  describe("design stress where the solve's bracket ends are the root", () => {
+    // Identical populations put the root on the lower end of the bracket, a negligible population on
+    // the upper end; the residual there is rounding noise (this returned "did not converge").
+    it("=BRITTLE.COMPETINGDESIGNSTRESS(0.999,10,400,10,400) is 400 (-ln 0.999 / 2)^(1/10)", () => {
+      // source: closed form (two identical populations double the hazard of one), common practice
+      const expected = 400 * Math.pow(-Math.log(0.999) / 2, 1 / 10);
+      expect(relativeError(guarded.COMPETINGDESIGNSTRESS(0.999, 10, 400, 10, 400) as number, expected)).toBeLessThan(1e-14);
+    });
+
+    for (const c of edges.cases) {
+      it(`${c.label}: equals the 50-digit root`, () => {
+        // source: mpmath 1.3 at 50 digits via test/fixtures/generate_competing_edges.py
+        expect(relativeError(competingDesignStress({ survival: c.survival, populations: c.populations }), c.designStress)).toBeLessThan(1e-13);
+      });
+    }
+
+    it("converges on 4000 seeded pairs built to sit on the bracket's ends, hazard within a few ulp of ln s", () => {
+      // Each case is its own check: the total hazard at the returned stress equals -ln S (common practice:
+      // the defining equation, evaluated in the opposite direction to the solve).
+      const random = new SeededRandom(20261202);
+      let worst = 0;
+      for (let i = 0; i < 4000; i++) {
+        const mA = 0.5 + 60 * random.uniform();
+        const thA = Math.exp(-8 + 24 * random.uniform());
+        const kind = i % 4;
+        const mB = kind === 0 ? mA : kind === 1 ? mA * (1 + 1e-12 * random.uniform()) : 0.5 + 60 * random.uniform();
+        const thB = kind === 0 ? thA : kind === 1 ? thA * (1 + 1e-12 * random.uniform()) : thA * Math.exp((kind === 2 ? 1 : -1) * 40 * random.uniform());
+        const survival = 1 - Math.exp(-30 * random.uniform());
+        const populations = [{ shape: mA, scale: thA }, { shape: mB, scale: thB }];
+        const s = competingDesignStress({ survival, populations });
+        const hazard = Math.pow(s / thA, mA) + Math.pow(s / thB, mB);
+        // The solve stops at 4 ulp of ln s; the hazard carries m |ln s| times that relative error.
+        const scale = Math.max(mA, mB) * Math.max(1, Math.abs(Math.log(s))) * Number.EPSILON;
+        worst = Math.max(worst, relativeError(hazard, -Math.log(survival)) / scale);
+      }
+      expect(worst).toBeLessThan(16);
+    });
+  });
+
   it("one population alone reduces to the two-parameter Weibull quantile", () => {
     const s = competingDesignStress({ survival: 0.9999, populations: [{ shape: 10, scale: 400, sizeRatio: 25 }] });
     expect(relativeError(s, guarded.DESIGNSTRESS(0.9999, 10, 400, 25) as number)).toBeLessThan(1e-13);
@@ -65,7 +107,7 @@ describe("lot check", () => {
       const r = compareLots({ lot: c.lot, baseline: c.baseline });
       expect(relativeError(r.statistic, c.statistic)).toBeLessThan(1e-8);
       expect(relativeError(r.chiSquarePValue, c.chiSquareP)).toBeLessThan(1e-10); // scipy.stats.chi2.sf(LR, 2)
-      // Two Monte Carlo p-values (ours: 4000 replications, numpy: 100000): 4 combined standard errors.
+      // Two Monte Carlo p-values (ours: 40,000 replications, numpy: 100000): 4 combined standard errors.
       const se = Math.sqrt(Math.max(c.monteCarloP * (1 - c.monteCarloP), 1e-4) * (1 / r.replications + 1 / c.replications));
       expect(Math.abs(r.pValue - c.monteCarloP)).toBeLessThan(4 * se + 1 / r.replications);
       const cells = guarded.LOTCHECK(column(c.lot), column(c.baseline)) as unknown[][];
@@ -75,6 +117,23 @@ describe("lot check", () => {
       expect(cells[2][1]).toMatch(r.differs ? /^The lot differs/ : /^Consistent with the baseline/);
     });
   }
+
+  for (const c of lotTails.cases) {
+    it(`lot of ${c.lot} against a baseline of ${c.baseline}, statistic ${c.statistic}: p-value within 3 standard errors of 400,000 numpy draws`, () => {
+      // source: numpy 2.4 via test/fixtures/generate_lot_pvalue.py (400,000 draws); ours 40,000, so 3 combined SEs.
+      const r = lotPValue({ lotSpecimens: c.lot, baselineSpecimens: c.baseline, statistic: c.statistic });
+      expect(r.replications).toBeGreaterThanOrEqual(40000);
+      const se = Math.sqrt(c.pValue * (1 - c.pValue) * (1 / r.replications + 1 / c.replications));
+      expect(Math.abs(r.pValue - c.pValue)).toBeLessThan(3 * se);
+      expect(relativeError(r.pValueStandardError, Math.sqrt((r.pValue * (1 - r.pValue)) / r.replications))).toBeLessThan(1e-12);
+    });
+  }
+
+  it("the verdict states the p-value with its Monte Carlo standard error", () => {
+    const byId = Object.fromEntries(ref.lotCheck.map((c: any) => [c.id, c]));
+    const r = compareLots({ lot: byId.same.lot, baseline: byId.same.baseline });
+    expect(r.verdict).toMatch(/p = 0\.\d+ \+- 0\.\d+ by simulation/);
+  });
 
   it("flags the weaker lot and passes the lot from the same distribution", () => {
     const byId = Object.fromEntries(ref.lotCheck.map((c: any) => [c.id, c]));

@@ -249,3 +249,52 @@ export function strengthsFromRecord({ configuration, headers, rows, columns, fix
   });
   return { specimens, conversions };
 }
+
+/**
+ * The sample the fit takes from a record: the specimens with a strength,
+ * those whose fracture origin is `population` (case and spaces ignored) as
+ * failures and every other one censored at its strength, as competing flaw
+ * populations require (ASTM C1239 sec. 7; the same rule as ORIGINFIT). With
+ * no population named, every specimen is a failure.
+ * @example recordSample({ specimens, population: "surface" }).censored // [false, true, ...]
+ */
+export function recordSample({ specimens, population }: { specimens: readonly RecordSpecimen[]; population?: string }): {
+  strengths: number[];
+  censored?: boolean[];
+  ids: string[];
+} {
+  const used = specimens.filter((s) => s.strength !== null);
+  const strengths = used.map((s) => s.strength!);
+  const ids = used.map((s) => s.id);
+  if (population === undefined || population.trim() === "") return { strengths, ids };
+  const wanted = population.trim().toLowerCase();
+  const missing = used.filter((s) => s.origin === undefined).map((s) => s.id);
+  if (missing.length > 0) {
+    throw new InputError("input", `no fracture origin for ${missing.slice(0, 5).join(", ")}${missing.length > 5 ? ` and ${missing.length - 5} more` : ""}: every specimen needs one to fit one population`);
+  }
+  const censored = used.map((s) => s.origin!.trim().toLowerCase() !== wanted);
+  if (censored.every((c) => c)) throw new InputError("input", `no specimen broke from "${population}"`);
+  return { strengths, censored, ids };
+}
+
+/** The fracture origins named in a record, in the order they first appear. */
+export function recordOrigins(specimens: readonly RecordSpecimen[]): string[] {
+  const seen = new Map<string, string>();
+  for (const s of specimens) {
+    if (s.strength === null || s.origin === undefined) continue;
+    const key = s.origin.trim().toLowerCase();
+    if (!seen.has(key)) seen.set(key, s.origin.trim());
+  }
+  return [...seen.values()];
+}
+
+/** Strengths by lot, in the order lots first appear; specimens without a strength or a lot are left out. */
+export function recordLots(specimens: readonly RecordSpecimen[]): { lot: string; strengths: number[] }[] {
+  const lots = new Map<string, number[]>();
+  for (const s of specimens) {
+    if (s.strength === null || s.lot === undefined) continue;
+    if (!lots.has(s.lot)) lots.set(s.lot, []);
+    lots.get(s.lot)!.push(s.strength);
+  }
+  return [...lots].map(([lot, strengths]) => ({ lot, strengths }));
+}

@@ -315,7 +315,7 @@ export function evenFieldCounts(records: TextRecord[]): { records: TextRecord[];
 export function fieldCountMessage(p: FieldCountProblem, dialect: Dialect, firstLine: number): string {
   const hint =
     dialect.delimiter === "," && p.found > p.expected
-      ? " (a shifted column? or decimal commas splitting numbers in two: then use semicolons between fields, or --decimal-comma)"
+      ? " (a shifted column? or decimal commas splitting numbers in two: then use semicolons or tabs between fields; a one-column file also reads with --decimal-comma)"
       : "";
   return `line ${p.line} has ${p.found} field${p.found === 1 ? "" : "s"}, but line ${firstLine} has ${p.expected} (delimiter: ${delimiterName(dialect.delimiter)})${hint}`;
 }

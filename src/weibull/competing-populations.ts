@@ -93,14 +93,27 @@ export function competingDesignStress({ survival, populations }: { survival: num
   // Stress at which one population alone reaches `hazard`: th exp((ln H - ln k)/m), in logs.
   const alone = (hazard: number) =>
     Math.min(...populations.map((p) => p.scale * Math.exp((Math.log(hazard) - Math.log(p.sizeRatio ?? 1)) / p.shape)));
-  // Each population alone reaching the whole hazard bounds the root above; each reaching 1/J of it bounds it below.
+  // Each population alone reaching the whole hazard bounds the root above; each reaching 1/J of it
+  // bounds it below. Either end can be the root itself (identical populations put it at the lower
+  // end, a population with a negligible share of the risk at the upper end), and then the residual
+  // there is rounding noise of either sign: the bracket is widened a little in ln s (the residual
+  // grows at least as fast as the smallest modulus times the widening) until the signs differ.
   const hi = alone(target);
   const lo = alone(target / populations.length);
   ensurePositiveResult(hi, "design stress");
   ensurePositiveResult(lo, "design stress");
   if (hi === lo) return hi;
   const logTarget = Math.log(target);
-  const result = findRoot((u) => Math.log(totalHazard(Math.exp(u), populations)) - logTarget, Math.log(lo), Math.log(hi));
+  const residual = (u: number) => Math.log(totalHazard(Math.exp(u), populations)) - logTarget;
+  let uLo = Math.log(lo);
+  let uHi = Math.log(hi);
+  let widen = 64 * Number.EPSILON * Math.max(1, Math.abs(uLo), Math.abs(uHi));
+  for (let i = 0; i < 60 && !(residual(uLo) < 0 && residual(uHi) > 0); i++) {
+    if (!(residual(uLo) < 0)) uLo -= widen;
+    if (!(residual(uHi) > 0)) uHi += widen;
+    widen *= 2;
+  }
+  const result = findRoot(residual, uLo, uHi);
   ensureConverged(result.converged, "the design stress solve did not converge");
   return Math.exp(result.root);
 }

@@ -15,13 +15,14 @@
  * The bounds use the raw ML modulus, not the unbiased one, whatever method
  * gave the point estimate. Complete samples take q and t quantiles from the
  * seeded table (pivotal-table.ts): exact, as q and t are exactly pivotal.
- * Censored samples (competing flaw populations) take them from the parametric
- * bootstrap conditional on the sample's own censoring values
+ * Censored samples (competing flaw populations) take them from a parametric
+ * bootstrap of the competing-population experiment at the fitted values
  * (censored-bootstrap.ts, the draws that also give its unbiasing factor):
  * q_b = m_b/m_hat and t_b = m_b ln(th_b/th_hat) stand in for q and t. There q
- * and t are only approximately pivotal (their law depends on where the
- * censoring values sit), so censored bounds are approximate; the bootstrap is
- * seeded by the data, so a recalculation never changes the result.
+ * and t are only approximately pivotal (their law depends on the censoring
+ * population), so censored bounds are approximate (their coverage is
+ * measured: test/fixtures/censored_coverage.json); the bootstrap is seeded
+ * by the data, so a recalculation never changes the result.
  */
 import { ensure, ensureConverged, ensurePositiveResult, ensureProbability } from "../errors";
 import { bootstrapCensored } from "./censored-bootstrap";
@@ -82,8 +83,8 @@ const sortedDraws = new WeakMap<object, { q: Float64Array; t: Float64Array }>();
 
 /**
  * Where the q and t quantiles of this sample come from: the table for a
- * complete sample, the conditional bootstrap (at the ML fit `fit`) for a
- * censored one.
+ * complete sample, the competing-population bootstrap (at the ML fit `fit`)
+ * for a censored one.
  */
 export function pivotalSource(sample: StrengthSample, fit?: MaximumLikelihoodFit): PivotalSource {
   const n = sample.strengths.length;

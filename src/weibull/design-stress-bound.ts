@@ -15,7 +15,7 @@
  *
  * u needs the joint law of q and t. Complete samples read u_C from a seeded
  * table (quantile-pivot-table.ts). Censored samples take it from the
- * conditional bootstrap of their censoring (censored-bootstrap.ts), the same
+ * competing-population bootstrap (censored-bootstrap.ts), the same
  * draws as their modulus and strength bounds: each replication gives
  * u_b = t_b + w (1 - q_b) = m_b ln(x_b / x_hat), the bootstrap counterpart
  * of u; the bound is then approximate, as for the parameter bounds.

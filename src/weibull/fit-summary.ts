@@ -9,7 +9,11 @@
  * - mean, median and standard deviation of strength implied by the point
  *   estimates;
  * - the modified Anderson-Darling A* and its OSL (complete samples only);
- * - the two single-population checks: plot bend and low outlier.
+ * - three single-population checks, each aimed at one departure: a bend in
+ *   the probability plot (two populations of different moduli), a
+ *   same-modulus mixture likelihood ratio (two populations of one modulus
+ *   and different characteristic strengths; complete samples) and a low
+ *   outlier.
  *
  * With two failures the default unbiased ML modulus does not exist (E[m_hat/m]
  * is infinite at N = 2), so the summary gives the raw ML modulus and says so
@@ -26,6 +30,8 @@ import { estimateWeibull, type EstimationMethod } from "./estimate";
 import type { PlottingEstimator } from "./plotting-positions";
 import type { StrengthSample } from "./sample";
 import { singlePopulationChecks, type PopulationChecks } from "./single-population-checks";
+import { mixtureCheck, MIXTURE_MIN_SPECIMENS, type MixtureCheck } from "./mixture-check";
+import { SIMULATION_MAX_SPECIMENS } from "./simulation-limits";
 import { pValueText, roundForText } from "./verdict-text";
 
 export const FLAG_LEVEL = 0.05;
@@ -51,6 +57,8 @@ export interface FitSummary {
   /** null for a censored sample (the A* test is defined for complete samples). */
   quality: FitQuality | null;
   checks: PopulationChecks;
+  /** Same-modulus mixture check; null with a reason when it does not apply. */
+  mixture: MixtureCheck | { skipped: string };
   converged: boolean;
   verdict: string;
 }
@@ -70,6 +78,7 @@ export function summarizeFit({
   const params = { shape: estimate.shape, scale: estimate.scale };
   const quality = isCensored(sample) ? null : fitQuality(sample);
   const checks = singlePopulationChecks(sample);
+  const mixture = mixtureFor(sample);
   const converged = estimate.converged && bounds.fit.converged;
   return {
     specimens: estimate.specimens,
@@ -90,12 +99,26 @@ export function summarizeFit({
     standardDeviation: strengthStandardDeviation(params),
     quality,
     checks,
+    mixture,
     converged,
-    verdict: verdictText(quality, checks, converged),
+    verdict: verdictText(quality, checks, converged, mixture),
   };
 }
 
-export function verdictText(quality: FitQuality | null, checks: PopulationChecks, converged: boolean): string {
+function mixtureFor(sample: StrengthSample): MixtureCheck | { skipped: string } {
+  const n = sample.strengths.length;
+  if (isCensored(sample)) return { skipped: "n/a (censored sample)" };
+  if (n < MIXTURE_MIN_SPECIMENS) return { skipped: `n/a (fewer than ${MIXTURE_MIN_SPECIMENS} specimens)` };
+  if (n > SIMULATION_MAX_SPECIMENS) return { skipped: `n/a (simulated only up to ${SIMULATION_MAX_SPECIMENS} specimens)` };
+  return mixtureCheck(sample.strengths);
+}
+
+export function verdictText(
+  quality: FitQuality | null,
+  checks: PopulationChecks,
+  converged: boolean,
+  mixture: MixtureCheck | { skipped: string } = { skipped: "not run" },
+): string {
   const findings: string[] = [];
   if (!converged) findings.push("The fit did not converge: treat every number here as unreliable.");
   if (quality && quality.osl <= FLAG_LEVEL) {
@@ -106,23 +129,33 @@ export function verdictText(quality: FitQuality | null, checks: PopulationChecks
   const b = checks.bilinear;
   if (b && b.pValue <= FLAG_LEVEL) {
     findings.push(
-      `The probability plot bends near ${roundForText(b.knotStrength)} (${pValueText(b.pValue)}; slopes about ` +
-        `m = ${roundForText(b.lowerModulus)} below, ${roundForText(b.upperModulus)} above): look for two flaw populations ` +
-        "by fractography (ASTM C1322) and fit each with the others censored.",
+      `The probability plot bends near ${roundForText(b.knotStrength)} (${pValueText(b.pValue, b.pValueStandardError)}; slopes about ` +
+        `m = ${roundForText(b.lowerModulus)} below, ${roundForText(b.upperModulus)} above), as two flaw populations of ` +
+        "different moduli would make it: look for them by fractography (ASTM C1322) and fit each with the others censored.",
+    );
+  }
+  const x = "pValue" in mixture ? mixture : null;
+  if (x && x.pValue <= FLAG_LEVEL) {
+    findings.push(
+      `Two populations of the same modulus fit better than one (mixture check, ${pValueText(x.pValue, x.pValueStandardError)}; ` +
+        `about ${Math.round(100 * x.weakerShare)} % at characteristic strength ${roundForText(x.weakerScale)}, the rest at ` +
+        `${roundForText(x.strongerScale)}, m about ${roundForText(x.shape)}): look for two kinds of fracture origin by ` +
+        "fractography (ASTM C1322) and fit each with the others censored.",
     );
   }
   const o = checks.lowOutlier;
   if (o && o.pValue <= FLAG_LEVEL) {
     findings.push(
-      `The lowest strength, ${roundForText(o.strength)}, is unusually low for this distribution (${pValueText(o.pValue)}): ` +
+      `The lowest strength, ${roundForText(o.strength)}, is unusually low for this distribution (${pValueText(o.pValue, o.pValueStandardError)}): ` +
         "find its fracture origin; do not drop it without a physical reason.",
     );
   }
   if (findings.length > 0) return findings.join(" ");
   const passed: string[] = [];
   if (quality) passed.push(`OSL = ${roundForText(quality.osl)}`);
-  if (b) passed.push(`plot bend ${pValueText(b.pValue)}`);
-  if (o) passed.push(`low value ${pValueText(o.pValue)}`);
+  if (b) passed.push(`plot bend ${pValueText(b.pValue, b.pValueStandardError)}`);
+  if (x) passed.push(`mixture ${pValueText(x.pValue, x.pValueStandardError)}`);
+  if (o) passed.push(`low value ${pValueText(o.pValue, o.pValueStandardError)}`);
   const untested = checks.skipped
     ? " The single-population checks are simulated and were not run for a sample this large."
     : !b || !o

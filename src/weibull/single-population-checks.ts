@@ -2,7 +2,8 @@
  * Two checks that a sample holds one flaw population:
  *
  * - a bend in the probability plot (bilinear-check.ts: weighted segmented
- *   regression);
+ *   regression), which detects two populations of different moduli, not
+ *   two of the same modulus (mixture-check.ts, run by fit-summary.ts);
  * - an outlying lowest strength (low-outlier-check.ts: Grubbs-type statistic
  *   on ln s).
  *
@@ -32,12 +33,14 @@ import { SIMULATION_MAX_SPECIMENS } from "./simulation-limits";
 import { plottingPositions, rankToProbability, type PlotPoint } from "./plotting-positions";
 import { checkSample, type StrengthSample } from "./sample";
 
-/** Monte Carlo p-values to about +-0.003 at p = 0.05. */
+/** Monte Carlo p-values to about +-0.0035 at p = 0.05 (one standard error, reported with each p-value). */
 export const CHECK_REPLICATIONS = 4000;
 const SALT = 0x5eed0c4e;
 
 export interface BilinearCheck {
   pValue: number;
+  /** Binomial standard error of pValue from the finite simulation. */
+  pValueStandardError: number;
   statistic: number;
   /** Failure strength at the knot of the best two-segment fit. */
   knotStrength: number;
@@ -47,6 +50,8 @@ export interface BilinearCheck {
 
 export interface LowOutlierCheck {
   pValue: number;
+  /** Binomial standard error of pValue from the finite simulation. */
+  pValueStandardError: number;
   statistic: number;
   /** The lowest failure strength. */
   strength: number;
@@ -116,16 +121,29 @@ export function singlePopulationChecks(sample: StrengthSample): PopulationChecks
   let bilinear: BilinearCheck | null = null;
   if (observed.bilinear && failures >= BILINEAR_MIN_FAILURES) {
     const b = observed.bilinear;
+    const pValue = upperTailP(reference.bilinear, b.statistic);
     bilinear = {
-      pValue: upperTailP(reference.bilinear, b.statistic),
+      pValue,
+      pValueStandardError: monteCarloError(pValue, reference.bilinear.length),
       statistic: b.statistic,
       knotStrength: points[Math.max(b.knot, 0)].strength,
       lowerModulus: b.lowerModulus,
       upperModulus: b.upperModulus,
     };
   }
-  const lowOutlier = { pValue: upperTailP(reference.lowOutlier, observed.lowOutlier), statistic: observed.lowOutlier, strength: points[0].strength };
+  const lowP = upperTailP(reference.lowOutlier, observed.lowOutlier);
+  const lowOutlier = {
+    pValue: lowP,
+    pValueStandardError: monteCarloError(lowP, reference.lowOutlier.length),
+    statistic: observed.lowOutlier,
+    strength: points[0].strength,
+  };
   return { bilinear, lowOutlier, replications: reference.lowOutlier.length, reference: anyCensored ? "bootstrap" : "exact" };
+}
+
+/** Binomial standard error of a Monte Carlo p-value from `replications` draws. */
+function monteCarloError(p: number, replications: number): number {
+  return Math.sqrt((p * (1 - p)) / replications);
 }
 
 /** Monte Carlo p-value of `observed` against ascending simulated values. */

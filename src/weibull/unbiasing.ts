@@ -14,7 +14,7 @@
  * beyond the table we use the fitted asymptotic form 1 - a/N - b/N^2.
  *
  * A censored sample has no table: its factor comes from a seeded bootstrap
- * conditional on its own censoring values (see censored-bootstrap.ts).
+ * of the competing flaw populations fitted to it (see censored-bootstrap.ts).
  */
 import { ensure, ensureApplicable } from "../errors";
 import { bootstrapCensored } from "./censored-bootstrap";
@@ -36,9 +36,9 @@ export function censoredReplications(n: number): number {
 }
 
 /**
- * For a censored sample, 1/E[q_b] from the conditional parametric bootstrap
+ * For a censored sample, 1/E[q_b] from the competing-population bootstrap
  * (censored-bootstrap.ts): the factor that removes the bias of the ML modulus
- * under this sample's own censoring.
+ * under censoring like this sample's.
  */
 export function censoredUnbiasingFactor(strengths: readonly number[], censored: readonly boolean[]): number {
   const failures = censored.filter((c) => !c).length;

@@ -10,7 +10,16 @@ export function roundForText(x: number): string {
   return String(Number(x.toPrecision(3)));
 }
 
-/** "p = 0.012"; below 0.001 "p < 0.001" (a Monte Carlo p-value of a few thousand draws resolves no finer). */
-export function pValueText(p: number): string {
-  return p < 0.001 ? "p < 0.001" : `p = ${Number(p.toPrecision(2))}`;
+/**
+ * "p = 0.012"; below 0.001 "p < 0.001" (a Monte Carlo p-value of a few
+ * thousand draws resolves no finer). With the simulation's standard error:
+ * "p = 0.0063 +- 0.0004" (one significant figure of error, the p-value to
+ * the same decimal place), and "p < 0.001" only when 0.001 is more than two
+ * standard errors away.
+ */
+export function pValueText(p: number, standardError?: number): string {
+  if (standardError === undefined || !(standardError > 0)) return p < 0.001 ? "p < 0.001" : `p = ${Number(p.toPrecision(2))}`;
+  if (p + 2 * standardError < 0.001) return "p < 0.001";
+  const decimals = Math.max(0, -Math.floor(Math.log10(standardError)));
+  return `p = ${p.toFixed(decimals)} +- ${standardError.toFixed(decimals)}`;
 }

@@ -5,7 +5,7 @@
  * taken; the addresses go to the report sheet so its formulas refer to the
  * data where they are.
  */
-import type { DataSource } from "./inputs";
+import type { DataSource } from "../../src/design/check-description";
 
 export interface Selection {
   text: string;

@@ -12,8 +12,9 @@
 import type { DesignCheckResult } from "../../src/design/check-result";
 import type { Caution } from "../../src/design/check-result";
 import { formatPercent } from "../app/format";
-import { METHOD_LABELS } from "../app/inputs";
+import { METHOD_LABELS } from "../../src/design/check-description";
 import { weibullY } from "../plot/plot-data";
+import { reportContent } from "../export/report-content";
 import { absolute, absoluteRange, rangeAddress } from "./a1";
 
 export type Cell = string | number | boolean;
@@ -313,6 +314,23 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
   put(row++, A, [["Cautions"]], "heading");
   for (const c of options.cautions) {
     put(row++, A, [[c.level === "warning" ? "Warning" : "Note", c.text]], c.level === "warning" ? "warning" : "text");
+  }
+
+  // ---- For the review: what the verdict rests on, the methods, and the fields a reviewer fills ----
+  // The same content as the printed report (export/report-content.ts), below the live part of the sheet.
+  const report = reportContent(result, options.written);
+  row++;
+  put(row++, A, [["What the verdict rests on (when written)"]], "heading");
+  for (const b of report.basis) put(row++, A, [[safeText(b.topic), safeText(b.text)]], "text");
+  row++;
+  put(row++, A, [["Methods and references"]], "heading");
+  for (const m of report.methods) put(row++, A, [[safeText(m)]], "text");
+  row++;
+  put(row++, A, [["Identification and sign-off", "Fill in"]], "heading");
+  for (const f of [...report.identification, ...report.signatures.map((label) => ({ label, value: "" }))]) {
+    put(row, A, [[f.label]], "label");
+    put(row, B, [[safeText(f.value)]], "input");
+    row++;
   }
 
   const chart = planChart(result, refs, blocks, strengths, flags, stressUnit, fns.has("PLOTPOINTS"));

@@ -4,7 +4,8 @@
  * (pasted, or the selected range in a spreadsheet).
  */
 import { byId, FieldError, radioValue, requiredNumber } from "../app/dom";
-import type { PartInput, TableSource } from "../app/inputs";
+import type { PartDescription, TableSource } from "../../src/design/check-description";
+import { setRadio } from "./fill";
 import { readElementTable, TableError } from "../app/parse-table";
 
 export const PART_FIELDS = ["part-size", "element-table"];
@@ -28,7 +29,7 @@ export function fillElementTable(text: string, source: (TableSource & { kind: "r
   fromRange = source ? { text, source } : null;
 }
 
-export function readPart(): PartInput {
+export function readPart(): PartDescription {
   if (radioValue("part-source") === "table") {
     const text = byId<HTMLTextAreaElement>("element-table").value;
     const note = byId("element-table-note");
@@ -45,4 +46,14 @@ export function readPart(): PartInput {
   }
   const word = radioValue("flaws") === "surface" ? "area" : "volume";
   return { kind: "typed", effectiveSize: requiredNumber("part-size", `part's effective ${word}`, { positive: true }) };
+}
+
+/** Put a saved check's part into the form (reopening a check file). */
+export function fillPart(part: PartDescription): void {
+  setRadio("part-source", part.kind);
+  if (part.kind === "typed") {
+    byId<HTMLInputElement>("part-size").value = String(part.effectiveSize);
+  } else {
+    fillElementTable(part.stresses.map((row, i) => [...row, part.sizes[i]].join("\t")).join("\n"), null);
+  }
 }

@@ -1,0 +1,283 @@
+/**
+ * "Import a test-machine record": a pasted or opened table with a header (id,
+ * breaking load, dimensions, fracture origin, lot) turned into strengths for
+ * step 1. The columns are mapped once (a guess from the header is offered,
+ * and the mapping is remembered for the next record with the same header);
+ * the core reads the units from the header and computes every strength
+ * (src/design/test-record.ts); the fracture origins choose the flaw
+ * population to fit (the others are censored) and the lots are compared with
+ * the rest of the record. This file only gathers, asks the core and presents.
+ */
+import {
+  guessColumns,
+  type Label,
+  QUANTITIES,
+  type Quantity,
+  type RecordSpecimen,
+  recordLots,
+  recordOrigins,
+  recordSample,
+  strengthsFromRecord,
+  type TestConfiguration,
+} from "../../src/design/test-record";
+import { InputError } from "../../src/errors";
+import { delimiterName } from "../../src/input/delimited-text";
+import { decodeText } from "../../src/input/encoding";
+import { fieldNumber, readDelimited } from "../../src/input/read-table";
+import { compareLots } from "../../src/weibull/lot-comparison";
+import { byId, el } from "../app/dom";
+
+export interface RecordTable {
+  headers: string[];
+  rows: (string | number | null)[][];
+  /** How the text was read, in words ("semicolon-delimited, decimal comma"). */
+  dialect: string;
+}
+
+/** Reads the record's text through the shared reader (encoding, delimiter and decimal mark as for every other input). */
+export function readRecordTable(text: string, decimalComma: boolean): RecordTable {
+  const table = readDelimited(text, decimalComma ? { decimalMark: "comma" } : {});
+  const records = table.records.filter((r) => r.fields.length > 0);
+  if (records.length < 2) throw new InputError("input", "the record needs a header line and at least one specimen");
+  const [header, ...data] = records;
+  const mark = table.dialect.decimalMark;
+  const rows = data.map((r) =>
+    r.fields.map((f, k) => {
+      const t = f.text.trim();
+      if (t === "") return null;
+      const n = f.quoted ? null : fieldNumber(t, mark, r.line, k + 1);
+      return n === null ? t : n;
+    }),
+  );
+  const d = table.dialect;
+  const dialect = `${delimiterName(d.delimiter)}-delimited text (${d.basis.delimiter}), decimal ${d.decimalMark ?? "point"} (${d.basis.decimalMark})`;
+  return { headers: header.fields.map((f) => f.text.trim()), rows, dialect };
+}
+
+export interface ImportRequest {
+  table: RecordTable;
+  configuration: TestConfiguration;
+  columns: Partial<Record<Quantity | Label, number>>;
+  fixed: Partial<Record<Quantity, number>>;
+  /** The fracture origin to fit; blank: every specimen is a failure. */
+  population: string;
+}
+
+export interface ImportAnswer {
+  specimens: RecordSpecimen[];
+  /** Lines for the strengths box: strength, and "C" where a specimen is censored. */
+  pasteText: string;
+  origins: string[];
+  /** Each lot against the rest of the record. */
+  lots: { lot: string; specimens: number; text: string }[];
+  notes: string[];
+}
+
+/** Everything the panel shows for one request (pure: tested without a browser). */
+export function importAnswer(request: ImportRequest): ImportAnswer {
+  const { specimens, conversions } = strengthsFromRecord({
+    configuration: request.configuration,
+    headers: request.table.headers,
+    rows: request.table.rows,
+    columns: request.columns,
+    fixed: request.fixed,
+  });
+  const sample = recordSample({ specimens, population: request.population });
+  const pasteText = sample.strengths.map((s, i) => (sample.censored?.[i] ? `${s}\tC` : String(s))).join("\n");
+  const problems = specimens.filter((s) => s.strength === null);
+  const notes = [
+    `Read as ${request.table.dialect}; ${conversions.join("; ")}.`,
+    `${sample.strengths.length} of ${specimens.length} specimens have a strength (MPa).`,
+    ...problems.map((s) => `Row ${s.row} (${s.id}) left out: ${s.problem}.`),
+  ];
+  if (sample.censored) {
+    const failures = sample.censored.filter((c) => !c).length;
+    notes.push(`Fitting origin "${request.population}": ${failures} failures; the other ${sample.censored.length - failures} specimens are censored at their strength.`);
+  }
+  const lots = recordLots(specimens);
+  const lotLines =
+    lots.length < 2
+      ? []
+      : lots.map(({ lot, strengths }) => {
+          const rest = lots.filter((l) => l.lot !== lot).flatMap((l) => l.strengths);
+          try {
+            const c = compareLots({ lot: strengths, baseline: rest });
+            return { lot, specimens: strengths.length, text: c.verdict };
+          } catch (error) {
+            if (!(error instanceof InputError)) throw error;
+            return { lot, specimens: strengths.length, text: `no comparison: ${error.message}` };
+          }
+        });
+  return { specimens, pasteText, origins: recordOrigins(specimens), lots: lotLines, notes };
+}
+
+const QUANTITY_NAMES: Record<Quantity, string> = {
+  load: "Breaking load",
+  outerSpan: "Outer (support) span",
+  innerSpan: "Inner (load) span, 0 for three-point",
+  width: "Width",
+  depth: "Depth",
+  diameter: "Diameter",
+  loadDiameter: "Load ring diameter",
+  pistonDiameter: "Piston diameter",
+  supportDiameter: "Support diameter",
+  diskDiameter: "Disk diameter",
+  thickness: "Thickness",
+  poisson: "Poisson's ratio",
+};
+const LABELS: Label[] = ["id", "origin", "lot"];
+const STORE = "brittle.record-columns";
+
+let table: RecordTable | null = null;
+let answer: ImportAnswer | null = null;
+
+function configuration(): TestConfiguration {
+  return byId<HTMLSelectElement>("record-config").value as TestConfiguration;
+}
+
+function headerKey(t: RecordTable, config: TestConfiguration): string {
+  return `${config}|${t.headers.join("\u241f")}`;
+}
+
+function remembered(t: RecordTable, config: TestConfiguration): Partial<Record<Quantity | Label, number>> | null {
+  try {
+    const all = JSON.parse(localStorage.getItem(STORE) ?? "{}") as Record<string, Partial<Record<Quantity | Label, number>>>;
+    return all[headerKey(t, config)] ?? null;
+  } catch {
+    return null;
+  }
+}
+
+function remember(t: RecordTable, config: TestConfiguration, columns: Partial<Record<Quantity | Label, number>>): void {
+  try {
+    const all = JSON.parse(localStorage.getItem(STORE) ?? "{}") as Record<string, unknown>;
+    all[headerKey(t, config)] = columns;
+    localStorage.setItem(STORE, JSON.stringify(all));
+  } catch {
+    // Storage may be unavailable (private windows): the mapping is then asked again next time.
+  }
+}
+
+/** One row of the mapping form per quantity: a column of the record, or one value typed for all. */
+function renderMapping(t: RecordTable, config: TestConfiguration): void {
+  const columns = remembered(t, config) ?? guessColumns(t.headers, config);
+  const rows: Node[] = [];
+  const options = (selected: number | undefined, typed: boolean) => [
+    ...(typed ? [el("option", { text: "one value for all", attrs: { value: "" } })] : [el("option", { text: "(none)", attrs: { value: "" } })]),
+    ...t.headers.map((h, i) => {
+      const o = el("option", { text: h, attrs: { value: String(i) } });
+      if (selected === i) o.selected = true;
+      return o;
+    }),
+  ];
+  for (const q of QUANTITIES[config]) {
+    const select = el("select", { attrs: { id: `record-col-${q}`, "data-quantity": q } }, options(columns[q], true));
+    const value = el("input", { attrs: { id: `record-val-${q}`, type: "text", inputmode: "decimal", autocomplete: "off", "aria-label": `${QUANTITY_NAMES[q]}, one value for all` } });
+    rows.push(el("div", { className: "record-map-row" }, [el("label", { text: QUANTITY_NAMES[q], attrs: { for: `record-col-${q}` } }), select, value]));
+  }
+  for (const l of LABELS) {
+    const select = el("select", { attrs: { id: `record-col-${l}`, "data-label": l } }, options(columns[l], false));
+    rows.push(el("div", { className: "record-map-row" }, [el("label", { text: l === "id" ? "Specimen id" : l === "origin" ? "Fracture origin" : "Lot", attrs: { for: `record-col-${l}` } }), select]));
+  }
+  byId("record-mapping").replaceChildren(...rows);
+}
+
+function readMapping(config: TestConfiguration): { columns: Partial<Record<Quantity | Label, number>>; fixed: Partial<Record<Quantity, number>> } {
+  const columns: Partial<Record<Quantity | Label, number>> = {};
+  const fixed: Partial<Record<Quantity, number>> = {};
+  for (const what of [...QUANTITIES[config], ...LABELS]) {
+    const v = byId<HTMLSelectElement>(`record-col-${what}`).value;
+    if (v !== "") columns[what] = Number(v);
+  }
+  for (const q of QUANTITIES[config]) {
+    if (columns[q] !== undefined) continue;
+    const text = byId<HTMLInputElement>(`record-val-${q}`).value.trim().replace(",", ".");
+    if (text !== "") fixed[q] = Number(text);
+  }
+  return { columns, fixed };
+}
+
+function show(message: string): void {
+  byId("record-error").textContent = message;
+}
+
+function render(a: ImportAnswer | null): void {
+  byId("record-notes").replaceChildren(...(a?.notes ?? []).map((n) => el("li", { text: n })));
+  byId("record-preview-body").replaceChildren(
+    ...(a?.specimens ?? []).map((s) =>
+      el("tr", {}, [
+        el("td", { text: s.id }),
+        el("td", { text: s.strength === null ? "-" : s.strength.toFixed(1) }),
+        el("td", { text: s.origin ?? "" }),
+        el("td", { text: s.lot ?? "" }),
+        el("td", { text: s.problem ?? "" }),
+      ]),
+    ),
+  );
+  byId("record-preview").hidden = !a;
+  byId("record-lots").replaceChildren(...(a?.lots ?? []).map((l) => el("li", { text: `Lot ${l.lot} (${l.specimens} specimens) against the rest: ${l.text}` })));
+  const population = byId<HTMLSelectElement>("record-population");
+  const current = population.value;
+  population.replaceChildren(
+    el("option", { text: "all specimens (one population)", attrs: { value: "" } }),
+    ...(a?.origins ?? []).map((o) => el("option", { text: o, attrs: { value: o } })),
+  );
+  population.value = a?.origins.includes(current) ? current : "";
+  byId<HTMLButtonElement>("record-use").disabled = !a;
+}
+
+function update(): void {
+  answer = null;
+  if (!table) return render(null);
+  const config = configuration();
+  try {
+    const { columns, fixed } = readMapping(config);
+    answer = importAnswer({ table, configuration: config, columns, fixed, population: byId<HTMLSelectElement>("record-population").value });
+    remember(table, config, columns);
+    show("");
+  } catch (error) {
+    if (!(error instanceof InputError)) throw error;
+    show(error.message.charAt(0).toUpperCase() + error.message.slice(1) + ".");
+  }
+  render(answer);
+}
+
+function load(text: string): void {
+  try {
+    table = readRecordTable(text, byId<HTMLInputElement>("decimal-comma").checked);
+    renderMapping(table, configuration());
+    show("");
+  } catch (error) {
+    if (!(error instanceof InputError)) throw error;
+    table = null;
+    byId("record-mapping").replaceChildren();
+    show(error.message.charAt(0).toUpperCase() + error.message.slice(1) + ".");
+  }
+  update();
+}
+
+/** Wires the panel; `use` receives the strengths text for step 1. */
+export function setupRecordImport(use: (text: string, description: string) => void): void {
+  byId("record-read").addEventListener("click", () => load(byId<HTMLTextAreaElement>("record-text").value));
+  byId<HTMLInputElement>("record-file").addEventListener("change", async (event) => {
+    const file = (event.target as HTMLInputElement).files?.[0];
+    if (!file) return;
+    // Bytes, not text: the shared reader detects UTF-16 and a byte-order mark as for the command line.
+    const { text } = decodeText(new Uint8Array(await file.arrayBuffer()));
+    byId<HTMLTextAreaElement>("record-text").value = text;
+    load(text);
+  });
+  byId("record-config").addEventListener("change", () => {
+    if (table) renderMapping(table, configuration());
+    update();
+  });
+  byId("record-mapping").addEventListener("change", update);
+  byId("record-mapping").addEventListener("input", update);
+  byId("record-population").addEventListener("change", update);
+  byId("record-use").addEventListener("click", () => {
+    if (!answer) return;
+    const population = byId<HTMLSelectElement>("record-population").value;
+    use(answer.pasteText, `From a test-machine record: ${answer.specimens.filter((s) => s.strength !== null).length} strengths${population ? `, fitting origin "${population}"` : ""}.`);
+  });
+  render(null);
+}
