@@ -7,7 +7,7 @@
  * test (the core is the reference for the form: the form must show exactly
  * what the core computes; the core itself is tested against mpmath/scipy
  * fixtures elsewhere). The design stress is also checked against the closed
- * form sigma_theta (-ln S / k)^(1/m) (METHODS.md section 1).
+ * form sigma_theta (-ln S / k)^(1/m) (docs/methods.md section 1).
  *
  * The page loads office.js from the platform's CDN; these tests never reach
  * it: by default the request is blocked (a network without internet access
@@ -196,7 +196,7 @@ describe.skipIf(chromiumFound.executablePath === null)(`design-check form in hea
     for (const [id, value] of Object.entries(expected)) {
       expect(relativeError(await rowValue(page, id), value), id).toBeLessThan(1e-14);
     }
-    // Closed form, METHODS.md section 1: s = sigma_theta (-ln S / k)^(1/m).
+    // Closed form, docs/methods.md section 1: s = sigma_theta (-ln S / k)^(1/m).
     const closedForm = fit.scale * Math.pow(-Math.log(0.9999) / k, 1 / fit.shape);
     expect(relativeError(await rowValue(page, "allowable-point"), closedForm)).toBeLessThan(1e-12);
 

@@ -14,7 +14,7 @@ import { fixture, relativeError } from "./helpers";
 
 const ref = fixture("effective_size.json");
 
-describe("NSA normalising constants, verified by integration (not taken from METHODS.md)", () => {
+describe("NSA normalising constants, verified by integration (derived, not taken from a table)", () => {
   it("k_S makes uniaxial tension count 1: k_S (1/pi) int_0^pi |cos psi|^(2m) dpsi = 1", () => {
     for (const m of [1, 2.5, 7, 10, 24.3, 60]) {
       const mean = integrateAdaptive((p) => Math.abs(Math.cos(p)) ** (2 * m), 0, Math.PI, { relativeTolerance: 1e-13 }).value / Math.PI;

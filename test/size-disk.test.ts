@@ -52,7 +52,7 @@ describe("plate-theory fields", () => {
   });
 
   it("piston-on-three-balls centre stress equals ISO 6872's -0.2387 P (X - Y)/t^2", () => {
-    // source: ISO 6872 formula as given in METHODS.md [memory]; 0.2387 is 3/(4 pi) rounded, hence 1e-4.
+    // source: ISO 6872 formula (docs/methods.md section 9, from memory); 0.2387 is 3/(4 pi) rounded, hence 1e-4.
     for (const c of ref.centres.iso6872) {
       const fld = pistonOnRingField({ pistonDiameter: 2 * c.r2, supportDiameter: 2 * c.r1, diskDiameter: 2 * c.r3, poisson: c.nu });
       const k = (3 * c.P) / (4 * Math.PI * c.t * c.t);

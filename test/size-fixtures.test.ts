@@ -64,7 +64,7 @@ describe("rectangular bar in flexure", () => {
 });
 
 describe("round rod in flexure", () => {
-  it("closed forms (METHODS.md, marked [memory]) equal scipy's integral over the section (effective_size.json rods)", () => {
+  it("closed forms (docs/methods.md section 5, derived) equal scipy's integral over the section (effective_size.json rods)", () => {
     for (const c of ref.rods) {
       const spec = { shape: c.shape, outerSpan: c.outerSpan, innerSpan: c.innerSpan, diameter: c.diameter };
       expect(relativeError(rodFlexureVolume(spec), c.volume)).toBeLessThan(1e-11);

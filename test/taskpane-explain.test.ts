@@ -229,7 +229,7 @@ describe("explaining the selected cell through the spreadsheet API", () => {
 
 describe("explaining a typed formula (no spreadsheet)", () => {
   it("evaluates constants through the adapters and asks for values where a reference was typed", () => {
-    // Reference: closed form 1 - exp(-(200/400)^10) (METHODS.md section 1) = 0.000976085...
+    // Reference: closed form 1 - exp(-(200/400)^10) (docs/methods.md section 1) = 0.000976085...
     const e = explainTypedFormula(parseFormula("=BRITTLE.FAILPROB(200,10,400)"), metadata);
     expect(e.call.outcome.kind).toBe("value");
     if (e.call.outcome.kind === "value") expect(relativeError(e.call.outcome.value as number, -Math.expm1(-Math.pow(0.5, 10)))).toBeLessThan(1e-15);

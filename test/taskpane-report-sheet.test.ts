@@ -297,7 +297,7 @@ describe("writing the design check through the spreadsheet API (office-addin-moc
     const [xa] = partLine.x.split(":");
     const [ya] = partLine.y.split(":");
     const y = at(ya) as number;
-    // On the part line: y = m ln(s / theta) + ln k (METHODS.md section 1 in Weibull-plot form).
+    // On the part line: y = m ln(s / theta) + ln k (docs/methods.md section 1 in Weibull-plot form).
     const m = result.parameters.shape;
     const th = result.parameters.scale;
     expect(relativeError(m * Math.log((at(xa) as number) / th) + Math.log(result.sizeRatio.value), y)).toBeLessThan(1e-12);

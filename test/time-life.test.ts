@@ -90,7 +90,7 @@ describe("TIMETOFAILURE and LIFETIMESTRESS (rate-based, no B) against the integr
   }
 
   it("a constant-rate test lasts n+1 times the static life at the same failure stress", () => {
-    // METHODS.md section 6, ratio derived; the closed forms below are the core's own.
+    // docs/methods.md section 7, ratio derived; the closed forms below are the core's own.
     const n = 18;
     const strength = 250;
     const rate = 3;
@@ -200,7 +200,7 @@ describe("strength-probability-time design", () => {
     });
   }
 
-  it("reduces to (B s_i^(n-2) / t)^(1/n) for long lives (METHODS.md section 6)", () => {
+  it("reduces to (B s_i^(n-2) / t)^(1/n) for long lives (docs/methods.md section 7)", () => {
     const B = 2;
     const n = 20;
     const lifetime = 3e8;

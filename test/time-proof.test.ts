@@ -56,7 +56,7 @@ describe("minimum life after a proof test", () => {
     expect(relativeError(near, (18 * eps) / (service * service))).toBeLessThan(2e-9);
   });
 
-  it("approaches B s_p^(n-2) s_a^-n (Evans & Wiederhorn form, METHODS.md 6) at low service stress", () => {
+  it("approaches B s_p^(n-2) s_a^-n (Evans & Wiederhorn form, docs/methods.md section 7) at low service stress", () => {
     const t = proofMinimumLife({ proofStress: 300, serviceStress: 60, n: 30, B: 4 });
     const approx = Math.exp(Math.log(4) + 28 * Math.log(300) - 30 * Math.log(60));
     expect(relativeError(t, approx)).toBeLessThan(1e-15 + Math.pow(0.2, 28));

@@ -20,7 +20,7 @@ const RECALLED: [number, number][] = [
 describe("unbiasing factor UF(N) = 1/E[m_hat/m]", () => {
   it("sits within 0.008 of the standard's table as recalled from memory, and at or below it", () => {
     // Our definition makes UF*m_hat mean-unbiased; the recalled values sit 0.000-0.007 higher,
-    // as METHODS.md anticipates for a simulation of 1/E[m_hat/m] (a difference of definition or
+    // as docs/methods.md section 2 notes for a simulation of 1/E[m_hat/m] (a difference of definition or
     // of the original simulation's size, not a rounding slip).
     for (const [n, uf] of RECALLED) {
       const ours = unbiasingFactor(n);

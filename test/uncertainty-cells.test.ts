@@ -50,7 +50,7 @@ describe("FIT", () => {
 });
 
 describe("PLOTPOINTS", () => {
-  it("complete sample: X = ln s, Y = ln ln(1/(1-P)) with the three estimators of METHODS.md section 2", () => {
+  it("complete sample: X = ln s, Y = ln ln(1/(1-P)) with the three estimators of docs/methods.md section 2", () => {
     const s = [410, 350, 388, 372, 401];
     const sorted = [...s].sort((a, b) => a - b);
     const n = s.length;

@@ -104,7 +104,8 @@ export function cautionsFor(result: DesignCheckResult): Caution[] {
       level: "note",
       text:
         `Goodness of fit is not tested here (${result.fitQualityMissing}): check the plot for a bend (two flaw ` +
-        "populations) or an outlying low value before relying on the fit.",
+        "populations of different moduli), an outlying low value, and the fracture origins (two populations of the " +
+        "same modulus leave the plot straight) before relying on the fit.",
     });
   }
   const checks = result.populationChecks;
@@ -115,7 +116,8 @@ export function cautionsFor(result: DesignCheckResult): Caution[] {
       level: "warning",
       text:
         `The probability plot bends near ${Number(checks.bend.knotStrength.toPrecision(4))} ${unit} ` +
-        `(two-segment test, p = ${checks.bend.pValue.toPrecision(2)}): two flaw populations may be mixed. Sort the ` +
+        `(two-segment test, p = ${checks.bend.pValue.toPrecision(2)}): two flaw populations of different moduli may be ` +
+        "mixed. Sort the " +
         "fracture origins and fit the population that governs the part, with the others censored.",
     });
   }

@@ -13,7 +13,7 @@
  *
  * where S(t) = K_IC / (Y sqrt(a(t))) is the strength that remains; the part
  * fails when S falls to the stress it carries. (Derived here; the B relation
- * matches METHODS.md section 6, and test/time-life.test.ts checks it against
+ * matches docs/methods.md section 7, and test/time-life.test.ts checks it against
  * a numerical integration of the ODE.) Hence
  *
  *   constant stress s:     t_f = B s^(-n) (s_i^(n-2) - s^(n-2))

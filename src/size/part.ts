@@ -1,6 +1,6 @@
 /**
  * A part's failure probability, effective size and hot spots from a table of
- * element stresses (ASTM C1683 Annex A3 approach; METHODS.md section 5):
+ * element stresses (ASTM C1683 Annex A3 approach; docs/methods.md section 6):
  *
  *   Pf   = 1 - exp(-sum_e V_e I_e(s_e / sigma_0))
  *   S_E  = sum_e V_e I_e(s_e / s_max)          (effective size at the peak)
