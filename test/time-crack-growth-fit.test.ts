@@ -8,7 +8,6 @@
  * invented, drawn with a fixed seed.
  */
 import { describe, expect, it } from "vitest";
-import { InputError } from "../src/errors";
 import { fitStaticFatigue, fitStressRate } from "../src/design/crack-growth-fit";
 import { studentQuantile, studentUpperTail } from "../src/numeric/student-t";
 import fixture from "./fixtures/crack_growth.json";
