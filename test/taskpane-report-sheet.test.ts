@@ -482,3 +482,13 @@ describe("writing the design check through the spreadsheet API (office-addin-moc
     expect(sheets.get("Design check")!.charts).toEqual([]);
   });
 });
+
+describe("the functions the sheet calls", () => {
+  it("must all be registered: a renamed function fails the plan instead of dropping its row", () => {
+    const result = runDesignCheck(input());
+    const without = new Set(Object.keys(adapters).filter((id) => id !== "PLOTPOINTS"));
+    expect(() => planReportSheet(result, { functions: without, cautions: result.cautions, written: new Date("2026-01-02T03:04:00Z") })).toThrow(
+      /calls BRITTLE\.PLOTPOINTS, which this build does not register/,
+    );
+  });
+});

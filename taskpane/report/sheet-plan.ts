@@ -76,6 +76,15 @@ export interface PlanOptions {
   written: Date;
 }
 
+/**
+ * Every function the sheet's formulas call must be registered in this build: a renamed or removed
+ * one fails here (and in the report-sheet test), never drops its row from the sheet silently.
+ */
+function registered(fns: ReadonlySet<string>, name: string): true {
+  if (!fns.has(name)) throw new Error(`the report sheet calls BRITTLE.${name}, which this build does not register`);
+  return true;
+}
+
 export function planReportSheet(result: DesignCheckResult, options: PlanOptions): SheetPlan {
   const input = result.input;
   const blocks: Block[] = [];
@@ -209,13 +218,13 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
   };
   const flawsWord = input.flaws === "volume" ? "VOLUME" : "SURFACE";
   const specimenFormula =
-    sp.kind === "preset" && fns.has("SPECIMEN")
+    sp.kind === "preset" && registered(fns, "SPECIMEN")
       ? `=BRITTLE.SPECIMEN(${refs.configuration},${m},"${flawsWord}"${refs.poisson ? `,${refs.poisson},${refs.criterion}` : ""})`
-      : sp.kind === "bar" && fns.has(input.flaws === "volume" ? "FLEXVOLUME" : "FLEXAREA")
+      : sp.kind === "bar" && registered(fns, input.flaws === "volume" ? "FLEXVOLUME" : "FLEXAREA")
         ? `=BRITTLE.${input.flaws === "volume" ? "FLEXVOLUME" : "FLEXAREA"}(${m},${refs.outerSpan},${refs.innerSpan},${refs.barWidth},${refs.barDepth})`
         : null;
   size("specimenSize", `Specimen effective ${word}`, specimenFormula, refs.specimenSizeTyped, result.specimenSize.value, result.specimenSize.basis);
-  const partFormula = table && fns.has("PARTEFFSIZE") ? `=BRITTLE.PARTEFFSIZE(${table.stresses},${table.sizes},${m},${refs.criterion})` : null;
+  const partFormula = table && registered(fns, "PARTEFFSIZE") ? `=BRITTLE.PARTEFFSIZE(${table.stresses},${table.sizes},${m},${refs.criterion})` : null;
   size("partSize", `Part effective ${word}`, partFormula, refs.partSizeTyped, result.partSize.value, result.partSize.basis);
   if (!refs.applied) {
     // The table's peak: MAX over principal stresses is live; tensors need the core's principal stresses.
@@ -236,7 +245,7 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
 
   const conf = formatPercent(result.confidence.oneSided);
   // Only where the form itself has the bound, so the sheet and the form never disagree on the verdict's basis.
-  const boundsFormula = options.functions.has("DESIGNSTRESSBOUND") && material.kind === "data" && result.allowableLower !== null;
+  const boundsFormula = registered(options.functions, "DESIGNSTRESSBOUND") && material.kind === "data" && result.allowableLower !== null;
   if (boundsFormula) {
     result1(
       "allowableLower",
@@ -259,7 +268,7 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
 
   // Time under load: the same relations as the form, live where the build registers them.
   const derived = (key: string, label: string, fn: string, formula: string, value: number | null, unit: string, note: string, format?: string) => {
-    if (fns.has(fn)) result1(key, label, formula, unit, note, format);
+    if (registered(fns, fn)) result1(key, label, formula, unit, note, format);
     else {
       put(row, A, [[label]], "label");
       put(row, B, [[value ?? "not available"]], value === null ? "text" : "data", false, format);
@@ -333,7 +342,7 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
     row++;
   }
 
-  const chart = planChart(result, refs, blocks, strengths, flags, stressUnit, fns.has("PLOTPOINTS"));
+  const chart = planChart(result, refs, blocks, strengths, flags, stressUnit, registered(fns, "PLOTPOINTS"));
   return { baseName: "Design check", blocks, chart, refs };
 }
 
