@@ -34,6 +34,7 @@ import { fillStrengths, MATERIAL_FIELDS, readMaterial, setupMaterial } from "./s
 import { fillElementTable, PART_FIELDS, readPart, setupPart } from "./steps/part";
 import { readRequirement, REQUIREMENT_FIELDS, setupRequirement } from "./steps/requirement";
 import { readSpecimen, setupSpecimen, SPECIMEN_FIELDS } from "./steps/specimen";
+import { setupMaterialFitPanel } from "./steps/material-fit-panel";
 import { setupPlanning } from "./steps/planning";
 import { setupRecordImport } from "./steps/record-import";
 
@@ -265,6 +266,7 @@ function wireHost(): void {
 
 wireForm();
 setupPlanning();
+setupMaterialFitPanel();
 setupRecordImport((text, description) => {
   fillStrengths(text, null);
   byId("selection-info").textContent = description;

@@ -298,6 +298,24 @@ describe.skipIf(chromiumFound.executablePath === null)(`design-check form in hea
     await page.close();
   });
 
+  it("fits one material to pasted bars and disks and shows the size-effect checks", async () => {
+    const { page, problems } = await open();
+    await page.click("#step-material-fit summary");
+    const lines = (await readFile(join(ROOT, "examples/material-fit-and-planning.csv"), "utf8"))
+      .split("\n")
+      .slice(1)
+      .map((l) => l.split(","))
+      .filter((f) => f[0])
+      .map((f) => `${f[0]}\t${f[1]}`);
+    await page.fill("#mfit-text", lines.join("\n"));
+    await page.click("#mfit-run");
+    await page.waitForFunction(() => (document.querySelector("#mfit-answer")?.textContent ?? "") !== "", undefined, { timeout: 60_000 });
+    expect(await page.textContent("#mfit-answer")).toMatch(/^27 specimens in 2 configurations/);
+    expect(await page.textContent("#mfit-checks")).toMatch(/size effect/);
+    expect(problems).toEqual([]);
+    await page.close();
+  });
+
   it("uses the default method exactly as the core does (result or the core's own message)", async () => {
     const { page } = await open();
     await page.fill("#strengths", STRENGTHS.join("\n"));
