@@ -23,6 +23,11 @@ declareSpills({
   PISTONSTRENGTH: { rows: { cellsOf: 0 }, cols: 1 },
 });
 
+/** Each argument read as one value or a column, named as the user sees it, in argument order. */
+function perRow(args: Record<string, unknown>): PerRowArgument[] {
+  return Object.entries(args).map(([name, value]) => readPerRow(value, name));
+}
+
 /** One strength per row; `compute` gets the row's numbers in argument order. */
 function strengthsByRow(args: PerRowArgument[], compute: (values: number[]) => LoadStrength): SpillCell[][] {
   const rows = perRowCount(args);
@@ -66,13 +71,7 @@ function strengthsByRow(args: PerRowArgument[], compute: (values: number[]) => L
  * @returns Flexural strength per specimen (MPa from N and mm); #VALUE! in a row outside beam theory's limits (span below 10 depths).
  */
 export function FLEXSTRENGTH(load: any[][], outerSpan: any[][], innerSpan: any[][], width: any[][], depth: any[][]): any[][] {
-  const args = [
-    readPerRow(load, "load"),
-    readPerRow(outerSpan, "outerSpan"),
-    readPerRow(innerSpan, "innerSpan"),
-    readPerRow(width, "width"),
-    readPerRow(depth, "depth"),
-  ];
+  const args = perRow({ load, outerSpan, innerSpan, width, depth });
   return strengthsByRow(args, ([F, L, Li, b, d]) => flexureStrength({ load: F, outerSpan: L, innerSpan: Li, width: b, depth: d }));
 }
 
@@ -87,7 +86,7 @@ export function FLEXSTRENGTH(load: any[][], outerSpan: any[][], innerSpan: any[]
  * @returns Flexural strength per specimen (MPa from N and mm); #VALUE! in a row outside beam theory's limits (span below 10 diameters).
  */
 export function RODFLEXSTRENGTH(load: any[][], outerSpan: any[][], innerSpan: any[][], diameter: any[][]): any[][] {
-  const args = [readPerRow(load, "load"), readPerRow(outerSpan, "outerSpan"), readPerRow(innerSpan, "innerSpan"), readPerRow(diameter, "diameter")];
+  const args = perRow({ load, outerSpan, innerSpan, diameter });
   return strengthsByRow(args, ([F, L, Li, D]) => rodFlexureStrength({ load: F, outerSpan: L, innerSpan: Li, diameter: D }));
 }
 
@@ -111,14 +110,7 @@ export function RINGSTRENGTH(
   thickness: any[][],
   poisson: any[][],
 ): any[][] {
-  const args = [
-    readPerRow(load, "load"),
-    readPerRow(loadDiameter, "loadDiameter"),
-    readPerRow(supportDiameter, "supportDiameter"),
-    readPerRow(diskDiameter, "diskDiameter"),
-    readPerRow(thickness, "thickness"),
-    readPerRow(poisson, "poisson"),
-  ];
+  const args = perRow({ load, loadDiameter, supportDiameter, diskDiameter, thickness, poisson });
   return strengthsByRow(args, ([F, DL, DS, D, h, nu]) =>
     ringOnRingStrength({ load: F, loadDiameter: DL, supportDiameter: DS, diskDiameter: D, thickness: h, poisson: nu }),
   );
@@ -144,14 +136,7 @@ export function PISTONSTRENGTH(
   thickness: any[][],
   poisson: any[][],
 ): any[][] {
-  const args = [
-    readPerRow(load, "load"),
-    readPerRow(pistonDiameter, "pistonDiameter"),
-    readPerRow(supportDiameter, "supportDiameter"),
-    readPerRow(diskDiameter, "diskDiameter"),
-    readPerRow(thickness, "thickness"),
-    readPerRow(poisson, "poisson"),
-  ];
+  const args = perRow({ load, pistonDiameter, supportDiameter, diskDiameter, thickness, poisson });
   return strengthsByRow(args, ([P, dp, ds, D, t, nu]) =>
     pistonOnBallsStrength({ load: P, pistonDiameter: dp, supportDiameter: ds, diskDiameter: D, thickness: t, poisson: nu }),
   );
