@@ -4,6 +4,7 @@
 import { configDefaults, defineConfig, mergeConfig } from "vitest/config";
 import base from "./vitest.config";
 
-export const SLOW_TESTS = ["test/properties-*.test.ts", "test/browser-*.test.ts", "test/package-install.test.ts"];
+// The censored-coverage test simulates thousands of bootstrap fits (a statistical check, not the inner loop).
+export const SLOW_TESTS = ["test/properties-*.test.ts", "test/browser-*.test.ts", "test/package-install.test.ts", "test/uncertainty-censored-coverage.test.ts"];
 
 export default mergeConfig(base, defineConfig({ test: { exclude: [...configDefaults.exclude, ...SLOW_TESTS] } }));
