@@ -4,6 +4,9 @@
  */
 export interface Timing<T> {
   seconds: number;
+  /** Fastest and slowest run: the spread around the median. */
+  fastest: number;
+  slowest: number;
   runs: number;
   result: T;
 }
@@ -20,7 +23,7 @@ export async function median<T>(runs: number, task: () => T | Promise<T>, warmUp
   times.sort((a, b) => a - b);
   const mid = Math.floor(times.length / 2);
   const seconds = times.length % 2 ? times[mid] : (times[mid - 1] + times[mid]) / 2;
-  return { seconds, runs, result };
+  return { seconds, fastest: times[0], slowest: times[times.length - 1], runs, result };
 }
 
 /** 0.000123 s -> "123 us", 1.5 s -> "1.50 s". */

@@ -9,8 +9,10 @@ WORKDIR/spec.json (written by bench/run.ts) names little-endian float64 files:
   runs:  {"small": R, "large": R}               timing repetitions (medians)
   mpmathMaxN: largest n solved at 40 digits
 
+Every timing is a median after one warm-up call, with the fastest and slowest run.
 Prints one JSON object on stdout: scipy.stats.weibull_min.fit (location fixed
-at 0) and numpy timings and values, and the mpmath solution of the
+at 0), a numpy Newton solve of the same ML equation (the fair peer), numpy
+element-sum timings and values, and the mpmath solution of the
 maximum-likelihood equations (ASTM C1239 section 7, complete sample):
   sum x^m ln x / sum x^m - mean(ln x) - 1/m = 0,  sigma_theta = (sum x^m / N)^(1/m).
 """
@@ -28,13 +30,42 @@ from scipy import stats
 
 
 def timed(fn, runs):
+    """Median, fastest and slowest of `runs` timings after one warm-up call (as bench/measure.ts does)."""
+    fn()
     times = []
     result = None
     for _ in range(runs):
         start = time.perf_counter()
         result = fn()
         times.append(time.perf_counter() - start)
-    return statistics.median(times), result
+    return statistics.median(times), result, min(times), max(times)
+
+
+def ml_numpy_newton(x):
+    """The fair peer for the ML fit: Newton on the same ML equation, vectorised in numpy.
+
+    Same equation, start and stopping rule as src/weibull/maximum-likelihood.ts for a
+    complete sample: x / max(x), moment start m0 = pi / (sqrt(6) sd(ln x)), stop when a
+    Newton step is below 1e-11 m. Plain sums (numpy's pairwise summation), no bracket.
+    """
+    top = x.max()
+    logs = np.log(x / top)
+    mean_log = logs.mean()
+    m = np.pi / np.sqrt(6.0) / logs.std(ddof=1)
+    for _ in range(200):
+        w = np.exp(m * logs)
+        wl = w * logs
+        s0 = w.sum()
+        mean = wl.sum() / s0
+        g = mean - mean_log - 1.0 / m
+        slope = max(np.dot(wl, logs) / s0 - mean * mean, 0.0) + 1.0 / (m * m)
+        newton = m - g / slope
+        done = abs(newton - m) <= 1e-11 * m
+        m = newton
+        if done:
+            break
+    scale = top * np.exp(np.log(np.exp(m * logs).sum() / len(x)) / m)
+    return float(m), float(scale)
 
 
 def ml_mpmath(x, start_shape, digits=40):
@@ -81,8 +112,10 @@ def main():
     for item in spec["fits"]:
         x = np.fromfile(os.path.join(workdir, item["file"]), dtype="<f8")
         r = runs["small"] if len(x) < 100000 else runs["large"]
-        seconds, (shape, _loc, scale) = timed(lambda: stats.weibull_min.fit(x, floc=0), r)
-        entry = {"n": int(len(x)), "seconds": seconds, "shape": float(shape), "scale": float(scale)}
+        seconds, (shape, _loc, scale), fastest, slowest = timed(lambda: stats.weibull_min.fit(x, floc=0), r)
+        entry = {"n": int(len(x)), "seconds": seconds, "fastest": fastest, "slowest": slowest, "shape": float(shape), "scale": float(scale)}
+        seconds, (shape, scale), fastest, slowest = timed(lambda: ml_numpy_newton(x), r)
+        entry["newton"] = {"seconds": seconds, "fastest": fastest, "slowest": slowest, "shape": shape, "scale": scale}
         if len(x) <= spec["mpmathMaxN"]:
             start = time.perf_counter()
             entry["mpmathShape"], entry["mpmathScale"] = ml_mpmath(x, item["startShape"])
@@ -100,8 +133,8 @@ def main():
             tension = np.clip(principal, 0.0, None) / peak
             return float(np.dot(sizes, (tension**m).sum(axis=1))), float(peak)
 
-        seconds, (effective, peak) = timed(pia_sum, runs["large"])
-        out["pia"] = {"seconds": seconds, "effectiveSize": effective, "peak": peak, "rows": int(len(sizes))}
+        seconds, (effective, peak), fastest, slowest = timed(pia_sum, runs["large"])
+        out["pia"] = {"seconds": seconds, "fastest": fastest, "slowest": slowest, "effectiveSize": effective, "peak": peak, "rows": int(len(sizes))}
 
     csv = spec.get("csv")
     if csv:
@@ -113,7 +146,7 @@ def main():
             peak = p.max()
             return float(np.dot(table[:, 3], ((np.clip(p, 0.0, None) / peak) ** csv["shape"]).sum(axis=1)))
 
-        seconds, effective = timed(stream, 1)
+        seconds, effective, _fastest, _slowest = timed(stream, 1)
         out["csv"] = {"seconds": seconds, "effectiveSize": effective}
 
     json.dump(out, sys.stdout)

@@ -5,10 +5,14 @@
  * fits against a 40-digit mpmath solution. Medians of several runs; nothing
  * here is asserted. BENCH_QUICK=1 skips the 40-digit solve at a million
  * specimens (about a minute) and the full-column workbook (about 2 GB).
+ * BENCH_ONLY=fit,pia runs only the sections whose names contain one of those
+ * words; BENCH_ROUNDS=N times every short task N times, long ones at most 3 (after
+ * one warm-up, on both sides).
+ * Each run also writes a JSON record to bench/results/ (git-ignored).
  */
 import { spawnSync } from "node:child_process";
-import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { cpus, tmpdir } from "node:os";
 import { join } from "node:path";
 import { HyperFormula } from "hyperformula";
 import { createEngine, LICENSE_KEY, registerFunctions } from "../cli/engine";
@@ -26,13 +30,18 @@ import { formatSeconds, median } from "./measure";
 
 const QUICK = process.env.BENCH_QUICK === "1";
 const SIZES = [30, 1000, 1_000_000];
-const RUNS = { small: 7, large: 3 };
+const ROUNDS = Number(process.env.BENCH_ROUNDS) > 0 ? Math.floor(Number(process.env.BENCH_ROUNDS)) : 0;
+// Tasks of a second or more (n = 10^6, scipy's generic fit there) run at most 3 times.
+const RUNS = ROUNDS ? { small: ROUNDS, large: Math.min(ROUNDS, 3) } : { small: 7, large: 3 };
+const ONLY = (process.env.BENCH_ONLY ?? "").split(",").map((w) => w.trim()).filter(Boolean);
 const ELEMENTS = 2 ** 20;
 const FULL_COLUMN = 1_048_576;
 
 interface Row {
   task: string;
   ours: string;
+  /** Fastest-slowest of our runs. */
+  spread?: string;
   peer?: string;
   ratio?: string;
   note?: string;
@@ -40,7 +49,15 @@ interface Row {
 const rows: Row[] = [];
 const notes: string[] = [];
 
+/** Machine-readable figures for the JSON record (seconds; ratio = peer / ours). */
+const record: { task: string; seconds: number; fastest: number; slowest: number; peers: Record<string, { seconds: number; fastest?: number; slowest?: number; ratio: number }> }[] = [];
+
+function spreadOf(t: { fastest: number; slowest: number }): string {
+  return `${formatSeconds(t.fastest)}-${formatSeconds(t.slowest)}`;
+}
+
 async function section(name: string, body: () => Promise<void>): Promise<void> {
+  if (ONLY.length && name !== "python peers" && !ONLY.some((w) => name.includes(w))) return;
   process.stderr.write(`bench: ${name}...\n`);
   try {
     await body();
@@ -51,14 +68,14 @@ async function section(name: string, body: () => Promise<void>): Promise<void> {
 
 const work = mkdtempSync(join(tmpdir(), "brittle-bench-"));
 const samples = new Map(SIZES.map((n) => [n, weibullSample(n, n)]));
-const ourFits = new Map<number, { seconds: number; shape: number; scale: number; converged: boolean }>();
+const ourFits = new Map<number, { seconds: number; fastest: number; slowest: number; shape: number; scale: number; converged: boolean }>();
 
 await section("maximum-likelihood fit", async () => {
   for (const n of SIZES) {
     const strengths = Array.from(samples.get(n)!);
     const t = await median(n < 100_000 ? RUNS.small : RUNS.large, () => fitMaximumLikelihood({ strengths }));
-    ourFits.set(n, { seconds: t.seconds, shape: t.result.shape, scale: t.result.scale, converged: t.result.converged });
-    rows.push({ task: `ML fit, n = ${n.toLocaleString("en-US")}`, ours: formatSeconds(t.seconds), note: `${t.result.iterations} iterations, converged ${t.result.converged}` });
+    ourFits.set(n, { seconds: t.seconds, fastest: t.fastest, slowest: t.slowest, shape: t.result.shape, scale: t.result.scale, converged: t.result.converged });
+    rows.push({ task: `ML fit, n = ${n.toLocaleString("en-US")}`, ours: formatSeconds(t.seconds), spread: spreadOf(t), note: `${t.result.iterations} iterations, converged ${t.result.converged}` });
   }
   const column = Array.from(samples.get(1000)!, (x) => [x]);
   const cell = await median(RUNS.small, () => guarded.MODULUS(column, null, "MLE-RAW"));
@@ -87,11 +104,11 @@ await section("confidence bounds", async () => {
 });
 
 const { principal, sizes } = elementTable(ELEMENTS, 7);
-let ourPia: { seconds: number; effectiveSize: number } | null = null;
-await section("element sums", async () => {
-  const t = await median(5, () => partRiskSum({ principal, stride: 3, sizes, shape: 10, criterion: "PIA" }));
-  ourPia = { seconds: t.seconds, effectiveSize: t.result.effectiveSize };
-  rows.push({ task: `PIA element sum, 2^20 elements x 3 principal`, ours: formatSeconds(t.seconds), note: `${((ELEMENTS / t.seconds) / 1e6).toFixed(1)} M elements/s` });
+let ourPia: { seconds: number; fastest: number; slowest: number; effectiveSize: number } | null = null;
+await section("element sums (pia)", async () => {
+  const t = await median(ROUNDS ? RUNS.large : 5, () => partRiskSum({ principal, stride: 3, sizes, shape: 10, criterion: "PIA" }));
+  ourPia = { seconds: t.seconds, fastest: t.fastest, slowest: t.slowest, effectiveSize: t.result.effectiveSize };
+  rows.push({ task: `PIA element sum, 2^20 elements x 3 principal`, ours: formatSeconds(t.seconds), spread: spreadOf(t), note: `${((ELEMENTS / t.seconds) / 1e6).toFixed(1)} M elements/s` });
 });
 
 const csvChunks = elementCsv(principal, sizes);
@@ -150,9 +167,15 @@ await section("full column", async () => {
 // ---------------------------------------------------------------------------
 // Peers, in the same run, on the same numbers
 
-interface PeerFit {
-  n: number;
+interface PeerTiming {
   seconds: number;
+  fastest: number;
+  slowest: number;
+}
+interface PeerFit extends PeerTiming {
+  n: number;
+  /** numpy Newton on the same ML equation: the fair peer. */
+  newton?: PeerTiming & { shape: number; scale: number };
   shape: number;
   scale: number;
   mpmathShape?: string;
@@ -162,7 +185,7 @@ interface PeerFit {
 interface Peers {
   versions: Record<string, string>;
   fits: PeerFit[];
-  pia?: { seconds: number; effectiveSize: number; peak: number };
+  pia?: PeerTiming & { effectiveSize: number; peak: number };
   csv?: { seconds: number; effectiveSize: number };
 }
 
@@ -175,12 +198,13 @@ await section("python peers", async () => {
   }
   const spec = {
     fits: SIZES.map((n) => ({ n, file: writeFloat64(work, `fit-${n}.f64`, samples.get(n)!), startShape: ourFits.get(n)?.shape ?? 10 })),
-    pia: { principal: writeFloat64(work, "principal.f64", principal), sizes: writeFloat64(work, "sizes.f64", sizes), shape: 10 },
-    csv: { file: "elements.csv", shape: 10 },
+    // Only the peers of the sections that ran (BENCH_ONLY).
+    pia: ourPia ? { principal: writeFloat64(work, "principal.f64", principal), sizes: writeFloat64(work, "sizes.f64", sizes), shape: 10 } : undefined,
+    csv: ourStream ? { file: "elements.csv", shape: 10 } : undefined,
     runs: RUNS,
     mpmathMaxN: QUICK ? 1000 : 1_000_000,
   };
-  writeFileSync(join(work, "elements.csv"), Buffer.concat(csvChunks));
+  if (ourStream) writeFileSync(join(work, "elements.csv"), Buffer.concat(csvChunks));
   writeFileSync(join(work, "spec.json"), JSON.stringify(spec));
   process.stderr.write("bench: python3 bench/peers.py (scipy, numpy; mpmath at 40 digits takes about a minute at n = 10^6)...\n");
   const run = spawnSync("python3", ["bench/peers.py", work], { encoding: "utf8", maxBuffer: 1 << 26 });
@@ -199,15 +223,26 @@ if (p) {
     const ours = ourFits.get(fit.n);
     const row = rows.find((r) => r.task === `ML fit, n = ${fit.n.toLocaleString("en-US")}`);
     if (row && ours) {
-      row.peer = `${formatSeconds(fit.seconds)} scipy`;
-      row.ratio = `${(fit.seconds / ours.seconds).toFixed(1)}x`;
+      const peersOfRow: Record<string, { seconds: number; fastest: number; slowest: number; ratio: number }> = {};
+      if (fit.newton) {
+        const ratio = fit.newton.seconds / ours.seconds;
+        row.peer = `${formatSeconds(fit.newton.seconds)} numpy Newton (${spreadOf(fit.newton)})`;
+        row.ratio = `${ratio.toFixed(2)}x`;
+        row.note += `; m agrees with numpy to ${relative(ours.shape, fit.newton.shape).toExponential(1)}`;
+        peersOfRow["numpy Newton"] = { ...pick(fit.newton), ratio };
+      }
+      const scipyRatio = fit.seconds / ours.seconds;
+      row.note += `; scipy weibull_min.fit ${formatSeconds(fit.seconds)} (${spreadOf(fit)}), ratio ${scipyRatio.toFixed(1)}x, m agrees to ${relative(ours.shape, fit.shape).toExponential(1)}`;
+      peersOfRow["scipy weibull_min.fit"] = { ...pick(fit), ratio: scipyRatio };
+      record.push({ task: row.task, ...pick(ours), peers: peersOfRow });
     }
   }
   const piaRow = rows.find((r) => r.task.startsWith("PIA element sum"));
-  const pia = ourPia as { seconds: number; effectiveSize: number } | null;
+  const pia = ourPia as { seconds: number; fastest: number; slowest: number; effectiveSize: number } | null;
   if (p.pia && piaRow && pia) {
-    piaRow.peer = `${formatSeconds(p.pia.seconds)} numpy`;
+    piaRow.peer = `${formatSeconds(p.pia.seconds)} numpy (${spreadOf(p.pia)})`;
     piaRow.ratio = `${(p.pia.seconds / pia.seconds).toFixed(1)}x`;
+    record.push({ task: piaRow.task, ...pick(pia), peers: { numpy: { ...pick(p.pia), ratio: p.pia.seconds / pia.seconds } } });
     piaRow.note += `; effective size agrees to ${relative(pia.effectiveSize, p.pia.effectiveSize).toExponential(1)}`;
   }
   const streamRow = rows.find((r) => r.task.startsWith("stream a 2^20-row"));
@@ -219,17 +254,21 @@ if (p) {
   }
 }
 
+function pick(t: { seconds: number; fastest: number; slowest: number }) {
+  return { seconds: t.seconds, fastest: t.fastest, slowest: t.slowest };
+}
+
 function relative(a: number, b: number): number {
   return Math.abs(a - b) / Math.abs(b);
 }
 
-const widths = [50, 10, 28, 7];
+const widths = [50, 10, 20, 42, 7];
 const line = (cells: string[]) => cells.map((c, i) => (i < widths.length ? c.padEnd(widths[i]) : c)).join("  ");
 const out: string[] = [];
-out.push("Speed (median of several runs; ratio = peer time / our time, > 1 means we are faster)");
-out.push(line(["task", "ours", "peer", "ratio", "notes"]));
-out.push(line(["-".repeat(widths[0]), "-".repeat(widths[1]), "-".repeat(widths[2]), "-".repeat(widths[3]), "-----"]));
-for (const r of rows) out.push(line([r.task, r.ours, r.peer ?? "", r.ratio ?? "", r.note ?? ""]));
+out.push(`Speed (median of ${ROUNDS ? `${RUNS.small} (long tasks ${RUNS.large})` : "several"} runs after one warm-up on both sides, spread = fastest-slowest; ratio = peer time / our time, > 1 means we are faster)`);
+out.push(line(["task", "ours", "spread", "peer (spread)", "ratio", "notes"]));
+out.push(line(["-".repeat(widths[0]), "-".repeat(widths[1]), "-".repeat(widths[2]), "-".repeat(widths[3]), "-".repeat(widths[4]), "-----"]));
+for (const r of rows) out.push(line([r.task, r.ours, r.spread ?? "", r.peer ?? "", r.ratio ?? "", r.note ?? ""]));
 
 if (p) {
   out.push("");
@@ -253,3 +292,28 @@ if (p) {
 for (const n of notes) out.push(n);
 out.push("Data: seeded and invented (modulus 10, characteristic strength 400; an invented element table). Figures depend on the machine.");
 process.stdout.write(out.join("\n") + "\n");
+
+// The JSON record: when, where, how many rounds, and every figure above with its peers.
+const stamp = new Date().toISOString();
+const results = join("bench", "results");
+mkdirSync(results, { recursive: true });
+const recordFile = join(results, `bench-${stamp.replace(/[:.]/g, "-")}.json`);
+writeFileSync(
+  recordFile,
+  JSON.stringify(
+    {
+      date: stamp,
+      machine: { cpus: cpus().length, model: cpus()[0]?.model ?? "unknown", platform: process.platform, arch: process.arch, node: process.versions.node },
+      peerVersions: p?.versions ?? null,
+      rounds: RUNS,
+      only: ONLY,
+      quick: QUICK,
+      figures: record,
+      table: rows,
+      notes,
+    },
+    null,
+    2,
+  ) + "\n",
+);
+process.stderr.write(`bench: record written to ${recordFile}\n`);

@@ -47,20 +47,32 @@ export function fitMaximumLikelihood(sample: StrengthSample): MaximumLikelihoodF
   // g(infinity) = -failureLogMean: when every failure sits at the maximum, no finite m fits.
   ensure(failureLogMean < 0, "all failure strengths are equal to the largest strength: the modulus is unbounded");
 
+  // One pass per iterate: three Neumaier sums kept in locals (the same operations, in the
+  // same order, as three CompensatedSum objects, so the results are unchanged).
   const moments = (m: number) => {
-    const s0 = new CompensatedSum();
-    const s1 = new CompensatedSum();
-    const s2 = new CompensatedSum();
+    let t0 = 0, c0 = 0, t1 = 0, c1 = 0, t2 = 0, c2 = 0;
     for (let i = 0; i < n; i++) {
-      const w = Math.exp(m * logX[i]);
-      s0.add(w);
-      s1.add(w * logX[i]);
-      s2.add(w * logX[i] * logX[i]);
+      const l = logX[i];
+      const w = Math.exp(m * l);
+      const wl = w * l;
+      const wll = wl * l;
+      let t = t0 + w;
+      if (Math.abs(t0) >= Math.abs(w)) c0 += t0 - t + w;
+      else c0 += w - t + t0;
+      t0 = t;
+      t = t1 + wl;
+      if (Math.abs(t1) >= Math.abs(wl)) c1 += t1 - t + wl;
+      else c1 += wl - t + t1;
+      t1 = t;
+      t = t2 + wll;
+      if (Math.abs(t2) >= Math.abs(wll)) c2 += t2 - t + wll;
+      else c2 += wll - t + t2;
+      t2 = t;
     }
-    const mean = s1.value / s0.value;
-    return { sum: s0.value, mean, variance: Math.max(s2.value / s0.value - mean * mean, 0) };
+    const s0 = t0 + c0;
+    const mean = (t1 + c1) / s0;
+    return { sum: s0, mean, variance: Math.max((t2 + c2) / s0 - mean * mean, 0) };
   };
-  const g = (m: number) => moments(m).mean - failureLogMean - 1 / m;
 
   // Safeguarded Newton: keep a bracket [lo, hi] with g(lo) < 0 < g(hi).
   let lo = 0;
@@ -97,9 +109,10 @@ export function fitMaximumLikelihood(sample: StrengthSample): MaximumLikelihoodF
     }
   }
   if (!Number.isFinite(m) || m <= 0) throw new InputError("input", "the likelihood equation has no finite solution for these data");
-  residual = Math.abs(g(m)) * m;
-
-  const { sum } = moments(m);
+  // One pass at the returned modulus gives both the residual and the sum for the scale.
+  const final = moments(m);
+  residual = Math.abs(final.mean - failureLogMean - 1 / m) * m;
+  const sum = final.sum;
   const scale = max * Math.exp(Math.log(sum / failures) / m);
   ensurePositiveResult(scale, "characteristic strength");
   return { shape: m, scale, specimens: n, failures, converged, iterations: Math.min(iterations, MAX_ITERATIONS), residual };

@@ -26,7 +26,8 @@ export function checkSample({ strengths, censored }: StrengthSample): CheckedSam
   let failures = 0;
   for (let i = 0; i < strengths.length; i++) {
     const s = strengths[i];
-    ensure(Number.isFinite(s) && s > 0, () => `strength ${i + 1} must be a positive number (got ${describe(s)})`);
+    // Test first, build the message only on failure: this runs once per specimen.
+    if (!(Number.isFinite(s) && s > 0)) throw new InputError("input", `strength ${i + 1} must be a positive number (got ${describe(s)})`);
     values[i] = s;
     flags[i] = censored?.[i] ? 1 : 0;
     if (!flags[i]) failures++;
