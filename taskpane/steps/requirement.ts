@@ -9,7 +9,7 @@
  * more often a failure probability typed where the survival was meant than
  * a real target: the form asks for confirmation before it checks against it.
  */
-import type { LifetimeDescription, RequirementDescription, TimeUnit } from "../../src/design/check-description";
+import type { CheckDescription, LifetimeDescription, RequirementDescription, TimeUnit } from "../../src/design/check-description";
 import { HIGH_FAILURE_PROBABILITY, LOW_SURVIVAL } from "../../src/design/check-description";
 import { bUnitText, convertTime, parseBUnit } from "../../src/design/check-units";
 import { byId, FieldError, radioValue, readNumberField, requiredNumber } from "../app/dom";
@@ -114,14 +114,9 @@ export function readRequirement(): {
 }
 
 /** Put a saved check's requirement into the form (reopening a check file). */
-export function fillRequirement(d: {
-  requirement: RequirementDescription;
-  confirmLowSurvival?: boolean;
-  appliedStress: number | null;
-  lotSize: number;
-  lifetime: LifetimeDescription | null;
-  proof: { proofStress: number } | null;
-}): void {
+export function fillRequirement(
+  d: Pick<CheckDescription, "requirement" | "confirmLowSurvival" | "appliedStress" | "lotSize" | "lifetime" | "proof">,
+): void {
   setRadio("target", d.requirement.kind);
   if (d.requirement.kind === "survival") byId<HTMLInputElement>("survival").value = String(d.requirement.survival);
   else byId<HTMLInputElement>("allowed-failures").value = String(d.requirement.allowedFailures);
