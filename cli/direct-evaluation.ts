@@ -26,7 +26,8 @@
  * "12/05/2020" or "3 pm" as numbers, "TRUE" as a boolean, "#N/A" as an error
  * and strip a leading apostrophe. Every such reading needs the text to hold
  * only digits, signs, separators and the letters a, e, m and p, so text with
- * any other ASCII letter, not starting with ' or #, is kept as written
+ * any other ASCII letter, or with no digit, separator or blank at all (a
+ * header "m"), not starting with ' or #, is kept as written
  * (hyperformula 3.5 CellContentParser and NumberLiteralHelper; the cross-check
  * in test/direct-evaluation.test.ts runs both paths on the same workbooks).
  */
@@ -64,6 +65,7 @@ const NUMBER = /^-?[0-9]+(?:\.[0-9]+)?$/;
 const TEXT = /^"([^"]*)"$/;
 /** An ASCII letter no number, percentage, currency, date or time reading of text can contain. */
 const LETTER_NO_NUMBER_READS = /[b-df-lnoq-z]/i;
+const NUMBER_OR_DATE_CHARACTER = /[0-9/.:\-\s]/;
 const ENGINE_ERROR_CODES = new Set(["#VALUE!", "#NUM!", "#N/A"]);
 
 /**
@@ -114,10 +116,11 @@ function plainValue(v: Contents | undefined): Shown | undefined {
 }
 
 export function isTextKeptAsWritten(text: string): boolean {
-  if (text.startsWith("=") || text.startsWith("'") || text.startsWith("#")) return false;
+  if (text === "" || text.startsWith("=") || text.startsWith("'") || text.startsWith("#")) return false;
   const lower = text.toLowerCase();
   if (lower === "true" || lower === "false") return false;
-  return LETTER_NO_NUMBER_READS.test(text);
+  // A number needs a digit, a date or time a digit or a separator ("- pm" passes the engine's first check).
+  return LETTER_NO_NUMBER_READS.test(text) || !NUMBER_OR_DATE_CHARACTER.test(text);
 }
 
 function evaluateFormula(
