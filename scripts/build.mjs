@@ -65,6 +65,29 @@ async function buildCommandLine(functionsJson) {
       });
     },
   };
+  // HyperFormula builds its formula parser and lexer (chevrotain) for every engine, and chevrotain checks the
+  // grammar's definition each time (chevrotain's docs: skipValidations "can be used to optimize the parser's
+  // initialization time" once the grammar is known to be valid). The grammar is fixed by the pinned version and
+  // passes those checks (the tests build engines from source, with the checks on), so the compiled program skips
+  // them; the build fails if the text it edits is not found, rather than silently checking again.
+  const skipGrammarChecks = {
+    name: "skip-grammar-checks",
+    setup(build) {
+      build.onLoad({ filter: /hyperformula[\\/]es[\\/]parser[\\/]FormulaParser\.mjs$/ }, async (args) => {
+        const source = await readFile(args.path, "utf8");
+        const edits = [
+          ["outputCst: false,\n      maxLookahead: 7", "outputCst: false,\n      maxLookahead: 7,\n      skipValidations: true"],
+          ["ensureOptimizations: true\n", "ensureOptimizations: true,\n      skipValidations: true\n"],
+        ];
+        let contents = source;
+        for (const [from, to] of edits) {
+          if (contents.split(from).length !== 2) throw new Error(`${args.path}: "${from}" not found once; update skip-grammar-checks in scripts/build.mjs`);
+          contents = contents.replace(from, to);
+        }
+        return { contents, loader: "js" };
+      });
+    },
+  };
   const result = await esbuild({
     absWorkingDir: ROOT,
     entryPoints: { brittle: "cli/run.ts" },
@@ -80,7 +103,7 @@ async function buildCommandLine(functionsJson) {
     // into the engine chunk: one file to compile instead of about 300 modules, loaded only when a workbook needs
     // the engine (cli/direct-evaluation.ts evaluates a plain .csv without it). Legal comments are kept.
     external: ["exceljs", "jszip"],
-    plugins: [readBuiltMetadata, jsonAsParse],
+    plugins: [readBuiltMetadata, jsonAsParse, skipGrammarChecks],
     metafile: true,
     minify: true,
     logLevel: "warning",
