@@ -12,11 +12,13 @@
  *   function that returns one value (no spill), no spaces, every required
  *   argument given and none empty, at most as many as the function takes;
  *   a range argument is a same-sheet reference (A2:AD2, $A$2, B7) in order,
- *   a number argument a plain decimal literal (-12.5), a text argument a
- *   quoted literal without quotes inside; anything else (a sum, a nested call,
- *   a name, another sheet, a boolean argument) goes to the engine;
+ *   a number argument a plain decimal literal (-12.5) or one cell holding a
+ *   number, a text argument a quoted literal without quotes inside; anything
+ *   else (a sum, a nested call, a name, another sheet, a boolean argument)
+ *   goes to the engine;
  * - cells a formula reads: blank, a finite number other than -0, TRUE/FALSE,
- *   or text the engine keeps as written; never another formula;
+ *   text the engine keeps as written, or another formula of the subset that
+ *   evaluated to a finite number (no cycles);
  * - every other cell shown in the grid: the same, so the printed grid matches;
  * - results: a finite number, text, a boolean, or a failure with an error
  *   code the engine has (#VALUE!, #NUM!, #N/A); anything else (an array, a
@@ -68,6 +70,9 @@ const LETTER_NO_NUMBER_READS = /[b-df-lnoq-z]/i;
 const NUMBER_OR_DATE_CHARACTER = /[0-9/.:\-\s]/;
 const ENGINE_ERROR_CODES = new Set(["#VALUE!", "#NUM!", "#N/A"]);
 
+/** Thrown inside the direct path the moment a cell falls outside the subset; the caller then uses the engine. */
+class OutsideSubset extends Error {}
+
 /**
  * Evaluates a loaded .csv directly, or returns undefined when any cell falls
  * outside the subset above (the engine then evaluates the whole workbook).
@@ -81,38 +86,43 @@ export function evaluateDirectly(
   spills: ReadonlySet<string>,
 ): DirectEvaluation | undefined {
   if (workbook.kind !== "csv" || (workbook.names?.length ?? 0) > 0) return undefined;
-  const byId = new Map(metadata.map((f) => [f.id, f]));
+  const functions = { byId: new Map(metadata.map((f) => [f.id, f])), adapters, spills };
   const grids: Record<string, Shown[][]> = {};
   const formulas: FormulaResult[] = [];
-  for (const [sheetName, rows] of Object.entries(workbook.sheets)) {
-    const grid = new ShownGrid();
-    for (let r = 0; r < rows.length; r++) {
-      const row = rows[r];
-      for (let c = 0; c < row.length; c++) {
-        const contents = row[c];
-        if (typeof contents === "string" && contents.startsWith("=")) {
-          const cell = evaluateFormula(contents, rows, byId, adapters, spills);
-          if (cell === undefined) return undefined;
-          grid.put(r, c, cell.value);
-          formulas.push({ sheet: sheetName, address: columnName(c) + (r + 1), formula: contents, ...cell });
-        } else {
-          const value = plainValue(contents);
-          if (value === undefined) return undefined;
-          grid.put(r, c, value);
+  try {
+    for (const [sheetName, rows] of Object.entries(workbook.sheets)) {
+      const sheet = new SheetEvaluation(rows, functions);
+      const grid = new ShownGrid();
+      for (let r = 0; r < rows.length; r++) {
+        const row = rows[r];
+        for (let c = 0; c < row.length; c++) {
+          const contents = row[c];
+          if (typeof contents === "string" && contents.startsWith("=")) {
+            const cell = sheet.formulaAt(r, c, contents);
+            grid.put(r, c, cell.value);
+            formulas.push({ sheet: sheetName, address: columnName(c) + (r + 1), formula: contents, ...cell });
+          } else grid.put(r, c, plainValue(contents));
         }
       }
+      grids[sheetName] = grid.rows;
     }
-    grids[sheetName] = grid.rows;
+  } catch (error) {
+    if (error instanceof OutsideSubset) return undefined;
+    throw error;
   }
   return { grids, formulas, refusedNames: [] };
 }
 
-/** A non-formula cell as the engine shows it, or undefined when the engine might read it differently. */
-function plainValue(v: Contents | undefined): Shown | undefined {
+/** A non-formula cell as the engine shows it; outside the subset when the engine might read it differently. */
+function plainValue(v: Contents | undefined): Shown {
   if (v === null || v === undefined) return null;
-  if (typeof v === "number") return Number.isFinite(v) && !Object.is(v, -0) ? v : undefined;
+  if (typeof v === "number") {
+    if (Number.isFinite(v) && !Object.is(v, -0)) return v;
+    throw new OutsideSubset();
+  }
   if (typeof v === "boolean") return v;
-  return isTextKeptAsWritten(v) ? v : undefined;
+  if (isTextKeptAsWritten(v)) return v;
+  throw new OutsideSubset();
 }
 
 export function isTextKeptAsWritten(text: string): boolean {
@@ -123,77 +133,109 @@ export function isTextKeptAsWritten(text: string): boolean {
   return LETTER_NO_NUMBER_READS.test(text) || !NUMBER_OR_DATE_CHARACTER.test(text);
 }
 
-function evaluateFormula(
-  formula: string,
-  rows: Contents[][],
-  byId: Map<string, FunctionMetadata>,
-  adapters: Record<string, Adapter>,
-  spills: ReadonlySet<string>,
-): ShownCell | undefined {
-  // The engine reads the formula after normaliseFormula; the subset is one it leaves unchanged.
-  if (normaliseFormula(formula) !== formula) return undefined;
-  const call = parseCall(formula);
-  if (!call) return undefined;
-  const fn = byId.get(call.name);
-  const adapter = adapters[call.name];
-  if (!fn || !adapter || spills.has(call.name)) return undefined;
-  const params = fn.parameters;
-  if (call.args.length > params.length) return undefined;
-  if (params.slice(call.args.length).some((p) => !p.optional)) return undefined;
-  const values: unknown[] = [];
-  for (let k = 0; k < params.length; k++) {
-    const arg = call.args[k];
-    if (arg === undefined) {
-      values.push(null); // a missing optional argument reaches the adapter as null, as from the engine
-      continue;
+interface Functions {
+  byId: Map<string, FunctionMetadata>;
+  adapters: Record<string, Adapter>;
+  spills: ReadonlySet<string>;
+}
+
+/**
+ * One sheet's formulas, each evaluated once, when first shown or first read
+ * by another formula. A formula read by another must have evaluated to a
+ * finite number (what the engine then passes on unchanged); an error, text or
+ * a circular reference leaves the subset, since the engine's handling of those
+ * (passing the error on, reading text as a number) is its own.
+ */
+class SheetEvaluation {
+  private readonly done = new Map<number, ShownCell>();
+  private readonly inProgress = new Set<number>();
+
+  constructor(
+    private readonly rows: Contents[][],
+    private readonly functions: Functions,
+  ) {}
+
+  formulaAt(r: number, c: number, formula: string): ShownCell {
+    const key = r * MAX_COLUMNS + c;
+    const known = this.done.get(key);
+    if (known) return known;
+    if (this.inProgress.has(key)) throw new OutsideSubset(); // circular: the engine reports it
+    this.inProgress.add(key);
+    const cell = this.evaluate(formula);
+    this.inProgress.delete(key);
+    this.done.set(key, cell);
+    return cell;
+  }
+
+  /** A cell as a formula reads it: a plain value, or a formula's finite number. */
+  private read(r: number, c: number): Shown {
+    const v = this.rows[r]?.[c];
+    if (typeof v === "string" && v.startsWith("=")) {
+      const cell = this.formulaAt(r, c, v);
+      if (cell.error !== undefined || typeof cell.value !== "number") throw new OutsideSubset();
+      return cell.value;
     }
-    const value = argumentValue(arg, params[k], rows);
-    if (value === undefined) return undefined;
-    values.push(value);
+    return plainValue(v);
   }
-  let result: CellResult;
-  try {
-    result = adapter(...values);
-  } catch {
-    return undefined;
-  }
-  return shownResult(result);
-}
 
-function argumentValue(arg: Argument, param: FunctionMetadata["parameters"][number], rows: Contents[][]): unknown {
-  if (param.dimensionality === "matrix") return arg.kind === "range" ? rangeValues(arg, rows) : undefined;
-  if (param.type === "number") return arg.kind === "number" ? arg.value : undefined;
-  if (param.type === "string") return arg.kind === "text" ? arg.value : undefined;
-  return undefined;
-}
-
-/** The rectangle's cells, row by row, blanks as null: what the engine hands the adapter. */
-function rangeValues(range: Extract<Argument, { kind: "range" }>, rows: Contents[][]): unknown[][] | undefined {
-  const out: unknown[][] = [];
-  for (let r = range.top; r <= range.bottom; r++) {
-    const row = rows[r];
-    const values: unknown[] = [];
-    for (let c = range.left; c <= range.right; c++) {
-      const v = row?.[c];
-      if (typeof v === "string" && v.startsWith("=")) return undefined; // a formula's result: the engine orders that
-      const plain = plainValue(v);
-      if (plain === undefined) return undefined;
-      values.push(plain);
+  private evaluate(formula: string): ShownCell {
+    // The engine reads the formula after normaliseFormula; the subset is one it leaves unchanged.
+    if (normaliseFormula(formula) !== formula) throw new OutsideSubset();
+    const call = parseCall(formula);
+    if (!call) throw new OutsideSubset();
+    const { byId, adapters, spills } = this.functions;
+    const fn = byId.get(call.name);
+    const adapter = adapters[call.name];
+    if (!fn || !adapter || spills.has(call.name)) throw new OutsideSubset();
+    const params = fn.parameters;
+    if (call.args.length > params.length) throw new OutsideSubset();
+    if (params.slice(call.args.length).some((p) => !p.optional)) throw new OutsideSubset();
+    // A missing optional argument reaches the adapter as null, as from the engine.
+    const values = params.map((param, k) => (call.args[k] === undefined ? null : this.argumentValue(call.args[k], param)));
+    let result: CellResult;
+    try {
+      result = adapter(...values);
+    } catch {
+      throw new OutsideSubset();
     }
-    out.push(values);
+    return shownResult(result);
   }
-  return out;
+
+  private argumentValue(arg: Argument, param: FunctionMetadata["parameters"][number]): unknown {
+    if (param.dimensionality === "matrix" && arg.kind === "range") return this.rangeValues(arg);
+    if (param.dimensionality !== "matrix" && param.type === "number") {
+      if (arg.kind === "number") return arg.value;
+      // One cell holding a number (or a formula's number): the engine passes that number.
+      if (arg.kind === "range" && arg.top === arg.bottom && arg.left === arg.right) {
+        const v = this.read(arg.top, arg.left);
+        if (typeof v === "number") return v;
+      }
+    }
+    if (param.dimensionality !== "matrix" && param.type === "string" && arg.kind === "text") return arg.value;
+    throw new OutsideSubset();
+  }
+
+  /** The rectangle's cells, row by row, blanks as null: what the engine hands the adapter. */
+  private rangeValues(range: Extract<Argument, { kind: "range" }>): unknown[][] {
+    const out: unknown[][] = [];
+    for (let r = range.top; r <= range.bottom; r++) {
+      const values: unknown[] = [];
+      for (let c = range.left; c <= range.right; c++) values.push(this.read(r, c));
+      out.push(values);
+    }
+    return out;
+  }
 }
 
-function shownResult(result: CellResult): ShownCell | undefined {
+function shownResult(result: CellResult): ShownCell {
   if (isCellFailure(result)) {
-    if (!ENGINE_ERROR_CODES.has(result.cellError)) return undefined;
+    if (!ENGINE_ERROR_CODES.has(result.cellError)) throw new OutsideSubset();
     const { value, message } = standardError(result.cellError, result.message);
     return { value, error: value, ...(message ? { message } : {}) };
   }
-  if (typeof result === "number") return Number.isFinite(result) ? { value: result === 0 ? 0 : result } : undefined;
+  if (typeof result === "number" && Number.isFinite(result)) return { value: result === 0 ? 0 : result };
   if (typeof result === "string" || typeof result === "boolean") return { value: result };
-  return undefined;
+  throw new OutsideSubset();
 }
 
 /** =BRITTLE.NAME(a,b,...) split into its arguments, or undefined for any other formula. */

@@ -61,9 +61,12 @@ describe("taken directly, with the engine's results", () => {
     ["a range reaching past the data (blanks)", ["=BRITTLE.MODULUS(A2:A40)"]],
     ["number literals, negative ones too", ["=BRITTLE.FAILPROB(300,10,400)", "=BRITTLE.FAILPROB(-5,10,400)", "=BRITTLE.DESIGNSTRESS(0.999,10,400,40)"]],
     ["a single cell as a range", ["=BRITTLE.MODULUS(A2)"]],
+    ["one cell holding a number as a number argument", ["=BRITTLE.FAILPROB(A2,10,400)"]],
     ["a method the function does not know", ['=BRITTLE.MODULUS(A2:A7,C2:C7,"NEWTON")']],
     ["a range holding the header text", ["=BRITTLE.MODULUS(A1:A7)"]],
     ["a range of blanks only", ["=BRITTLE.MODULUS(Z2:Z9)"]],
+    ["ranges and number arguments reading formula cells, in a chain", ["=BRITTLE.MODULUS(A2:A7)", "=BRITTLE.CHARSTRENGTH(A2:A7)", "=BRITTLE.DESIGNSTRESS(0.999,B1,B2,40)", "=BRITTLE.FAILPROB(B3,B1,B2)", "=BRITTLE.MODULUS(B1:B2)"]],
+    ["a formula read before its own row is reached", ["=BRITTLE.FAILPROB(B7,10,400)", "", "", "", "", "", "=BRITTLE.CHARSTRENGTH(A2:A7)"]],
   ];
   for (const [name, formulas] of cases) {
     it(name, () => {
@@ -91,7 +94,12 @@ describe("taken directly, with the engine's results", () => {
 
 describe("left to the engine", () => {
   const declined: [string, string][] = [
-    ["a reference to a formula cell", column("1", "2", "3", "=BRITTLE.MODULUS(A1:A3)", "=BRITTLE.MODULUS(A1:A4)")],
+    ["a range reaching a formula cell whose result is an error", column("410", "=BRITTLE.MODULUS(A1)", "=BRITTLE.MODULUS(A1:A2)")],
+    ["a number argument from a formula cell whose result is an error", column("410", "=BRITTLE.MODULUS(A1)", "=BRITTLE.FAILPROB(A2,10,400)")],
+    ["a circular reference", column("410", "388", "=BRITTLE.MODULUS(A1:A4)", "=BRITTLE.FAILPROB(A3,10,400)")],
+    ["a formula reading itself", column("410", "388", "=BRITTLE.MODULUS(A1:A3)")],
+    ["a number argument from a blank cell", "strength,other\n410,\n,\n\"=BRITTLE.FAILPROB(B2,10,400)\",\n"],
+    ["a number argument from a text cell", column("strength", "=BRITTLE.FAILPROB(A1,10,400)")],
     ["percent text in a range", '410\n"50%"\n395\n=BRITTLE.MODULUS(A1:A3)\n'],
     ["currency text", '410\n"$5"\n395\n=BRITTLE.MODULUS(A1:A3)\n'],
     ["a date as text", "410\n12/05/2020\n395\n=BRITTLE.MODULUS(A1:A3)\n"],
@@ -116,7 +124,6 @@ describe("left to the engine", () => {
     ["an exponent literal", column("=BRITTLE.FAILPROB(3e2,10,400)")],
     ["minus zero as a literal", column("=BRITTLE.FAILPROB(-0,10,400)")],
     ["a text literal with a doubled quote", column("410", "388", "395", '=BRITTLE.MODULUS(A1:A3,B1:B3,"a""b")')],
-    ["a cell given where a number belongs", column("410", "388", "=BRITTLE.FAILPROB(A1,10,400)")],
     ["a number given where a range belongs", column("=BRITTLE.MODULUS(5)")],
   ];
   for (const [name, text] of declined) {
@@ -129,6 +136,13 @@ describe("left to the engine", () => {
     const sheets = { Sheet: parseCsv("410\n388\n395\n=BRITTLE.MODULUS(A1:A3)") };
     expect(direct({ kind: "xlsx", sheets })).toBeUndefined();
     expect(direct({ kind: "csv", sheets, names: [{ name: "S", formula: "Sheet!$A$1:$A$3" } as never] })).toBeUndefined();
+  });
+});
+
+describe("the shipped example", () => {
+  it("examples/quick-check.csv (a design stress from the fitted cells) is taken, with the engine's results", () => {
+    const rows = readCsvBytes(readFileSync(join(import.meta.dirname, "..", "examples", "quick-check.csv"))).rows;
+    expect(crossCheck({ kind: "csv", sheets: { "quick-check": rows } })).toBe(true);
   });
 });
 
