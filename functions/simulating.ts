@@ -17,3 +17,7 @@ export const SIMULATING: readonly string[] = [
   "LOTCHECK",
   "MATERIALFIT",
 ];
+
+/** What the function reference and the help page say about a simulating function in the spreadsheet. */
+export const IN_THE_BACKGROUND =
+  "Simulates: in the spreadsheet it is computed in the background (the sheet stays usable meanwhile); editing its cell or its inputs, or recalculating by hand, cancels the run under way.";

@@ -10,7 +10,7 @@ import fc from "fast-check";
 import { beforeAll, describe, expect, it, vi } from "vitest";
 import { generateMetadata, type FunctionMetadata } from "../functions/metadata";
 import { adapters, guarded } from "../functions/registry";
-import { SIMULATING } from "../functions/simulating";
+import { IN_THE_BACKGROUND, SIMULATING } from "../functions/simulating";
 import { spillShapes } from "../functions/spill-shapes";
 import { runToEnd, withSliceHost } from "../src/numeric/replication-slices";
 import { fixture } from "./helpers";
@@ -83,13 +83,22 @@ async function freshModules() {
 describe("functions.json", () => {
   it("declares exactly the simulating functions cancelable, with their parameters and result shapes unchanged", () => {
     for (const f of metadata) {
-      const options = (f as { options?: { cancelable?: boolean } }).options;
-      expect(options?.cancelable === true, f.id).toBe(SIMULATING.includes(f.id));
+      expect(f.options?.cancelable === true, f.id).toBe(SIMULATING.includes(f.id));
       // The host passes the invocation after the declared parameters; office.ts finds it at the adapter's arity.
       if (SIMULATING.includes(f.id)) expect(adapters[f.id].length, f.id).toBe(f.parameters.length);
       expect(f.result.dimensionality === "matrix", f.id).toBe(f.id in spillShapes);
     }
     expect(Object.keys(CASES).sort()).toEqual([...SIMULATING].sort());
+  });
+
+  it("the function reference and the help page say which functions run in the background", async () => {
+    const { renderReference } = await import("../scripts/functions-reference");
+    const { renderHelpPage } = await import("../scripts/help-page");
+    const { families } = await import("../functions/registry");
+    const count = (text: string, part: string) => text.split(part).length - 1;
+    expect(count(renderReference(metadata), IN_THE_BACKGROUND)).toBe(SIMULATING.length);
+    const helpFamilies = families.map((f) => ({ title: f.title, ids: metadata.filter((m) => m.id in f.adapters).map((m) => m.id) }));
+    expect(count(renderHelpPage(metadata, helpFamilies, {}), "Simulates: in the spreadsheet")).toBe(SIMULATING.length);
   });
 });
 
