@@ -5,15 +5,19 @@
  * adapters in the same page, and within 1e-12 relative of the same adapters in Node (which the other suites
  * check against mpmath, scipy and the standards). Not exactly Node's: the browser's V8 rounds Math.log and
  * Math.exp differently in the last bit (seen: 14.985507187343634 in Chromium, 14.98550718734364 in Node 20).
- * A page whose worker file is missing (not deployed) must fall back to slices with the same values.
+ * A page whose worker file is missing (not deployed) must fall back to slices with the same values. And the
+ * real task pane page, built by vite with its Content-Security-Policy, registers them with a stand-in for the
+ * host's CustomFunctions and runs them on the worker.
  */
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createServer, type Server } from "node:http";
 import { mkdtemp, readFile, rm, writeFile } from "node:fs/promises";
 import { tmpdir } from "node:os";
-import { join, resolve } from "node:path";
+import { extname, join, normalize, resolve } from "node:path";
 import type { AddressInfo } from "node:net";
 import { build } from "esbuild";
+import { build as viteBuild } from "vite";
+import { OFFICE_JS_CDN } from "../scripts/deploy";
 import { chromium, type Browser } from "playwright-core";
 import { guarded } from "../functions/registry";
 import { CHROMIUM_ARGS, findChromium } from "./browser-launch";
@@ -43,6 +47,7 @@ window.cellCanceledAtOnce = async (name, args) => {
 window.threadsAvailable = () => (hostEnvironment().threads ? hostEnvironment().threads.available : null);
 `;
 
+const TYPES: Record<string, string> = { ".html": "text/html; charset=utf-8", ".js": "text/javascript", ".css": "text/css", ".png": "image/png" };
 let outDir = "";
 let server: Server;
 let baseUrl = "";
@@ -55,18 +60,23 @@ beforeAll(async () => {
   await build({ absWorkingDir: ROOT, entryPoints: ["functions/simulation-worker.ts"], bundle: true, format: "iife", target: "es2020", outfile: join(outDir, "simulation-worker.js"), logLevel: "warning" });
   await build({ absWorkingDir: ROOT, stdin: { contents: PAGE_ENTRY, resolveDir: ROOT, loader: "ts" }, bundle: true, format: "iife", target: "es2020", outfile: join(outDir, "page.js"), logLevel: "warning" });
   await writeFile(join(outDir, "index.html"), `<!doctype html><meta charset="utf-8"><script src="page.js"></script>`);
+  // The task pane as the add-in build makes it (vite), with the worker beside it.
+  const pane = join(outDir, "pane");
+  await viteBuild({ configFile: join(ROOT, "vite.config.ts"), logLevel: "silent", build: { outDir: pane, emptyOutDir: true } });
+  await build({ absWorkingDir: ROOT, entryPoints: ["functions/simulation-worker.ts"], bundle: true, format: "iife", target: "es2020", outfile: join(pane, "simulation-worker.js"), logLevel: "warning" });
   server = createServer(async (req, res) => {
-    const path = new URL(req.url ?? "/", "http://127.0.0.1").pathname;
+    const path = decodeURIComponent(new URL(req.url ?? "/", "http://127.0.0.1").pathname);
     requested.push(path);
-    // /with-worker/ serves everything; /without-worker/ serves the page but not the worker file.
-    const [, area, file] = /^\/(with-worker|without-worker)\/([\w.-]+)$/.exec(path) ?? [];
-    if (!area || (area === "without-worker" && file === "simulation-worker.js")) {
+    // /with-worker/ and /pane/ serve everything; /without-worker/ serves the page but not the worker file.
+    const [, area, rest] = /^\/(with-worker|without-worker|pane)\/(.+)$/.exec(path) ?? [];
+    const file = area ? normalize(join(outDir, area === "pane" ? "pane" : "", rest)) : "";
+    if (!area || !file.startsWith(outDir) || (area === "without-worker" && rest === "simulation-worker.js")) {
       res.writeHead(404).end("not found");
       return;
     }
     try {
-      const body = await readFile(join(outDir, file));
-      res.writeHead(200, { "content-type": file.endsWith(".html") ? "text/html; charset=utf-8" : "text/javascript" }).end(body);
+      const body = await readFile(file);
+      res.writeHead(200, { "content-type": TYPES[extname(file)] ?? "application/octet-stream" }).end(body);
     } catch {
       res.writeHead(404).end("not found");
     }
@@ -131,6 +141,42 @@ describe.skipIf(!found.executablePath)(`simulating functions in a browser page${
     await checkCases(page);
     expect(requested).toContain("/without-worker/simulation-worker.js");
     expect(await page.evaluate(() => (window as any).threadsAvailable())).toBe(false);
+    await page.close();
+  }, 300_000);
+
+  it("the task pane page registers them as cancelable promises that run on the worker, under its security policy", async () => {
+    const page = await browser.newPage();
+    const problems: string[] = [];
+    page.on("pageerror", (e) => problems.push(String(e)));
+    await page.route(`${new URL(OFFICE_JS_CDN).origin}/**`, (route) => route.abort()); // never the internet
+    // A stand-in for the host's CustomFunctions, there before the page's scripts run.
+    await page.addInitScript(() => {
+      const associated = new Map();
+      class HostError {
+        constructor(
+          public code: string,
+          public message?: string,
+        ) {}
+      }
+      (window as any).CustomFunctions = {
+        associate: (id: string, fn: unknown) => associated.set(id, fn),
+        Error: HostError,
+        ErrorCode: { invalidValue: "#VALUE!", invalidNumber: "#NUM!", notAvailable: "#N/A" },
+      };
+      (window as any).hostCall = async (id: string, args: unknown[]) => {
+        const value = await associated.get(id)(...args, {});
+        return value instanceof HostError ? { code: value.code, message: value.message } : value;
+      };
+    });
+    const before = requested.length;
+    await page.goto(`${baseUrl}/pane/taskpane.html`);
+    await page.waitForFunction(() => typeof (window as any).hostCall === "function");
+    const [name, args] = CASES[1];
+    expectClose(await page.evaluate(([n, a]) => (window as any).hostCall(n, a), [name, args] as const), guarded[name](...args), 1e-12, name);
+    expect(requested.slice(before)).toContain("/pane/simulation-worker.js");
+    const bad = await page.evaluate(() => (window as any).hostCall("MODULUS", [[[300], ["oops"], [320]], null, null]));
+    expect(bad).toEqual({ code: "#VALUE!", message: "strengths, row 2 is not a number" });
+    expect(problems).toEqual([]);
     await page.close();
   }, 300_000);
 });
