@@ -32,7 +32,10 @@ export function hostEnvironment(): CancelableEnvironment {
     typeof Worker === "function"
       ? new SimulationThreads(() => new Worker(WORKER_FILE) as unknown as ThreadLike, Math.min(4, Math.max(1, cores - 1)))
       : null;
-  shared = { threads, pause: () => new Promise((resume) => setTimeout(resume, 0)) };
+  // A zero-delay timer lets the host's queued events run (the custom-functions runtimes have timers: their streaming
+  // samples use setInterval); a bare promise would only let other promises run, still better than no pause at all.
+  const pause = typeof setTimeout === "function" ? () => new Promise<void>((resume) => setTimeout(resume, 0)) : () => Promise.resolve();
+  shared = { threads, pause };
   return shared;
 }
 
