@@ -12,7 +12,7 @@ import { generateMetadata, type FunctionMetadata } from "../functions/metadata";
 import { adapters, guarded } from "../functions/registry";
 import { IN_THE_BACKGROUND, SIMULATING } from "../functions/simulating";
 import { spillShapes } from "../functions/spill-shapes";
-import { runToEnd, withSliceHost } from "../src/numeric/replication-slices";
+import { withSliceHost } from "../src/numeric/replication-slices";
 import { fixture } from "./helpers";
 import { baselineCall, chaosCall } from "./properties-arbitraries";
 import { hostValue } from "./properties-policy";
@@ -103,10 +103,18 @@ describe("functions.json", () => {
 });
 
 describe("which functions simulate", () => {
-  /** How many simulations a call asks for (each still runs to its end). */
+  /** Whether a call asks for a simulation: the first request stops the call (the guarded adapter turns that into a failure). */
   function simulationsOf(fn: (...args: unknown[]) => unknown, args: unknown[]): number {
     let asked = 0;
-    withSliceHost({ simulation: (_what, _key, steps) => (asked++, runToEnd(steps())) }, () => fn(...args));
+    withSliceHost(
+      {
+        simulation: () => {
+          asked++;
+          throw new Error("a simulation was asked for");
+        },
+      },
+      () => fn(...args),
+    );
     return asked;
   }
 
