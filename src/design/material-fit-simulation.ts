@@ -73,8 +73,7 @@ export function simulateMaterialFit({
   const logTheta = laws.map((law) => logScale - law.logSize(m) / m);
   const sizes = fit.groups.map((g) => g.specimens);
   const range = searchRange(laws);
-  // Each data set is refitted three ways, each fit recomputing effective sizes: a slice is a few data sets.
-  const perSlice = replicationsPerSlice(200 * sizes.reduce((s, n) => s + n, 0));
+  const perSlice = replicationsPerSlice(16 * sizes.reduce((s, n) => s + n, 0));
   const { q, t, above1, above2 } = simulate("material fit", `${seed}|${replications}|${m}|${logTheta.join(",")}|${sizes.join(",")}`, function* () {
     const random = new SeededRandom(seed);
     const q: number[] = [];

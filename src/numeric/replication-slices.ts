@@ -55,11 +55,16 @@ export function withSliceHost<T>(sliceHost: SliceHost, body: () => T): T {
 }
 
 /**
- * How many replications make one slice: about SLICE_DRAWS random draws
- * (a few milliseconds), so that a host's events wait no longer than that.
+ * How many replications make one slice, from the cost of one replication in
+ * units of SLICE_UNITS per slice. Each loop states its cost (a multiple of its
+ * sample size), set so that a slice took 4 to 9 ms (medians) on a two-core
+ * machine under a load of 9, measured with a throwaway script: long enough
+ * that the pauses (a timer each, clamped to 1 to 4 ms by the runtimes) cost
+ * little, short enough that the host's events barely wait. The slices never
+ * change a value, only where the loop pauses.
  */
-const SLICE_DRAWS = 20000;
+const SLICE_UNITS = 20000;
 
-export function replicationsPerSlice(drawsPerReplication: number): number {
-  return Math.max(1, Math.floor(SLICE_DRAWS / Math.max(1, drawsPerReplication)));
+export function replicationsPerSlice(costPerReplication: number): number {
+  return Math.max(1, Math.floor(SLICE_UNITS / Math.max(1, costPerReplication)));
 }

@@ -91,7 +91,7 @@ export function bootstrapCensored({
   const logCombinedScale = Math.log(fit.scale) - Math.log1p(Math.exp(-logRatio)) / fit.shape;
   const inverseShape = 1 / fit.shape;
   // Each draw is ln s = ln th_c + ln(E)/m, E standard exponential; the fit needs only the logs.
-  const perSlice = replicationsPerSlice(2 * n);
+  const perSlice = replicationsPerSlice(n);
   // Everything the loop fills is created inside it and returned: a slice host may run it apart from this call.
   const { kept, shapeRatio, scaleLogError } = simulate("censored bootstrap", key, function* () {
     const random = new SeededRandom(seed);

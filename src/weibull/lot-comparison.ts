@@ -82,8 +82,7 @@ function nullStatistics(n1: number, n2: number): Float64Array {
   const hit = cache.get(key);
   if (hit) return hit;
   const n = n1 + n2;
-  // Three fits per replication: a slice is a few times fewer replications than draws alone would allow.
-  const perSlice = replicationsPerSlice(4 * n);
+  const perSlice = replicationsPerSlice(n);
   const sorted = simulate("lot check", key, function* () {
     const random = new SeededRandom((patternSeed(n1, [n2]) ^ SALT) >>> 0);
     const y = new Float64Array(n);

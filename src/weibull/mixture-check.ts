@@ -173,8 +173,7 @@ function oneReplication(random: SeededRandom, y: Float64Array, work: MixtureWork
 export function simulateMixtureStatistics(n: number): Float64Array {
   const hit = cache.get(n);
   if (hit) return hit;
-  // The mixture fit costs far more than the draws: a slice is a tenth of the usual replications.
-  const perSlice = replicationsPerSlice(10 * n);
+  const perSlice = replicationsPerSlice(20 * n);
   const sorted = simulate("mixture check", String(n), function* () {
     const random = new SeededRandom((patternSeed(n, []) ^ SALT) >>> 0);
     const y = new Float64Array(n);

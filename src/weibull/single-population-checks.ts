@@ -172,7 +172,7 @@ export function simulateCheckStatistics(n: number): NullDistribution {
   const positions = plottingPositions({ strengths: Array.from({ length: n }, (_, i) => i + 1) });
   const y = Float64Array.from(positions, (p) => p.y);
   const w = plotWeights(positions.map((p) => p.failureProbability));
-  const perSlice = replicationsPerSlice(4 * n);
+  const perSlice = replicationsPerSlice((3 * n) / 4);
   const statistics = simulate("single-population checks", key, function* () {
     const random = new SeededRandom((patternSeed(n, []) ^ SALT) >>> 0);
     const draw = new Float64Array(n);
@@ -204,7 +204,7 @@ export function bootstrapCheckStatistics(sample: StrengthSample): NullDistributi
   const fit = fitMaximumLikelihood(sample);
   const n = strengths.length;
   const inverseShape = 1 / fit.shape;
-  const perSlice = replicationsPerSlice(4 * n);
+  const perSlice = replicationsPerSlice(3 * n);
   const statistics = simulate("single-population checks of a censored sample", key, function* () {
     const random = new SeededRandom((dataSeed(strengths, censored) ^ SALT) >>> 0);
     const drawn = new Float64Array(n);
