@@ -38,6 +38,23 @@ const GENERIC_OPTIMISER = 1e-4;
 // Sums of the same terms in another order (or with compensation on one side only).
 const SAME_SUM = 1e-12;
 
+/**
+ * The goals of the speed work as ratios (peer time / our time), by row id and peer: at least 10x
+ * a numpy Newton solve at n <= 100 and 1x from 10^3 to 10^6, 1000x scipy's generic fit, 4x numpy
+ * on the PIA sum, 2x pyarrow + numpy end to end, start-up at most 4x node's, the 1000-line sheet
+ * at least as fast as the numpy script.
+ */
+const GOALS: Record<string, number> = {
+  "fit-30 numpy Newton": 10,
+  "fit-30 scipy weibull_min.fit": 1000,
+  "fit-1000 numpy Newton": 1,
+  "fit-1e6 numpy Newton": 1,
+  "pia numpy": 4,
+  "part pyarrow CSV + numpy": 2,
+  "calc-start node -e 0": 0.25,
+  "calc-sheet numpy script": 1,
+};
+
 const NODE = process.execPath;
 const BRITTLE = ["bin/brittle.js"];
 
@@ -62,6 +79,7 @@ async function race<T>(
     ours: strip(ours),
     peers: peers.map((p) => ({
       peer: p.name,
+      goal: GOALS[`${row.id} ${p.name}`],
       timing: strip(p),
       ratio: p.seconds / ours.seconds,
       roundRatios: roundRatios(p.times, ours.times),

@@ -36,6 +36,8 @@ export interface PeerFigure {
   timing: Spread;
   /** Peer median / our median: above 1, the project is faster. */
   ratio: number;
+  /** The ratio the speed work aims for, where one is set. */
+  goal?: number;
   /** Ratios of the same round's turns: lowest, median, highest. */
   roundRatios: { lowest: number; median: number; highest: number };
   agreement: Agreement;
@@ -93,6 +95,7 @@ export interface BenchRecord {
 }
 
 const timing = (t: Spread) => `${formatSeconds(t.seconds)} (${formatSeconds(t.fastest)}-${formatSeconds(t.slowest)})`;
+const goalText = (p: PeerFigure) => (p.goal === undefined ? "" : `>= ${ratioText(p.goal)} ${p.ratio >= p.goal ? "met" : "not met"}`);
 const ratioText = (r: number) => (r >= 100 ? r.toFixed(0) : r >= 10 ? r.toFixed(1) : r.toFixed(2));
 
 function columns(widths: number[]) {
@@ -104,19 +107,19 @@ export function textReport(record: BenchRecord): string {
   const { rounds, warmUps } = record.options;
   out.push(`Side by side (medians of alternating rounds after ${warmUps} untimed warm-up round on every side: ${rounds.short} rounds, long rows ${rounds.long}; fastest-slowest in brackets;`);
   out.push("ratio = peer time / our time, above 1 means the project is faster; range = lowest-highest ratio within one round)");
-  const widths = [46, 30, 22, 30, 6, 12];
+  const widths = [46, 30, 22, 30, 6, 12, 16];
   const line = columns(widths);
-  out.push(line(["path", "ours", "peer", "peer time", "ratio", "range", "agreement"]));
+  out.push(line(["path", "ours", "peer", "peer time", "ratio", "range", "goal", "agreement"]));
   out.push(line([...widths.map((w) => "-".repeat(w)), "---------"]));
   for (const row of record.paired) {
     if (row.error || !row.ours) {
-      out.push(line([row.path, "ERROR", "", "", "", "", row.error ?? "no timing"]));
+      out.push(line([row.path, "ERROR", "", "", "", "", "", row.error ?? "no timing"]));
       continue;
     }
-    if (row.peers.length === 0) out.push(line([row.path, timing(row.ours), "no peer", "", "", "", ""]));
+    if (row.peers.length === 0) out.push(line([row.path, timing(row.ours), "no peer", "", "", "", "", ""]));
     row.peers.forEach((p, i) => {
       const range = `${ratioText(p.roundRatios.lowest)}-${ratioText(p.roundRatios.highest)}`;
-      out.push(line([i === 0 ? row.path : "", i === 0 ? timing(row.ours!) : "", p.peer, timing(p.timing), ratioText(p.ratio), range, describeAgreement(p.agreement)]));
+      out.push(line([i === 0 ? row.path : "", i === 0 ? timing(row.ours!) : "", p.peer, timing(p.timing), ratioText(p.ratio), range, goalText(p), describeAgreement(p.agreement)]));
     });
   }
   const disagreements = record.paired.flatMap((r) => r.peers.filter((p) => p.agreement.ok === false).map((p) => `${r.path} against ${p.peer}`));
@@ -135,7 +138,7 @@ export function textReport(record: BenchRecord): string {
       out.push(`  n = ${a.n.toLocaleString("en-US")}: ${sides.join("; ")}; ${reference}`);
     }
   }
-  out.push("", machineLine(record));
+  out.push("", `${machineLine(record)} The run took ${record.seconds.toFixed(0)} s.`);
   for (const n of record.notes) out.push(n);
   out.push("Data: seeded and invented (modulus 10, characteristic strength 400; an invented element table).");
   return out.join("\n") + "\n";
@@ -145,7 +148,9 @@ function machineLine(record: BenchRecord): string {
   const m = record.machine;
   const peers = m.peers ? Object.entries(m.peers).filter(([k]) => k !== "mpmathBackend").map(([k, v]) => `${k} ${v}`).join(", ") : "no python peers";
   const load = (l?: number[]) => (l ? l.map((x) => x.toFixed(1)).join(" ") : "?");
-  return `Machine: ${m.cpuModel}, ${m.cpus} cores, ${m.memoryGB.toFixed(0)} GB, ${m.platform}; node ${m.node}; ${peers}. Load average ${load(m.loadAtStart)} at the start, ${load(m.loadAtEnd)} at the end; run took ${record.seconds.toFixed(0)} s.`;
+  const { only, quick } = record.options;
+  const options = [quick ? "BENCH_QUICK=1" : "", only.length ? `BENCH_ONLY=${only.join(",")}` : ""].filter(Boolean).join(", ");
+  return `Machine: ${m.cpuModel}, ${m.cpus} cores, ${m.memoryGB.toFixed(0)} GB, ${m.platform}; node ${m.node}; ${peers}. Load average ${load(m.loadAtStart)} at the start, ${load(m.loadAtEnd)} at the end${options ? `; ${options}` : ""}.`;
 }
 
 /** The ratios as a markdown table to paste into the README, with the machine and the date they belong to. */
@@ -154,16 +159,16 @@ export function markdownTable(record: BenchRecord): string {
   out.push(`Measured by \`npm run bench\` on ${record.date.slice(0, 10)}. ${machineLine(record)}`);
   out.push(`Ratio = peer time / brittle time in the same run (above 1: brittle is faster): medians of ${record.options.rounds.short} alternating rounds (${record.options.rounds.long} for the long rows), range = lowest-highest ratio within one round.`);
   out.push("");
-  out.push("| path | peer | ratio | range | same result |");
-  out.push("|---|---|---|---|---|");
+  out.push("| path | peer | ratio | range | goal | same result |");
+  out.push("|---|---|---|---|---|---|");
   for (const row of record.paired) {
     if (row.error || !row.ours) {
-      out.push(`| ${row.path} | | not measured | | ${row.error ?? ""} |`);
+      out.push(`| ${row.path} | | not measured | | | ${row.error ?? ""} |`);
       continue;
     }
     for (const p of row.peers) {
       const same = p.agreement.ok === null ? "not checked" : !p.agreement.ok ? "**NO**" : p.agreement.largest === 0 ? "yes, identical" : `yes, to ${p.agreement.largest?.toExponential(0)}`;
-      out.push(`| ${row.path} | ${p.peer} | ${ratioText(p.ratio)} | ${ratioText(p.roundRatios.lowest)}-${ratioText(p.roundRatios.highest)} | ${same} |`);
+      out.push(`| ${row.path} | ${p.peer} | ${ratioText(p.ratio)} | ${ratioText(p.roundRatios.lowest)}-${ratioText(p.roundRatios.highest)} | ${goalText(p)} | ${same} |`);
     }
   }
   return out.join("\n") + "\n";

@@ -13,10 +13,15 @@ import { guarded } from "../functions/registry";
 import { readPartTable } from "../src/size/part-stream";
 import { parameterBounds } from "../src/weibull/confidence-bounds";
 import { elementCsv, elementTable, weibullSample } from "./datasets";
-import { median } from "./measure";
+import { median, type Spread } from "./measure";
 import type { SoloRow } from "./report";
 
 type Section = (quick: boolean) => Promise<SoloRow[]>;
+
+/** The timing without the task's result (a workbook or an engine is no figure, and may not even serialise). */
+function figures({ seconds, fastest, slowest, times }: Spread): Spread {
+  return { seconds, fastest, slowest, times };
+}
 
 const count = (n: number) => n.toLocaleString("en-US");
 
@@ -25,24 +30,24 @@ async function bounds(): Promise<SoloRow[]> {
   for (const n of [30, 1000, 1_000_000]) {
     const strengths = Array.from(weibullSample(n, n));
     const t = await median(n < 100_000 ? 7 : 3, () => parameterBounds({ strengths, confidence: 0.9 }));
-    rows.push({ task: `bounds on m and s_theta (90 %), n = ${count(n)}`, ours: t, note: `pivotal ${t.result.source.kind}` });
+    rows.push({ task: `bounds on m and s_theta (90 %), n = ${count(n)}`, ours: figures(t), note: `pivotal ${t.result.source.kind}` });
   }
   // Simulations keep their results for the same data: every run gets a new sample, as a new data set would.
   let seed = 100;
   const fresh = () => Array.from(weibullSample(30, seed++));
   const censoredFlags = Array.from({ length: 30 }, (_, i) => i % 5 === 0);
   const c = await median(5, () => parameterBounds({ strengths: fresh(), censored: censoredFlags, confidence: 0.9 }));
-  rows.push({ task: "bounds, n = 30 with 6 censored", ours: c, note: `pivotal ${c.result.source.kind}${c.result.source.replications ? `, ${c.result.source.replications} replications` : ""}` });
+  rows.push({ task: "bounds, n = 30 with 6 censored", ours: figures(c), note: `pivotal ${c.result.source.kind}${c.result.source.replications ? `, ${c.result.source.replications} replications` : ""}` });
   // The single-population checks simulate once per sample size and censoring pattern, then reuse it.
   const first = await median(1, () => guarded.FIT(Array.from(weibullSample(31, 31), (x) => [x])), false);
-  rows.push({ task: "FIT table cell, first call at n = 31", ours: first, note: "bounds, A*, simulated single-population checks" });
+  rows.push({ task: "FIT table cell, first call at n = 31", ours: figures(first), note: "bounds, A*, simulated single-population checks" });
   const fit = await median(5, () => guarded.FIT(fresh().map((x) => [x])));
-  rows.push({ task: "FIT table cell, n = 30, new data each run", ours: fit, note: "simulation reused for the same n" });
+  rows.push({ task: "FIT table cell, n = 30, new data each run", ours: figures(fit), note: "simulation reused for the same n" });
   const cm = await median(5, () => guarded.MODULUS(fresh().map((x) => [x]), censoredFlags.map((f) => [f])));
-  rows.push({ task: "MODULUS cell, n = 30 with 6 censored (default MLE)", ours: cm, note: "simulated unbiasing factor" });
+  rows.push({ task: "MODULUS cell, n = 30 with 6 censored (default MLE)", ours: figures(cm), note: "simulated unbiasing factor" });
   const column = Array.from(weibullSample(1000, 1000), (x) => [x]);
   const cell = await median(50, () => guarded.MODULUS(column, null, "MLE-RAW"));
-  rows.push({ task: "MODULUS cell (guarded adapter), n = 1,000", ours: cell, note: "range reading + fit" });
+  rows.push({ task: "MODULUS cell (guarded adapter), n = 1,000", ours: figures(cell), note: "range reading + fit" });
   return rows;
 }
 
@@ -57,7 +62,7 @@ async function streaming(): Promise<SoloRow[]> {
     const t = await median(3, () => readPartTable(chunks, { shape: 10 }));
     rows.push({
       task: `stream a 2^20-row element CSV from memory, ${digits ? `${digits} digits` : "full doubles"} (${(bytes / 1e6).toFixed(0)} MB)`,
-      ours: t,
+      ours: figures(t),
       note: `${(elements / t.seconds / 1e6).toFixed(1)} M rows/s, ${(bytes / 1e6 / t.seconds).toFixed(0)} MB/s, parse + PIA sum`,
     });
   }
@@ -71,8 +76,8 @@ async function demo(): Promise<SoloRow[]> {
   const workbook = await loadWorkbook(DEMO_INPUT);
   const evaluate = await median(5, () => evaluateWorkbook(structuredClone(workbook), functions));
   return [
-    { task: "demo workbook end to end (load, metadata, write)", ours: whole, note: DEMO_INPUT },
-    { task: "demo workbook, evaluation only", ours: evaluate, note: `${evaluate.result.formulas.length} formulas` },
+    { task: "demo workbook end to end (load, metadata, write)", ours: figures(whole), note: DEMO_INPUT },
+    { task: "demo workbook, evaluation only", ours: figures(evaluate), note: `${evaluate.result.formulas.length} formulas` },
   ];
 }
 
@@ -84,7 +89,7 @@ async function fullColumn(quick: boolean): Promise<SoloRow[]> {
   data[0].push('=BRITTLE.MODULUS(A:A, , "MLE-RAW")');
   try {
     const t = await median(1, () => createEngine({ Column: data }, functions).getCellValue({ sheet: 0, row: 0, col: 1 }), false);
-    return [{ task: `${count(rows)} rows through MODULUS (engine, 1 run)`, ours: t, note: `m = ${String(t.result)}` }];
+    return [{ task: `${count(rows)} rows through MODULUS (engine, 1 run)`, ours: figures(t), note: `m = ${String(t.result)}; ${rss()}` }];
   } catch (error) {
     // What the engine does once its sheet limit is raised: the same registration and options plus maxRows.
     registerFunctions(functions);
@@ -96,8 +101,10 @@ async function fullColumn(quick: boolean): Promise<SoloRow[]> {
       return value;
     }, false);
     const m = typeof t.result === "number" ? t.result.toPrecision(10) : String(t.result);
-    return [{ task: `${count(rows)} rows, MODULUS, engine + maxRows (1 run)`, ours: t, note: `m = ${m}; createEngine: ${(error as Error).message.split("\n")[0]}` }];
+    return [{ task: `${count(rows)} rows, MODULUS, engine + maxRows (1 run)`, ours: figures(t), note: `m = ${m}; ${rss()}; createEngine: ${(error as Error).message.split("\n")[0]}` }];
   }
 }
+
+const rss = () => `resident memory ${(process.memoryUsage().rss / 1e9).toFixed(1)} GB`;
 
 export const SOLO_SECTIONS: Record<string, Section> = { bounds, streaming, demo, "full-column": fullColumn };
