@@ -33,6 +33,8 @@ export interface Turn<T> {
 export interface Contender<T> {
   name: string;
   turn: () => Promise<Turn<T>>;
+  /** Calls timed together in the last turn, when more than one. */
+  calls?: () => number;
 }
 
 export interface Outcome<T> extends Spread {
@@ -70,6 +72,29 @@ export function roundRatios(peer: readonly number[], ours: readonly number[]): {
   if (peer.length !== ours.length || peer.length === 0) throw new Error("roundRatios: both sides need the same rounds");
   const { seconds, fastest, slowest } = summarize(peer.map((p, i) => p / ours[i]));
   return { lowest: fastest, median: seconds, highest: slowest };
+}
+
+/**
+ * A contender whose turns last about `seconds` however fast it is. The first turn (the warm-up)
+ * makes `firstCalls` calls, the same number on every side; every later turn makes enough calls to
+ * last about `seconds` at the time per call of the turn before (after the warm-up, the JavaScript
+ * engine has compiled the code and a call gets much faster). On a shared machine, turns of equal
+ * length see the same share of the processor: a turn far shorter than the scheduler's time slice
+ * would run either whole or not at all.
+ */
+export function lasting<T>(name: string, seconds: number, firstCalls: number, run: (calls: number) => Promise<Turn<T>>): Contender<T> {
+  let next = firstCalls;
+  let last = 0;
+  return {
+    name,
+    calls: () => last,
+    turn: async () => {
+      last = next;
+      const turn = await run(last);
+      next = Math.max(1, Math.min(1e7, Math.round(seconds / turn.seconds)));
+      return turn;
+    },
+  };
 }
 
 /** Times `calls` calls of `task` together and returns the time per call (a single call at n = 30 is too short to time alone). */

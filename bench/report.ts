@@ -50,7 +50,7 @@ export interface PairedRow {
   peers: PeerFigure[];
   rounds: number;
   warmUps: number;
-  /** Calls timed together in one turn, per side (the time is per call). */
+  /** Calls timed together in the last turn, per side (the time is per call; bench/measure.ts `lasting`). */
   callsPerTurn: Record<string, number>;
   /** What the side runs, e.g. the command line. */
   how: string;

@@ -2,7 +2,7 @@
 // turns count, how medians, spreads and round ratios are formed, and when two results agree.
 // No timing is measured or asserted: the contenders report made-up durations.
 import { describe, expect, it } from "vitest";
-import { alternate, roundRatios, summarize, type Contender } from "../bench/measure";
+import { alternate, lasting, roundRatios, summarize, type Contender } from "../bench/measure";
 import { agreement, describeAgreement } from "../bench/report";
 
 /** A contender that logs its turns and reports the durations it is given, one per turn. */
@@ -36,6 +36,32 @@ describe("alternate", () => {
 
   it("refuses zero rounds", async () => {
     await expect(alternate([scripted("ours", [1], [])], 0)).rejects.toThrow(/at least one/);
+  });
+});
+
+describe("lasting", () => {
+  it("makes the first (warm-up) turn with the given calls, then enough calls to fill the turn length", async () => {
+    const asked: number[] = [];
+    // A side that reports 10 ms a call in the warm-up, then 2 ms: turns of 0.1 s need 10 calls, then 50.
+    const perCall = [0.01, 0.002, 0.002, 0.002];
+    const side = lasting("peer", 0.1, 7, async (calls) => {
+      asked.push(calls);
+      return { seconds: perCall[asked.length - 1], result: calls };
+    });
+    expect(side.calls?.()).toBe(0);
+    for (let i = 0; i < 4; i++) await side.turn();
+    expect(asked).toEqual([7, 10, 50, 50]);
+    expect(side.calls?.()).toBe(50);
+  });
+  it("makes at least one call when a single call outlasts the turn", async () => {
+    const asked: number[] = [];
+    const side = lasting("ours", 0.1, 1, async (calls) => {
+      asked.push(calls);
+      return { seconds: 0.4, result: 0 };
+    });
+    await side.turn();
+    await side.turn();
+    expect(asked).toEqual([1, 1]);
   });
 });
 
