@@ -128,7 +128,7 @@ export function textReport(record: BenchRecord): string {
   if (record.solo.length) {
     out.push("", "The project alone (no peer; median of several runs after one warm-up, fastest-slowest in brackets)");
     const solo = columns([56, 30]);
-    for (const r of record.solo) out.push(solo([r.task, r.ours ? timing(r.ours) : "ERROR", r.error ?? r.note]));
+    for (const r of record.solo) out.push(solo([r.task, r.ours ? timing(r.ours) : r.error ? "ERROR" : "-", r.error ?? r.note]));
   }
   if (record.accuracy.length) {
     out.push("", "Accuracy of the ML fit against a 40-digit mpmath solution of the likelihood equations (relative errors)");
