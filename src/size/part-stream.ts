@@ -38,7 +38,6 @@ import {
   QUOTE,
   decodeAscii,
   fastNumber,
-  fastStop,
   fieldEnd,
   nextFieldStart,
   parseNumber,
@@ -385,16 +384,15 @@ export class PartTableReader {
           i++;
         }
       } else {
-        const v = fastNumber(buf, i, end, delimiter, decimal);
-        if (v !== v) return -1;
-        i = fastStop;
-        if (slot < k) raw[row * k + slot] = v;
-        else if (slot === k) {
-          if (!(v >= 0)) return -1;
-          this.sizes[row] = v;
+        if (slot < k) {
+          i = fastNumber(buf, i, end, delimiter, decimal, raw, row * k + slot);
+          if (i < 0) return -1;
+        } else if (slot === k) {
+          i = fastNumber(buf, i, end, delimiter, decimal, this.sizes, row);
+          if (i < 0 || !(this.sizes[row] >= 0)) return -1;
         } else {
-          if (!Number.isSafeInteger(v)) return -1;
-          this.idNumbers[row] = v;
+          i = fastNumber(buf, i, end, delimiter, decimal, this.idNumbers, row);
+          if (i < 0 || !Number.isSafeInteger(this.idNumbers[row])) return -1;
           if (this.idTexts) this.idTexts[row] = null;
         }
       }
