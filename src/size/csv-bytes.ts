@@ -185,7 +185,7 @@ export function splitFields(buf: Uint8Array, start: number, end: number, delimit
  * after the number, or -1 for anything else (spaces, quotes, the other mark,
  * long mantissas, junk, a decimal exactly between two doubles), and the
  * caller then takes the general path, which gives the same value or the
- * error message. `decimal` is '.' or ',' once the file's mark is settled, -1
+ * error message; -0 gives 0. `decimal` is '.' or ',' once the file's mark is settled, -1
  * before (whole numbers only). Only small integers cross the calls, so
  * nothing is boxed per number.
  */
@@ -277,6 +277,7 @@ export function fastNumber(
   }
   if (i < end && b !== delimiter && b !== CR && b !== LF) return -1;
   if (!decimalInto(first, second, third, count, scale, out, at)) return -1;
-  if (negative) out[at] = -out[at];
+  // -0 reads as 0, as on the general path (docs/files-and-formats.md).
+  if (negative && out[at] !== 0) out[at] = -out[at];
   return i;
 }
