@@ -46,26 +46,29 @@ const scratch = new Float64Array(1);
 const scratchBits = new Uint32Array(scratch.buffer);
 const HIGH = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1 ? 1 : 0;
 
-/** 10^q as th + tl for q in [-250, 250], built on first use (about a millisecond). */
-let tenHigh: Float64Array | null = null;
-let tenLow: Float64Array | null = null;
-/** The high part split in two 26-bit halves (Dekker), stored so the hot path does not split it again. */
-let tenHighTop: Float64Array | null = null;
-let tenHighBottom: Float64Array | null = null;
+/**
+ * 10^q as th + tl for q in [-250, 250], th also split in two 26-bit halves (Dekker) so the hot
+ * path need not split it again. Filled on first use (BigInt arithmetic, some milliseconds: not at
+ * start-up); constant arrays, so the hot path loads from them without a check of what they are.
+ */
+const POWERS = 2 * 250 + 1;
+const tenHigh = new Float64Array(POWERS);
+const tenLow = new Float64Array(POWERS);
+const tenHighTop = new Float64Array(POWERS);
+const tenHighBottom = new Float64Array(POWERS);
+let powersBuilt = false;
 /** Half a unit in the last place of a double with biased exponent E: 2^(E - 1076), E = 1..2046. */
 const HALF_ULP = new Float64Array(2048);
 for (let e = 54; e < 2047; e++) HALF_ULP[e] = 2 ** (e - 1076);
 
 function buildPowers(): void {
-  const n = 2 * MAX_DECIMAL_EXPONENT + 1;
-  const hi = new Float64Array(n);
-  const lo = new Float64Array(n);
   for (let q = -MAX_DECIMAL_EXPONENT; q <= MAX_DECIMAL_EXPONENT; q++) {
+    const k = q + MAX_DECIMAL_EXPONENT;
     if (q >= 0) {
       const exact = 10n ** BigInt(q);
       const h = Number(exact); // BigInt to Number rounds to nearest (ECMAScript 21.1.1.1)
-      hi[q + MAX_DECIMAL_EXPONENT] = h;
-      lo[q + MAX_DECIMAL_EXPONENT] = Number(exact - BigInt(h));
+      tenHigh[k] = h;
+      tenLow[k] = Number(exact - BigInt(h));
     } else {
       // h = mantissa x 2^-s exactly; 10^q - h = (2^s - mantissa 10^-q) / (10^-q 2^s), to about one ulp of itself.
       const h = Number(`1e${q}`);
@@ -78,21 +81,14 @@ function buildPowers(): void {
       // The quotient times 2^(s + 120) (about 2^119 at most, as h is near 2^(52 - s)), truncated, then one
       // rounding to double and an exact power-of-two scaling: within an ulp of the low part.
       const scaled = (numerator << BigInt(s + 120)) / denominator;
-      hi[q + MAX_DECIMAL_EXPONENT] = h;
-      lo[q + MAX_DECIMAL_EXPONENT] = Number(scaled) * 2 ** -(s + 120);
+      tenHigh[k] = h;
+      tenLow[k] = Number(scaled) * 2 ** -(s + 120);
     }
+    const a = SPLIT * tenHigh[k];
+    tenHighTop[k] = a - (a - tenHigh[k]);
+    tenHighBottom[k] = tenHigh[k] - tenHighTop[k];
   }
-  const top = new Float64Array(n);
-  const bottom = new Float64Array(n);
-  for (let k = 0; k < n; k++) {
-    const a = SPLIT * hi[k];
-    top[k] = a - (a - hi[k]);
-    bottom[k] = hi[k] - top[k];
-  }
-  tenHigh = hi;
-  tenLow = lo;
-  tenHighTop = top;
-  tenHighBottom = bottom;
+  powersBuilt = true;
 }
 
 /**
@@ -140,31 +136,27 @@ export function decimalInto(
     }
   }
   if (scale > MAX_DECIMAL_EXPONENT || scale < -MAX_DECIMAL_EXPONENT) return false;
-  // M exactly as mh + ml, by two of Knuth's TwoSum.
-  let mh = m;
-  let ml = 0;
-  if (m >= TWO53) {
-    const s = a + b;
-    const sv = s - a;
-    const se = a - (s - sv) + (b - sv);
-    const t = s + c;
-    const tv = t - s;
-    const te = s - (t - tv) + (c - tv);
-    const low = se + te; // two integers below 2^12: exact
-    mh = t + low;
-    ml = low - (mh - t);
+  // M exactly as mh + ml by two of Knuth's TwoSum (below 2^53 the errors are 0 and mh = M).
+  const s = a + b;
+  const sv = s - a;
+  const se = a - (s - sv) + (b - sv);
+  const t = s + c;
+  const tv = t - s;
+  const te = s - (t - tv) + (c - tv);
+  const low = se + te; // two integers below 2^12: exact
+  const mh = t + low;
+  const ml = low - (mh - t);
+  if (scale === 0) {
     // A whole number: mh is M rounded once, to nearest even (exact ties included).
-    if (scale === 0) {
-      out[at] = mh;
-      return true;
-    }
+    out[at] = mh;
+    return true;
   }
-  if (tenHigh === null) buildPowers();
+  if (!powersBuilt) buildPowers();
   const k = scale + MAX_DECIMAL_EXPONENT;
-  const th = (tenHigh as Float64Array)[k];
-  const tl = (tenLow as Float64Array)[k];
-  const thh = (tenHighTop as Float64Array)[k];
-  const thl = (tenHighBottom as Float64Array)[k];
+  const th = tenHigh[k];
+  const tl = tenLow[k];
+  const thh = tenHighTop[k];
+  const thl = tenHighBottom[k];
   // (mh + ml)(th + tl) without the ml tl term (below 2^-106 relative); Dekker's TwoProduct for mh th.
   const p = mh * th;
   const ma = SPLIT * mh;
