@@ -15,9 +15,9 @@
  *   integer below 2^53. A whole number M of up to 19 digits (q = 0) is
  *   rounded once from its exact double-double form.
  * - Otherwise, for |q| <= 250 (results between about 1e-250 and 1e269, far
- *   from subnormals and overflow): M exactly as a double-double (Dekker's
- *   TwoProduct and Knuth's TwoSum, error-free), times 10^q as a double-double
- *   (within 2^-105 relative; exact for q >= 0 up to 44), gives zh + zl within
+ *   from subnormals and overflow): M exactly as a double-double (Knuth's
+ *   TwoSum, error-free), times 10^q as a double-double (within 2^-105
+ *   relative; exact for q >= 0 up to 44) with Dekker's TwoProduct, gives zh + zl within
  *   2^-102 |x| of the true x. zh, the double nearest zh + zl, is then the
  *   double nearest x unless x lies within 2^-100 |x| of the midpoint between
  *   zh and a neighbour (or zh is a power of two, where the neighbours' spacing
