@@ -169,8 +169,8 @@ export function parsePartArgs(args: string[]): PartArgs {
 /**
  * Streams a file (or standard input) through the reader. The core of the
  * command, exported so a benchmark can time file reading plus parsing. A
- * large file is read in two halves at once where that is safe
- * (cli/part-parallel.ts; no progress lines then), otherwise in one pass.
+ * large file is read in two halves at once when BRITTLE_THREADS=2 asks for it
+ * and it is safe (cli/part-parallel.ts; no progress lines then), otherwise in one pass.
  */
 export async function streamPartFile(
   file: string,

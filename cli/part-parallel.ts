@@ -1,18 +1,23 @@
 /**
- * `brittle part` on a large file with two threads: the first half of the
- * file is read on the main thread while a worker reads the second half
- * (split just after a line end), and src/size/part-split.ts joins the two.
- * Parsing is nearly all of the time, so two cores take about half as long.
+ * `brittle part` on a large file with two threads, when asked for with
+ * BRITTLE_THREADS=2 in the environment: the first half of the file is read
+ * on the main thread while a worker reads the second half (split just after
+ * a line end), and src/size/part-split.ts joins the two.
  *
- * Used only where it is safe and pays: a file (not standard input) of at
- * least PARALLEL_MIN_BYTES, the compiled command line (a worker loads this
- * same compiled module; under the TypeScript test runner it could not), at
- * least two processors, and a beginning that settles everything a second
- * reader needs (UTF-8, LF or CRLF line ends, a settled decimal mark). Any
- * error in either half, or an empty half, sends the whole file through one
- * reader instead, so messages and line numbers are exactly those of a
- * sequential read. BRITTLE_THREADS=1 in the environment keeps to one thread
- * (to compare, or where the second core is busy with other work).
+ * Not the default, as measured: on a two-core machine shared with other
+ * work (load average about 8), two threads took about 0.3 s more processor
+ * time than one on a 171 MB table (a second isolate loading and warming up
+ * the same code, the beginning read twice) and were no faster by the clock.
+ * With cores to spare it halves the parsing time.
+ *
+ * Used only where it is safe: a file (not standard input) of at least
+ * PARALLEL_MIN_BYTES, the compiled command line (a worker loads this same
+ * compiled module; under the TypeScript test runner it could not), at least
+ * two processors, and a beginning that settles everything a second reader
+ * needs (UTF-8, LF or CRLF line ends, a settled decimal mark). Any error in
+ * either half, or an empty half, sends the whole file through one reader
+ * instead, so messages and line numbers are exactly those of a sequential
+ * read.
  */
 import { closeSync, openSync, readSync } from "node:fs";
 import { readFileRange } from "./read-file-range";
@@ -52,7 +57,7 @@ export function parallelAvailable(file: string, size: number | null): boolean {
     file !== "-" &&
     size !== null &&
     size >= PARALLEL_MIN_BYTES &&
-    process.env.BRITTLE_THREADS !== "1" &&
+    process.env.BRITTLE_THREADS === "2" &&
     /\.m?js$/.test(new URL(import.meta.url).pathname) &&
     availableParallelism() >= 2
   );
