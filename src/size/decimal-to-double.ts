@@ -107,9 +107,10 @@ export function decimalInto(
 ): boolean {
   // M = a + b + c, each an exact double: first x 10^k with k <= 11 has an odd part below
   // 2^27 x 5^11 < 2^53; second x 10^(<= 3) < 10^11; third < 10^3.
-  const tailDigits = count > 16 ? count - 16 : 0;
-  const a = count <= 8 ? first : first * POW10[count - 8];
-  const b = count <= 16 ? second : second * POW10[tailDigits];
+  // Always a multiplication (by 10^0 = 1 for short numbers): a conditional `first` or product would
+  // make V8 keep a and b as tagged values and box every product above 2^31 (16 bytes a call).
+  const a = first * POW10[count > 8 ? count - 8 : 0];
+  const b = second * POW10[count > 16 ? count - 16 : 0];
   const c = third;
   const m = a + b + c;
   if (m < TWO53) {
