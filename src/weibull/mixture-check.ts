@@ -161,13 +161,16 @@ function weightedSums(z: Float64Array, r: Float64Array, w: Float64Array, sums: F
 /** Logs of products smaller than this are taken at once: g >= SMALL_DENSITY keeps the product normal. */
 const SMALL_DENSITY = 1e-50;
 const FLUSH_PRODUCT = 1e-250;
+/** Products of factors 1 + q (each below 1e50) are logged before they pass this. */
+const FLUSH_FACTORS = 1e250;
 
 /**
  * E-step at (m, p, mu1, mu2): new responsibilities r and the sum of ln g, g the mixture density of m z.
  * With `sums`, also the next CM-step's sums in the same pass. Why this shape (it was two passes with five
  * exponentials or logarithms per specimen, the whole cost of the check): e^(m z) is taken as
- * e^(m (z - mu1)) e^(m mu1) from the E-step's own exponential, and the logarithm of g once per run of
- * factors rather than per specimen. Both agree with the direct forms to rounding (about 1e-13 relative).
+ * e^(m (z - mu1)) e^(m mu1) from the E-step's own exponential, both component densities from one more
+ * exponential, and logarithms once per run of factors rather than per specimen. These agree with the
+ * direct forms to rounding (statistics within 1e-11 in a seeded comparison of 1240 samples).
  */
 function eStep(z: Float64Array, r: Float64Array, m: number, p: number, mu1: number, mu2: number, sums: Float64Array | null): number {
   const n = z.length;
@@ -175,6 +178,7 @@ function eStep(z: Float64Array, r: Float64Array, m: number, p: number, mu1: numb
   const scale1 = Math.exp(m * mu1);
   let total = 0;
   let product = 1;
+  let factors = 1;
   let r1 = 0;
   let a1 = 0;
   let a2 = 0;
@@ -182,23 +186,42 @@ function eStep(z: Float64Array, r: Float64Array, m: number, p: number, mu1: numb
   let b2 = 0;
   let c1 = 0;
   let c2 = 0;
+  // g = g1 (1 + q), q = g2 / g1 = ((1 - p) / p) shift e^(e1 - e2): one exponential for both terms where
+  // neither can underflow (then g > 0 and the two forms differ by rounding only).
+  const lnP = Math.log(p);
+  const odds = ((1 - p) / p) * shift;
+  const both = p > 1e-100 && 1 - p > 1e-100 && odds > 0 && odds < Infinity;
   for (let i = 0; i < n; i++) {
-    const e1 = Math.exp(m * (z[i] - mu1));
+    const t = m * (z[i] - mu1);
+    const e1 = Math.exp(t);
     const e2 = e1 * shift;
-    const g1 = p * e1 * Math.exp(-e1);
-    const g2 = (1 - p) * e2 * Math.exp(-e2);
-    const g = g1 + g2;
-    if (g > 0) {
-      r[i] = g1 / g;
-      if (g < SMALL_DENSITY) total += Math.log(g);
-      else {
-        product *= g;
-        if (product < FLUSH_PRODUCT) {
-          total += Math.log(product);
-          product = 1;
+    if (both && e1 > 1e-100 && e1 < 200 && e2 > 1e-100 && e2 < 200) {
+      const q = odds * Math.exp(e1 - e2);
+      r[i] = 1 / (1 + q);
+      total += lnP + t - e1;
+      if (q < 1e50) {
+        factors *= 1 + q;
+        if (factors > FLUSH_FACTORS) {
+          total += Math.log(factors);
+          factors = 1;
         }
-      }
-    } else total += -745;
+      } else total += Math.log(1 + q);
+    } else {
+      const g1 = p * e1 * Math.exp(-e1);
+      const g2 = (1 - p) * e2 * Math.exp(-e2);
+      const g = g1 + g2;
+      if (g > 0) {
+      r[i] = g1 / g;
+        if (g < SMALL_DENSITY) total += Math.log(g);
+        else {
+          product *= g;
+          if (product < FLUSH_PRODUCT) {
+            total += Math.log(product);
+            product = 1;
+          }
+        }
+      } else total += -745;
+    }
     if (sums) {
       // e^(m z) from e1 unless e1 overflowed or lost its precision to underflow.
       const w = e1 < Infinity && e1 > 1e-290 ? e1 * scale1 : Math.exp(m * z[i]);
@@ -222,7 +245,7 @@ function eStep(z: Float64Array, r: Float64Array, m: number, p: number, mu1: numb
     sums[5] = c1;
     sums[6] = c2;
   }
-  return total + Math.log(product);
+  return total + Math.log(product) + Math.log(factors);
 }
 
 export class MixtureWork {
