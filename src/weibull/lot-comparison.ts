@@ -47,8 +47,11 @@ export interface LotComparison {
   replications: number;
 }
 
-/** Simulated fits, like pivotal-simulation.ts's: stop once a step is below this share of m. */
-const STEP_TOLERANCE = 1e-4;
+/**
+ * Stop once a step is below this share of m. Halley's error after a step s is of order s^3 (Newton's,
+ * in pivotal-simulation.ts, s^2 with its 1e-4), so the root is good to about 1e-8 here too.
+ */
+const STEP_TOLERANCE = 2e-3;
 const MAX_ITERATIONS = 100;
 
 /**
@@ -91,14 +94,15 @@ function completeShape(z: Float64Array, n: number, mean: number, start: number, 
     if (g < 0) lo = Math.max(lo, m);
     else hi = Math.min(hi, m);
     const slope = variance + 1 / (m * m);
-    const bend = s3 / s0 - 3 * a * variance - a * a * a - 2 / (m * m * m);
+    const skew = s3 / s0 - 3 * a * variance - a * a * a;
+    const bend = skew - 2 / (m * m * m);
     const denominator = 2 * slope * slope - g * bend;
     // Halley where its denominator keeps the Newton direction, else Newton.
     const step = denominator > slope * slope ? (-2 * g * slope) / denominator : -g / slope;
     let next = m + step;
     if (Math.abs(step) <= STEP_TOLERANCE * m || g === 0) {
-      // sum(w) carried to the new root by its Taylor series (d ln s0/dm = a, d2 = variance).
-      fit.weightSum = s0 * Math.exp(step * a + 0.5 * step * step * variance);
+      // sum(w) carried to the new root by its Taylor series (d ln s0/dm = a, then the variance and third cumulant).
+      fit.weightSum = s0 * Math.exp(step * (a + step * (0.5 * variance + (step / 6) * skew)));
       return next;
     }
     if (!(next > lo && next < hi)) next = Number.isFinite(hi) ? 0.5 * (lo + hi) : 2 * m;
