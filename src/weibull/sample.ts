@@ -3,7 +3,7 @@
  * a failure from the population being fitted or censored (the specimen broke
  * from another flaw population, or did not break, at that stress).
  */
-import { ensure, InputError, describe } from "../errors";
+import { InputError, describe } from "../errors";
 
 export interface StrengthSample {
   strengths: readonly number[];
@@ -15,6 +15,8 @@ export interface CheckedSample {
   strengths: Float64Array;
   censored: Uint8Array;
   failures: number;
+  /** The largest strength (every fit divides by it). */
+  largest: number;
 }
 
 export function checkSample({ strengths, censored }: StrengthSample): CheckedSample {
@@ -24,14 +26,16 @@ export function checkSample({ strengths, censored }: StrengthSample): CheckedSam
   const values = new Float64Array(strengths.length);
   const flags = new Uint8Array(strengths.length);
   let failures = 0;
+  let largest = 0;
   for (let i = 0; i < strengths.length; i++) {
     const s = strengths[i];
     // Test first, build the message only on failure: this runs once per specimen.
     if (!(Number.isFinite(s) && s > 0)) throw new InputError("input", `strength ${i + 1} must be a positive number (got ${describe(s)})`);
     values[i] = s;
-    flags[i] = censored?.[i] ? 1 : 0;
-    if (!flags[i]) failures++;
+    if (s > largest) largest = s;
+    if (censored?.[i]) flags[i] = 1;
+    else failures++;
   }
-  ensure(failures >= 2, `a fit needs at least two failures from the population (got ${failures})`);
-  return { strengths: values, censored: flags, failures };
+  if (failures < 2) throw new InputError("input", `a fit needs at least two failures from the population (got ${failures})`);
+  return { strengths: values, censored: flags, failures, largest };
 }
