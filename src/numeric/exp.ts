@@ -14,12 +14,16 @@
  * into two parts so k * HI is exact, and e^r - 1 is its Taylor polynomial to
  * degree 6 (truncation below 3e-20 relative at |r| = ln2/128).
  *
- * Accuracy: within 2e-16 relative of the exact e^t for every double t in
- * [-708, 0], measured against mpmath at 60 digits (test/fast-exp.test.ts, from
- * test/fixtures/generate_fast_exp.py): about one unit in the last place, like
- * Math.exp. Outside [-708, 0] (results that would be subnormal, positive t,
- * NaN) it returns Math.exp(t), so it is correct everywhere and fast where the
- * fit needs it: m ln(s / s_max) is never positive.
+ * Accuracy: within 2e-16 relative of the exact e^t (1.9e-16 at worst) at 2,300
+ * doubles across [-708, 0], measured against mpmath at 60 digits
+ * (test/fast-exp.test.ts, from test/fixtures/generate_fast_exp.py), and within
+ * 4e-16 of Math.exp at 200,000 seeded points: about one unit in the last
+ * place, like Math.exp. Outside [-708, 0] (results that would be subnormal,
+ * positive t, NaN) it returns Math.exp(t), so it is correct everywhere and
+ * fast where the fit needs it: m ln(s / s_max) is never positive.
+ *
+ * @example
+ * fastExp(-1) // 0.36787944117144233, e^-1
  */
 import { EXP_INV_STEP, EXP_STEP_HI, EXP_STEP_LO, EXP_TABLE } from "./exp-table";
 
