@@ -1,8 +1,9 @@
 /**
- * Seeded data for `npm run bench`, written as little-endian float64 files so
- * the python peers (bench/peers.py) read the very same numbers.
+ * Seeded, invented data for `npm run bench`: float64 files for the in-process python peers
+ * (bench/peers.py), and the CSV files both command-line sides read, so every side works on
+ * the very same numbers.
  */
-import { writeFileSync } from "node:fs";
+import { closeSync, openSync, writeFileSync, writeSync } from "node:fs";
 import { join } from "node:path";
 import { SeededRandom } from "../src/numeric/random";
 
@@ -56,4 +57,43 @@ export function elementCsv(principal: Float64Array, sizes: Float64Array, digits?
     }
   }
   return chunks;
+}
+
+/** Writes the element table CSV (see `elementCsv`) to a file, chunk by chunk; returns its size in bytes. */
+export function writeElementCsv(file: string, principal: Float64Array, sizes: Float64Array, digits?: number): number {
+  const fd = openSync(file, "w");
+  let bytes = 0;
+  try {
+    for (const chunk of elementCsv(principal, sizes, digits)) bytes += writeSync(fd, chunk);
+  } finally {
+    closeSync(fd);
+  }
+  return bytes;
+}
+
+/** Spreadsheet column name of a 1-based column number: 1 -> A, 30 -> AD. */
+export function columnName(column: number): string {
+  let name = "";
+  for (let c = column; c > 0; c = Math.floor((c - 1) / 26)) name = String.fromCharCode(65 + ((c - 1) % 26)) + name;
+  return name;
+}
+
+/**
+ * A strength sheet as a lab keeps it: a header line, then one specimen set per line (strengths in
+ * MPa to 0.1 MPa), each followed by its formula cells over the line's own range. The modulus is
+ * the maximum-likelihood value without unbiasing ("MLE-RAW"), the quantity the numpy peer solves;
+ * the characteristic strength is the same with or without it.
+ */
+export function strengthSheet(sets: readonly Float64Array[], formulas: readonly ("modulus" | "charstrength")[]): string {
+  const columns = sets[0].length;
+  const header = [...Array.from({ length: columns }, (_, i) => `s${i + 1}`), ...formulas.map((f) => (f === "modulus" ? "modulus" : "characteristic_strength"))];
+  const lines = [header.join(",")];
+  sets.forEach((set, i) => {
+    if (set.length !== columns) throw new Error("strengthSheet: every set needs the same number of specimens");
+    const range = `A${i + 2}:${columnName(columns)}${i + 2}`;
+    const cells = Array.from(set, (x) => x.toFixed(1));
+    for (const f of formulas) cells.push(f === "modulus" ? `"=BRITTLE.MODULUS(${range},,""MLE-RAW"")"` : `=BRITTLE.CHARSTRENGTH(${range})`);
+    lines.push(cells.join(","));
+  });
+  return lines.join("\n") + "\n";
 }

@@ -1,44 +1,34 @@
 """Peers for `npm run bench`: the same data, fitted and summed by the tools an
 engineer would otherwise use, and a 40-digit reference solution.
 
-    python3 bench/peers.py WORKDIR
+    python3 bench/peers.py serve WORKDIR
 
-WORKDIR/spec.json (written by bench/run.ts) names little-endian float64 files:
-  fits:  [{"n": N, "file": "fit-N.f64"}, ...]    strengths of complete samples
-  pia:   {"principal": "...", "sizes": "...", "shape": m}   2^20 x 3 principal stresses
-  runs:  {"small": R, "large": R}               timing repetitions (medians)
-  mpmathMaxN: largest n solved at 40 digits
+Answers one JSON request per line on stdin with one JSON line on stdout, so bench/run.ts
+can alternate turns (ours, peer, ours, peer, ...) with one warm python process, each turn
+timed here with time.perf_counter around `batch` calls (seconds per call). Requests:
 
-Every timing is a median after one warm-up call, with the fastest and slowest run.
-Prints one JSON object on stdout: scipy.stats.weibull_min.fit (location fixed
-at 0), a numpy Newton solve of the same ML equation (the fair peer), numpy
-element-sum timings and values, and the mpmath solution of the
-maximum-likelihood equations (ASTM C1239 section 7, complete sample):
-  sum x^m ln x / sum x^m - mean(ln x) - 1/m = 0,  sigma_theta = (sum x^m / N)^(1/m).
+  {"task": "versions"}
+  {"task": "fit", "file": "fit-30.f64", "peer": "newton" | "scipy", "batch": k}
+      strengths as little-endian float64 in WORKDIR; "newton" is a numpy Newton solve of
+      the same ML equation as the project (the fair peer), "scipy" is
+      scipy.stats.weibull_min.fit with the location fixed at 0 (a general-purpose optimiser)
+  {"task": "pia", "principal": "...", "sizes": "...", "shape": m, "batch": k}
+      the PIA element sum in numpy over 2^20 x 3 principal stresses
+  {"task": "mpmath", "file": "...", "startShape": m0}
+      the 40-digit solution of the maximum-likelihood equations (ASTM C1239 section 7,
+      complete sample): sum x^m ln x / sum x^m - mean(ln x) - 1/m = 0,
+      sigma_theta = (sum x^m / N)^(1/m)
+
+Only numpy is imported at the top: bench/peer_rows.py imports ml_numpy_newton from here,
+and its start-up must not pay for scipy or mpmath.
 """
 
 import json
 import os
-import statistics
 import sys
 import time
 
-import mpmath
 import numpy as np
-import scipy
-from scipy import stats
-
-
-def timed(fn, runs):
-    """Median, fastest and slowest of `runs` timings after one warm-up call (as bench/measure.ts does)."""
-    fn()
-    times = []
-    result = None
-    for _ in range(runs):
-        start = time.perf_counter()
-        result = fn()
-        times.append(time.perf_counter() - start)
-    return statistics.median(times), result, min(times), max(times)
 
 
 def ml_numpy_newton(x):
@@ -83,6 +73,8 @@ def ml_numpy_newton(x):
 
 def ml_mpmath(x, start_shape, digits=40):
     """Newton on the ML equation for m at `digits` digits, from a double-precision start."""
+    import mpmath
+
     mpmath.mp.dps = digits + 10
     logs = [mpmath.log(mpmath.mpf(float(v))) for v in x]
     n = len(logs)
@@ -107,63 +99,81 @@ def ml_mpmath(x, start_shape, digits=40):
     return mpmath.nstr(m, digits), mpmath.nstr(scale, digits)
 
 
-def main():
-    workdir = sys.argv[1]
-    with open(os.path.join(workdir, "spec.json")) as f:
-        spec = json.load(f)
-    out = {
-        "versions": {
-            "python": sys.version.split()[0],
-            "numpy": np.__version__,
-            "scipy": scipy.__version__,
-            "mpmath": mpmath.__version__,
-            "mpmathBackend": mpmath.libmp.BACKEND,
-        },
-        "fits": [],
+def pia_sum(principal, sizes, m):
+    """PIA effective size as numpy users write it: sum_e V_e sum_i (max(s_i, 0) / s_peak)^m."""
+    peak = principal.max()
+    tension = np.clip(principal, 0.0, None) / peak
+    return float(np.dot(sizes, (tension**m).sum(axis=1))), float(peak)
+
+
+def scipy_fit(x):
+    from scipy import stats
+
+    shape, _loc, scale = stats.weibull_min.fit(x, floc=0)
+    return float(shape), float(scale)
+
+
+def versions():
+    import mpmath
+    import pyarrow
+    import scipy
+
+    return {
+        "python": sys.version.split()[0],
+        "numpy": np.__version__,
+        "scipy": scipy.__version__,
+        "pyarrow": pyarrow.__version__,
+        "mpmath": mpmath.__version__,
+        "mpmathBackend": mpmath.libmp.BACKEND,
     }
-    runs = spec["runs"]
-    for item in spec["fits"]:
-        x = np.fromfile(os.path.join(workdir, item["file"]), dtype="<f8")
-        r = runs["small"] if len(x) < 100000 else runs["large"]
-        seconds, (shape, _loc, scale), fastest, slowest = timed(lambda: stats.weibull_min.fit(x, floc=0), r)
-        entry = {"n": int(len(x)), "seconds": seconds, "fastest": fastest, "slowest": slowest, "shape": float(shape), "scale": float(scale)}
-        seconds, (shape, scale), fastest, slowest = timed(lambda: ml_numpy_newton(x), r)
-        entry["newton"] = {"seconds": seconds, "fastest": fastest, "slowest": slowest, "shape": shape, "scale": scale}
-        if len(x) <= spec["mpmathMaxN"]:
-            start = time.perf_counter()
-            entry["mpmathShape"], entry["mpmathScale"] = ml_mpmath(x, item["startShape"])
-            entry["mpmathSeconds"] = time.perf_counter() - start
-        out["fits"].append(entry)
 
-    pia = spec.get("pia")
-    if pia:
-        principal = np.fromfile(os.path.join(workdir, pia["principal"]), dtype="<f8").reshape(-1, 3)
-        sizes = np.fromfile(os.path.join(workdir, pia["sizes"]), dtype="<f8")
-        m = pia["shape"]
 
-        def pia_sum():
-            peak = principal.max()
-            tension = np.clip(principal, 0.0, None) / peak
-            return float(np.dot(sizes, (tension**m).sum(axis=1))), float(peak)
+def timed_batch(calls, fn):
+    """Seconds per call over `calls` calls timed together, and the last result."""
+    result = None
+    start = time.perf_counter()
+    for _ in range(calls):
+        result = fn()
+    return (time.perf_counter() - start) / calls, result
 
-        seconds, (effective, peak), fastest, slowest = timed(pia_sum, runs["large"])
-        out["pia"] = {"seconds": seconds, "fastest": fastest, "slowest": slowest, "effectiveSize": effective, "peak": peak, "rows": int(len(sizes))}
 
-    csv = spec.get("csv")
-    if csv:
-        path = os.path.join(workdir, csv["file"])
+def serve(workdir):
+    arrays = {}
 
-        def stream():
-            table = np.loadtxt(path, delimiter=",", skiprows=1, usecols=(1, 2, 3, 4))
-            p = table[:, :3]
-            peak = p.max()
-            return float(np.dot(table[:, 3], ((np.clip(p, 0.0, None) / peak) ** csv["shape"]).sum(axis=1)))
+    def load(name):
+        if name not in arrays:
+            arrays[name] = np.fromfile(os.path.join(workdir, name), dtype="<f8")
+        return arrays[name]
 
-        seconds, effective, _fastest, _slowest = timed(stream, 1)
-        out["csv"] = {"seconds": seconds, "effectiveSize": effective}
-
-    json.dump(out, sys.stdout)
+    for line in sys.stdin:
+        request = json.loads(line)
+        task = request["task"]
+        try:
+            if task == "versions":
+                reply = versions()
+            elif task == "fit":
+                x = load(request["file"])
+                solve = ml_numpy_newton if request["peer"] == "newton" else scipy_fit
+                seconds, (shape, scale) = timed_batch(request["batch"], lambda: solve(x))
+                reply = {"seconds": seconds, "shape": shape, "scale": scale}
+            elif task == "pia":
+                principal = load(request["principal"]).reshape(-1, 3)
+                sizes = load(request["sizes"])
+                seconds, (effective, peak) = timed_batch(request["batch"], lambda: pia_sum(principal, sizes, request["shape"]))
+                reply = {"seconds": seconds, "effectiveSize": effective, "peak": peak}
+            elif task == "mpmath":
+                start = time.perf_counter()
+                shape, scale = ml_mpmath(load(request["file"]), request["startShape"])
+                reply = {"shape": shape, "scale": scale, "seconds": time.perf_counter() - start}
+            else:
+                reply = {"error": f"unknown task {task!r}"}
+        except Exception as error:  # the report shows it; the bench goes on with the other rows
+            reply = {"error": f"{type(error).__name__}: {error}"}
+        sys.stdout.write(json.dumps(reply) + "\n")
+        sys.stdout.flush()
 
 
 if __name__ == "__main__":
-    main()
+    if len(sys.argv) != 3 or sys.argv[1] != "serve":
+        sys.exit("usage: python3 bench/peers.py serve WORKDIR")
+    serve(sys.argv[2])

@@ -121,6 +121,7 @@ function fitTable(fit: MaterialFitResult, sim: MaterialSimulation | null, confid
  * recomputed at every trial modulus; with each configuration's own fit, bounds and two p-values by seeded simulation.
  * Example: =BRITTLE.MATERIALFIT(B2:B41, C2:C41, "VOLUME", , "PIA", 0.22) spills 45 rows of labels and values.
  * @customfunction
+ * @cancelable
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
  * @param configurations Each specimen's configuration label, same shape as strengths: a preset name as SPECIMEN accepts it ("C1161-B-4PT", "C1499-20/10") or its dimensions in mm: BAR 40/20 4x3 (bar: outer/inner span, width x depth), ROD 40/20 5 (rod: spans, diameter), RING 10/20 25x1 (ring-on-ring: load/support ring, disk diameter x thickness), PISTON 1.4/10 14x1.2 (piston-on-three-balls).
  * @param [flaws] "VOLUME" (default) for volume-distributed flaws, "SURFACE" for surface flaws.

@@ -28,6 +28,8 @@ export interface FunctionMetadata {
   description: string;
   parameters: ParameterMetadata[];
   result: { type?: string; dimensionality?: "scalar" | "matrix" };
+  /** Present for the functions that simulate (JSDoc @cancelable): the host runs them asynchronously and may cancel them. */
+  options?: { cancelable?: boolean };
   /** The function's section of the generated help page; the host links to it from the formula tooltip. */
   helpUrl?: string;
 }

@@ -28,6 +28,7 @@ function fitCells(strengths: unknown, censored: unknown, method: unknown) {
  * failures no factor exists (#N/A: use "MLE-RAW"). Blank cells and zeros are skipped.
  * Example: =BRITTLE.MODULUS(B2:B31) gives the modulus of the bend strengths in B2:B31.
  * @customfunction
+ * @cancelable
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
  * @param [censored] Optional flags, same shape as strengths: TRUE or 1 where the specimen did not fail from the population being fitted (censored), FALSE, 0 or blank where it did.
  * @param [method] "MLE" (default, unbiased maximum likelihood), "MLE-RAW" (maximum likelihood without unbiasing), "LSQ" (least squares on the probability plot, (i-0.5)/N positions), "LSQ-MEANRANK" (i/(N+1)) or "LSQ-MEDIANRANK" ((i-0.3)/(N+0.4)).

@@ -115,6 +115,7 @@ function fitFromCells(sample: { strengths: number[]; censored?: boolean[] }, con
  * there: E[m_hat/m] is infinite; the factor is tabulated for N = 3 to 500).
  * Example: =BRITTLE.FIT(B2:B31) spills 21 rows of labels and values.
  * @customfunction
+ * @cancelable
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
  * @param [censored] Optional flags, same shape as strengths: TRUE or 1 where the specimen did not fail from the population being fitted.
  * @param [confidence] Two-sided confidence for the bounds, strictly between 0 and 1 (at most 0.99); default 0.90.
@@ -131,6 +132,7 @@ export function FIT(strengths: any[][], censored?: any[][], confidence?: number,
  * same 21-row table as FIT. Example: =BRITTLE.ORIGINFIT(B2:B31, C2:C31, "surface") spills the fit of the surface-flaw
  * population.
  * @customfunction
+ * @cancelable
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
  * @param origins Fracture-origin label of each specimen (text such as "surface", "pore", "inclusion"), same shape as strengths.
  * @param origin The label of the population to fit (case and surrounding spaces ignored).
@@ -163,6 +165,7 @@ function boundsFromCells(strengths: unknown, censored: unknown, confidence: unkn
  * from a bootstrap of competing flaw populations (approximate). Example: =BRITTLE.MODULUSBOUNDS(B2:B31)
  * spills the labelled lower and upper 90 % two-sided bounds.
  * @customfunction
+ * @cancelable
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
  * @param [censored] Optional flags, same shape as strengths: TRUE or 1 where the specimen did not fail from the population being fitted.
  * @param [confidence] Confidence, strictly between 0 and 1 (two-sided: at most 0.99; one-sided: 0.005 to 0.995); default 0.90.
@@ -184,6 +187,7 @@ export function MODULUSBOUNDS(strengths: any[][], censored?: any[][], confidence
  * censored samples as for MODULUSBOUNDS. Example: =BRITTLE.CHARSTRENGTHBOUNDS(B2:B31, , 0.95) spills the labelled
  * lower and upper 95 % two-sided bounds.
  * @customfunction
+ * @cancelable
  * @param strengths Fracture strengths, one per specimen (MPa or any stress unit). Blanks and zeros are skipped.
  * @param [censored] Optional flags, same shape as strengths: TRUE or 1 where the specimen did not fail from the population being fitted.
  * @param [confidence] Confidence, strictly between 0 and 1 (two-sided: at most 0.99; one-sided: 0.005 to 0.995); default 0.90.
@@ -302,6 +306,7 @@ export function PLOTPOINTS(strengths: any[][], censored?: any[][], estimator?: s
  * number to design on, not the point estimate. Example: =BRITTLE.DESIGNSTRESSBOUND(0.9999, B2:B31, , 0.95, 25)
  * returns a stress in the units of B2:B31.
  * @customfunction
+ * @cancelable
  * @param survival Required survival probability, strictly between 0 and 1 (e.g. 0.9999).
  * @param strengths Fracture strengths of the tested specimens (MPa or any stress unit). Blanks and zeros are skipped.
  * @param [censored] Optional flags, same shape as strengths: TRUE or 1 where the specimen did not fail from the population being fitted.
@@ -401,6 +406,7 @@ export function COMPETINGDESIGNSTRESS(
  * Likelihood-ratio test with a p-value calibrated by seeded simulation (the chi-square approximation is poor for
  * small lots). Example: =BRITTLE.LOTCHECK(B2:B11, C2:C31) spills the statistic, the p-value and a verdict, labelled.
  * @customfunction
+ * @cancelable
  * @param lotStrengths Fracture strengths of specimens from the production lot (complete sample).
  * @param baselineStrengths Fracture strengths of the qualification baseline (complete sample).
  * @param [confidence] Confidence of the test, strictly between 0 and 1; a difference is reported when p <= 1 - confidence. Default 0.95.

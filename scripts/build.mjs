@@ -104,7 +104,17 @@ async function buildAddIn(options, functionsJson, functions) {
     outfile: "dist/functions.js",
     logLevel: "warning",
   });
-  step("functions.js");
+  // The worker thread that runs the simulating functions in the shared runtime (functions/cancelable.ts).
+  await esbuild({
+    absWorkingDir: ROOT,
+    entryPoints: ["functions/simulation-worker.ts"],
+    bundle: true,
+    format: "iife",
+    target: "es2020",
+    outfile: "dist/simulation-worker.js",
+    logLevel: "warning",
+  });
+  step("functions.js and simulation-worker.js");
 
   if (options.officeJs === "local") {
     // Copied whole: office.js lazily loads a mapping file and its locale files from beside itself.

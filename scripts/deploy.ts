@@ -23,6 +23,7 @@ export const DIST_FILES = [
   "taskpane.html",
   "functions.json",
   "functions.js",
+  "simulation-worker.js", // loaded by the task pane page as a worker (functions/cancelable.ts), not named in the manifest
   "help.html",
   "help.css",
   "manifest.xml",

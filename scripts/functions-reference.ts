@@ -6,6 +6,7 @@
 import { readFileSync, writeFileSync } from "node:fs";
 import { generateMetadata, type FunctionMetadata } from "../functions/metadata";
 import { families } from "../functions/registry";
+import { IN_THE_BACKGROUND } from "../functions/simulating";
 
 export const REFERENCE_PATH = "docs/functions.md";
 
@@ -45,6 +46,9 @@ export function renderReference(functions: FunctionMetadata[]): string {
         out.push("");
       }
       out.push(`Returns: ${f.result.dimensionality === "matrix" ? "an array that spills into neighbouring cells" : f.result.type ?? "a value"}.`, "");
+      if (f.options?.cancelable) {
+        out.push(IN_THE_BACKGROUND, "");
+      }
     }
   }
   return out.join("\n");

@@ -5,6 +5,7 @@
  * source (the adapters' JSDoc) feeds the tooltip, this page and the engine.
  */
 import type { FunctionMetadata } from "../functions/metadata";
+import { IN_THE_BACKGROUND } from "../functions/simulating";
 
 export interface HelpFamily {
   title: string;
@@ -41,6 +42,7 @@ function section(f: FunctionMetadata, returns: string | undefined): string {
     f.parameters.length ? `<table><thead><tr><th>parameter</th><th>kind</th><th>meaning and unit</th></tr></thead><tbody>\n${rows}\n</tbody></table>` : "<p>No parameters.</p>",
     `<p><b>Returns:</b> ${escape(returns ?? f.result.type ?? "a value")}${shape}</p>`,
     example ? `<p><b>Example:</b> <code>${escape(example)}</code></p>` : "",
+    f.options?.cancelable ? `<p>${escape(IN_THE_BACKGROUND)}</p>` : "",
     `</section>`,
   ]
     .filter(Boolean)

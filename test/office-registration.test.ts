@@ -6,6 +6,7 @@
 import { afterEach, describe, expect, it } from "vitest";
 import { generateMetadata } from "../functions/metadata";
 import { registerInHost } from "../functions/office";
+import { guarded } from "../functions/registry";
 
 class HostError {
   constructor(
@@ -41,9 +42,20 @@ describe("registration through the shared runtime", () => {
     const num = associated.get("MEANSTRENGTH")!(0.001, 400) as HostError;
     expect(num.code).toBe("#NUM!");
     expect(num.message).toBeUndefined();
-    const value = associated.get("MODULUS")!([[300], ["oops"], [320]], null, null) as HostError;
+    // A simulating function returns a promise (declared @cancelable; the host passes the invocation last).
+    const pending = associated.get("MODULUS")!([[300], ["oops"], [320]], null, null, {});
+    expect(pending).toBeInstanceOf(Promise);
+    const value = (await pending) as HostError;
     expect(value.code).toBe("#VALUE!");
     expect(value.message).toMatch(/row 2/);
+    // The raw ML modulus (no simulation) through the same path: the synchronous adapter's value.
+    const strengths = [[300], [320], [310], [350], [290]];
+    expect(await associated.get("MODULUS")!(strengths, null, "MLE-RAW", {})).toBe(guarded.MODULUS(strengths, null, "MLE-RAW"));
+    // Canceled by the host before it finished: no value, an error saying so (the host discards it).
+    const invocation: { onCanceled?: () => void } = {};
+    const canceled = associated.get("MODULUS")!(strengths, [[false], [true], [false], [false], [false]], null, invocation);
+    invocation.onCanceled!();
+    expect(await canceled).toMatchObject({ code: "#N/A", message: expect.stringMatching(/canceled/) });
     // An error in one cell of a spill is the host's error object in that cell, with its message
     // (CustomFunctionsRuntime 1.2 allows errors inside returned arrays).
     const rows = associated.get("FLEXSTRENGTH")!([[400], [410]], [[40]], [[20]], [[4]], [[3], [5]]) as unknown[][];

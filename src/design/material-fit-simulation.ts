@@ -25,6 +25,7 @@
  */
 import { InputError } from "../errors";
 import { SeededRandom } from "../numeric/random";
+import { replicationsPerSlice, simulate } from "../numeric/replication-slices";
 import { sortedQuantile } from "../weibull/pivotal-simulation";
 import { requireSimulationSize } from "../weibull/simulation-limits";
 import { type MaterialFitResult, ratioStatistics, searchRange, threeFits } from "./material-fit";
@@ -72,25 +73,34 @@ export function simulateMaterialFit({
   const logTheta = laws.map((law) => logScale - law.logSize(m) / m);
   const sizes = fit.groups.map((g) => g.specimens);
   const range = searchRange(laws);
-  const random = new SeededRandom(seed);
-  const q: number[] = [];
-  const t: number[] = [];
-  let above1 = 0;
-  let above2 = 0;
-  const strengths = sizes.map((n) => new Array<number>(n));
-  for (let b = 0; b < replications; b++) {
-    for (let g = 0; g < sizes.length; g++) {
-      for (let i = 0; i < sizes[g]; i++) strengths[g][i] = Math.exp(logTheta[g] + Math.log(random.exponential()) / m);
+  const perSlice = replicationsPerSlice(16 * sizes.reduce((s, n) => s + n, 0));
+  const { q, t, above1, above2 } = simulate("material fit", `${seed}|${replications}|${m}|${logTheta.join(",")}|${sizes.join(",")}`, function* () {
+    const random = new SeededRandom(seed);
+    const q: number[] = [];
+    const t: number[] = [];
+    let above1 = 0;
+    let above2 = 0;
+    const strengths = sizes.map((n) => new Array<number>(n));
+    // One replication as a plain function: V8 optimizes a long loop inside a generator poorly.
+    const replicate = (): void => {
+      for (let g = 0; g < sizes.length; g++) {
+        for (let i = 0; i < sizes[g]; i++) strengths[g][i] = Math.exp(logTheta[g] + Math.log(random.exponential()) / m);
+      }
+      const data = pooledSample(strengths.map((s) => ({ strengths: s })));
+      const fits = threeFits(data, laws, { scan: false, ...range });
+      if (!fits.pooled.converged || !fits.common.converged || !fits.separate.every((f) => f.converged)) return;
+      const stats = ratioStatistics(fits);
+      if (fit.oneModulusStatistic !== null && stats.oneModulus >= fit.oneModulusStatistic) above1++;
+      if (stats.sizeEffect >= fit.sizeEffectStatistic) above2++;
+      q.push(fits.pooled.shape / m);
+      t.push(fits.pooled.shape * (fits.pooled.logScale - logScale));
+    };
+    for (let b = 0; b < replications; b++) {
+      if (b % perSlice === perSlice - 1) yield;
+      replicate();
     }
-    const data = pooledSample(strengths.map((s) => ({ strengths: s })));
-    const fits = threeFits(data, laws, { scan: false, ...range });
-    if (!fits.pooled.converged || !fits.common.converged || !fits.separate.every((f) => f.converged)) continue;
-    const stats = ratioStatistics(fits);
-    if (fit.oneModulusStatistic !== null && stats.oneModulus >= fit.oneModulusStatistic) above1++;
-    if (stats.sizeEffect >= fit.sizeEffectStatistic) above2++;
-    q.push(fits.pooled.shape / m);
-    t.push(fits.pooled.shape * (fits.pooled.logScale - logScale));
-  }
+    return { q, t, above1, above2 };
+  });
   const used = q.length;
   if (used < 0.95 * replications) {
     throw new InputError("notConverged", `only ${used} of ${replications} simulated data sets could be fitted: the design is too small for simulated bounds`);

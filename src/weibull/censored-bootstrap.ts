@@ -44,6 +44,7 @@
  */
 import { ensure } from "../errors";
 import { SeededRandom } from "../numeric/random";
+import { replicationsPerSlice, simulate } from "../numeric/replication-slices";
 import { requireSimulationSize } from "./simulation-limits";
 import { solveShapeFromLogs } from "./pivotal-simulation";
 import type { WeibullParameters } from "./distribution";
@@ -81,7 +82,7 @@ export function bootstrapCensored({
   // Seeded from the pattern of strength ratios in increasing order: the same specimens in another
   // row order or another stress unit give the same draws, hence the same cell values.
   const order = strengths.map((_, i) => i).sort((a, b) => strengths[a] - strengths[b] || Number(censored[a]) - Number(censored[b]));
-  const random = new SeededRandom(patternSeedOf(order.map((i) => strengths[i]), order.map((i) => censored[i])));
+  const seed = patternSeedOf(order.map((i) => strengths[i]), order.map((i) => censored[i]));
   const other = fitCensoringPopulation(strengths, censored, fit.shape);
   // Equal moduli: the weaker of a and b is Weibull(m, th_c), th_c^-m = th_A^-m + th_B^-m, and it is
   // B's with probability th_B^-m / (th_A^-m + th_B^-m), independently (ratios formed in logs).
@@ -90,32 +91,43 @@ export function bootstrapCensored({
   const logCombinedScale = Math.log(fit.scale) - Math.log1p(Math.exp(-logRatio)) / fit.shape;
   const inverseShape = 1 / fit.shape;
   // Each draw is ln s = ln th_c + ln(E)/m, E standard exponential; the fit needs only the logs.
-  const logE = new Float64Array(n);
-  const flags = new Uint8Array(n);
-  const z = new Float64Array(n);
-  const shapeRatio = new Float64Array(replications);
-  const scaleLogError = new Float64Array(replications);
-  let kept = 0;
-  for (let rep = 0; rep < replications; rep++) {
-    let failures = 0;
-    let maxLogE = -Infinity;
-    for (let i = 0; i < n; i++) {
-      const fromOther = random.uniform() < fromOtherProbability;
-      logE[i] = Math.log(random.exponential());
-      flags[i] = fromOther ? 1 : 0;
-      if (!fromOther) failures++;
-      if (logE[i] > maxLogE) maxLogE = logE[i];
+  const perSlice = replicationsPerSlice(n);
+  // Everything the loop fills is created inside it and returned: a slice host may run it apart from this call.
+  const { kept, shapeRatio, scaleLogError } = simulate("censored bootstrap", key, function* () {
+    const random = new SeededRandom(seed);
+    const logE = new Float64Array(n);
+    const flags = new Uint8Array(n);
+    const z = new Float64Array(n);
+    const shapeRatio = new Float64Array(replications);
+    const scaleLogError = new Float64Array(replications);
+    let kept = 0;
+    // One replication as a plain function: V8 optimizes a long loop inside a generator poorly.
+    const replicate = (): void => {
+      let failures = 0;
+      let maxLogE = -Infinity;
+      for (let i = 0; i < n; i++) {
+        const fromOther = random.uniform() < fromOtherProbability;
+        logE[i] = Math.log(random.exponential());
+        flags[i] = fromOther ? 1 : 0;
+        if (!fromOther) failures++;
+        if (logE[i] > maxLogE) maxLogE = logE[i];
+      }
+      if (failures < 2) return; // no finite estimate: such draws say nothing about the spread
+      for (let i = 0; i < n; i++) z[i] = (logE[i] - maxLogE) * inverseShape;
+      const solve = solveShapeFromLogs(z, flags, failures);
+      if (!solve.converged || !(solve.shape > 0)) return;
+      const logMax = logCombinedScale + maxLogE * inverseShape;
+      shapeRatio[kept] = solve.shape / fit.shape;
+      // t_b = m_b (ln th_b - ln th_hat), ln th_b = ln max + ln(sum / r) / m_b.
+      scaleLogError[kept] = solve.shape * (logMax - Math.log(fit.scale)) + Math.log(solve.weightSum / failures);
+      kept++;
+    };
+    for (let rep = 0; rep < replications; rep++) {
+      if (rep % perSlice === perSlice - 1) yield;
+      replicate();
     }
-    if (failures < 2) continue; // no finite estimate: such draws say nothing about the spread
-    for (let i = 0; i < n; i++) z[i] = (logE[i] - maxLogE) * inverseShape;
-    const solve = solveShapeFromLogs(z, flags, failures);
-    if (!solve.converged || !(solve.shape > 0)) continue;
-    const logMax = logCombinedScale + maxLogE * inverseShape;
-    shapeRatio[kept] = solve.shape / fit.shape;
-    // t_b = m_b (ln th_b - ln th_hat), ln th_b = ln max + ln(sum / r) / m_b.
-    scaleLogError[kept] = solve.shape * (logMax - Math.log(fit.scale)) + Math.log(solve.weightSum / failures);
-    kept++;
-  }
+    return { kept, shapeRatio, scaleLogError };
+  });
   ensure(kept >= replications / 2, "too few failures in this sample for a bootstrap of its censoring: test more specimens");
   const draws = { shapeRatio: shapeRatio.slice(0, kept), scaleLogError: scaleLogError.slice(0, kept), replications, censoring: other };
   if (cache.size >= CACHE_ENTRIES) cache.delete(cache.keys().next().value!);

@@ -22,6 +22,7 @@
  */
 import { ensureConverged, ensureProbability } from "../errors";
 import { SeededRandom } from "../numeric/random";
+import { replicationsPerSlice, simulate } from "../numeric/replication-slices";
 import { fitMaximumLikelihood } from "./maximum-likelihood";
 import { patternSeed, solveShapeFromLogs } from "./pivotal-simulation";
 import { requireSimulationSize } from "./simulation-limits";
@@ -80,18 +81,26 @@ function nullStatistics(n1: number, n2: number): Float64Array {
   const key = `${n1}|${n2}`;
   const hit = cache.get(key);
   if (hit) return hit;
-  const random = new SeededRandom((patternSeed(n1, [n2]) ^ SALT) >>> 0);
   const n = n1 + n2;
-  const y = new Float64Array(n);
-  const z = new Float64Array(n);
-  const out = new Float64Array(LOT_REPLICATIONS);
-  let kept = 0;
-  for (let rep = 0; rep < LOT_REPLICATIONS; rep++) {
-    for (let i = 0; i < n; i++) y[i] = Math.log(random.exponential());
-    const lr = 2 * (maxLogLikelihood(y, 0, n1, z) + maxLogLikelihood(y, n1, n, z) - maxLogLikelihood(y, 0, n, z));
-    if (Number.isFinite(lr)) out[kept++] = Math.max(lr, 0);
-  }
-  const sorted = out.slice(0, kept).sort();
+  const perSlice = replicationsPerSlice(n);
+  const sorted = simulate("lot check", key, function* () {
+    const random = new SeededRandom((patternSeed(n1, [n2]) ^ SALT) >>> 0);
+    const y = new Float64Array(n);
+    const z = new Float64Array(n);
+    const out = new Float64Array(LOT_REPLICATIONS);
+    let kept = 0;
+    // One replication as a plain function: V8 optimizes a long loop inside a generator poorly.
+    const replicate = (): void => {
+      for (let i = 0; i < n; i++) y[i] = Math.log(random.exponential());
+      const lr = 2 * (maxLogLikelihood(y, 0, n1, z) + maxLogLikelihood(y, n1, n, z) - maxLogLikelihood(y, 0, n, z));
+      if (Number.isFinite(lr)) out[kept++] = Math.max(lr, 0);
+    };
+    for (let rep = 0; rep < LOT_REPLICATIONS; rep++) {
+      if (rep % perSlice === perSlice - 1) yield;
+      replicate();
+    }
+    return out.slice(0, kept).sort();
+  });
   cache.set(key, sorted);
   if (cache.size > 8) cache.delete(cache.keys().next().value as string);
   return sorted;

@@ -25,6 +25,7 @@
  * samples, as on the plot the user sees. A recalculation never changes a cell.
  */
 import { SeededRandom } from "../numeric/random";
+import { replicationsPerSlice, simulate } from "../numeric/replication-slices";
 import { bilinearStatistic, BILINEAR_MIN_FAILURES, plotWeights } from "./bilinear-check";
 import { lowOutlierStatistic, LOW_OUTLIER_MIN_FAILURES } from "./low-outlier-check";
 import { fitMaximumLikelihood } from "./maximum-likelihood";
@@ -167,22 +168,31 @@ export function simulateCheckStatistics(n: number): NullDistribution {
   const key = `complete|${n}`;
   const hit = cache.get(key);
   if (hit) return hit;
-  const random = new SeededRandom((patternSeed(n, []) ^ SALT) >>> 0);
   // Complete samples: the positions depend on n only; read them off a stand-in sample 1..n.
   const positions = plottingPositions({ strengths: Array.from({ length: n }, (_, i) => i + 1) });
   const y = Float64Array.from(positions, (p) => p.y);
   const w = plotWeights(positions.map((p) => p.failureProbability));
-  const draw = new Float64Array(n);
-  const bilinear = new Float64Array(n >= BILINEAR_MIN_FAILURES ? CHECK_REPLICATIONS : 0);
-  const lowOutlier = new Float64Array(CHECK_REPLICATIONS);
-  for (let rep = 0; rep < CHECK_REPLICATIONS; rep++) {
-    for (let i = 0; i < n; i++) draw[i] = random.exponential();
-    draw.sort();
-    for (let i = 0; i < n; i++) draw[i] = Math.log(draw[i]);
-    if (bilinear.length) bilinear[rep] = bilinearStatistic(draw, y, w).statistic;
-    lowOutlier[rep] = lowOutlierStatistic(draw);
-  }
-  return remember(key, { bilinear: bilinear.sort(), lowOutlier: lowOutlier.sort() });
+  const perSlice = replicationsPerSlice((3 * n) / 4);
+  const statistics = simulate("single-population checks", key, function* () {
+    const random = new SeededRandom((patternSeed(n, []) ^ SALT) >>> 0);
+    const draw = new Float64Array(n);
+    const bilinear = new Float64Array(n >= BILINEAR_MIN_FAILURES ? CHECK_REPLICATIONS : 0);
+    const lowOutlier = new Float64Array(CHECK_REPLICATIONS);
+    // One replication as a plain function: V8 optimizes a long loop inside a generator poorly.
+    const replicate = (rep: number): void => {
+      for (let i = 0; i < n; i++) draw[i] = random.exponential();
+      draw.sort();
+      for (let i = 0; i < n; i++) draw[i] = Math.log(draw[i]);
+      if (bilinear.length) bilinear[rep] = bilinearStatistic(draw, y, w).statistic;
+      lowOutlier[rep] = lowOutlierStatistic(draw);
+    };
+    for (let rep = 0; rep < CHECK_REPLICATIONS; rep++) {
+      if (rep % perSlice === perSlice - 1) yield;
+      replicate(rep);
+    }
+    return { bilinear: bilinear.sort(), lowOutlier: lowOutlier.sort() };
+  });
+  return remember(key, statistics);
 }
 
 /** Both statistics over the conditional parametric bootstrap of a censored sample (see the header). */
@@ -193,29 +203,38 @@ export function bootstrapCheckStatistics(sample: StrengthSample): NullDistributi
   if (hit) return hit;
   const fit = fitMaximumLikelihood(sample);
   const n = strengths.length;
-  const random = new SeededRandom((dataSeed(strengths, censored) ^ SALT) >>> 0);
   const inverseShape = 1 / fit.shape;
-  const drawn = new Float64Array(n);
-  const flags = new Uint8Array(n);
-  const order = new Uint32Array(n);
-  const bilinear: number[] = [];
-  const lowOutlier: number[] = [];
-  for (let rep = 0; rep < CHECK_REPLICATIONS; rep++) {
-    let failures = 0;
-    for (let i = 0; i < n; i++) {
-      const a = fit.scale * Math.pow(random.exponential(), inverseShape);
-      const survives = censored[i] === 1 && a > strengths[i];
-      drawn[i] = survives ? strengths[i] : a;
-      flags[i] = survives ? 1 : 0;
-      if (!survives) failures++;
+  const perSlice = replicationsPerSlice(3 * n);
+  const statistics = simulate("single-population checks of a censored sample", key, function* () {
+    const random = new SeededRandom((dataSeed(strengths, censored) ^ SALT) >>> 0);
+    const drawn = new Float64Array(n);
+    const flags = new Uint8Array(n);
+    const order = new Uint32Array(n);
+    const bilinear: number[] = [];
+    const lowOutlier: number[] = [];
+    // One replication as a plain function: V8 optimizes a long loop inside a generator poorly.
+    const replicate = (): void => {
+      let failures = 0;
+      for (let i = 0; i < n; i++) {
+        const a = fit.scale * Math.pow(random.exponential(), inverseShape);
+        const survives = censored[i] === 1 && a > strengths[i];
+        drawn[i] = survives ? strengths[i] : a;
+        flags[i] = survives ? 1 : 0;
+        if (!survives) failures++;
+      }
+      if (failures < LOW_OUTLIER_MIN_FAILURES) return;
+      const { x, y, p } = failurePositions(drawn, flags, failures, order);
+      const s = statisticsOfArrays(x, y, p);
+      if (s.lowOutlier !== undefined) lowOutlier.push(s.lowOutlier);
+      if (s.bilinear) bilinear.push(s.bilinear.statistic);
+    };
+    for (let rep = 0; rep < CHECK_REPLICATIONS; rep++) {
+      if (rep % perSlice === perSlice - 1) yield;
+      replicate();
     }
-    if (failures < LOW_OUTLIER_MIN_FAILURES) continue;
-    const { x, y, p } = failurePositions(drawn, flags, failures, order);
-    const s = statisticsOfArrays(x, y, p);
-    if (s.lowOutlier !== undefined) lowOutlier.push(s.lowOutlier);
-    if (s.bilinear) bilinear.push(s.bilinear.statistic);
-  }
-  return remember(key, { bilinear: Float64Array.from(bilinear).sort(), lowOutlier: Float64Array.from(lowOutlier).sort() });
+    return { bilinear: Float64Array.from(bilinear).sort(), lowOutlier: Float64Array.from(lowOutlier).sort() };
+  });
+  return remember(key, statistics);
 }
 
 /**
