@@ -20,7 +20,10 @@
 import { existsSync } from "node:fs";
 import { mkdir } from "node:fs/promises";
 import { dirname, resolve } from "node:path";
-import type { FormulaResult } from "./evaluate-workbook";
+import type { DirectEvaluation } from "./direct-evaluation";
+import type { Evaluation, FormulaResult } from "./evaluate-workbook";
+import type { FunctionMetadata } from "../functions/metadata";
+import type { LoadedWorkbook } from "./workbook-io";
 
 /** calc's exit codes: 1 a file that cannot be read or written, 2 a usage error, 3 --strict and a formula evaluated to an error. */
 export const EXIT_FORMULA_ERRORS = 3;
@@ -94,14 +97,16 @@ export async function calc(options: CalcOptions, io: Io): Promise<FormulaResult[
   const { loadWorkbook } = await import("./workbook-io");
   const { checkWorkbookSize } = await import("./workbook-limits");
   const { checkRangeBudget } = await import("./range-budget");
-  const { evaluateWorkbook } = await import("./evaluate-workbook");
   const { generateMetadata } = await import("../functions/metadata");
   const workbook = await loadWorkbook(options.file, { decimalMark: options.decimalMark });
   if (workbook.readAs) io.err(`brittle: read ${options.file} as ${workbook.readAs}\n`);
   checkWorkbookSize(workbook, options.file);
   checkRangeBudget(workbook, options.file);
   const { functions } = await generateMetadata();
-  const evaluation = evaluateWorkbook(workbook, functions);
+  // A .csv of plain BRITTLE.* calls is evaluated without the engine (same results; see direct-evaluation.ts);
+  // anything else, and any written copy, goes through the engine.
+  const direct = options.out ? undefined : await evaluateWithoutEngine(workbook, functions);
+  const evaluation = direct ?? (await import("./evaluate-workbook")).evaluateWorkbook(workbook, functions);
   const errors = evaluation.formulas.filter((f) => f.error !== undefined);
   if (options.json) io.out(JSON.stringify(evaluation.grids) + "\n");
   else io.out(formatResults(evaluation.formulas) + summaryLine(evaluation.formulas.length, errors.length));
@@ -112,7 +117,7 @@ export async function calc(options: CalcOptions, io: Io): Promise<FormulaResult[
     const { writeEvaluated } = await import("./write-workbook");
     const { describeDropped } = await import("./xlsx-parts");
     await mkdir(dirname(resolve(options.out)), { recursive: true });
-    const report = await writeEvaluated(workbook, evaluation, options.out);
+    const report = await writeEvaluated(workbook, evaluation as Evaluation, options.out);
     for (const line of report.asText) io.err(`brittle: note: written as text, not as a formula: ${line}\n`);
     for (const line of report.namesLeftOut) io.err(`brittle: note: defined name left out of the copy: ${line}\n`);
     const dropped = workbook.dropped ? describeDropped(workbook.dropped) : "";
@@ -121,6 +126,14 @@ export async function calc(options: CalcOptions, io: Io): Promise<FormulaResult[
   }
   if (options.strict && errors.length > 0) throw new FormulaErrors(errors.length, evaluation.formulas.length);
   return evaluation.formulas;
+}
+
+async function evaluateWithoutEngine(workbook: LoadedWorkbook, functions: FunctionMetadata[]): Promise<DirectEvaluation | undefined> {
+  if (workbook.kind !== "csv") return undefined;
+  const { evaluateDirectly } = await import("./direct-evaluation");
+  const { guarded } = await import("../functions/registry"); // fills spillShapes as its families load
+  const { spillShapes } = await import("../functions/spill-shapes");
+  return evaluateDirectly(workbook, functions, guarded, new Set(Object.keys(spillShapes)));
 }
 
 /** --strict and some formula evaluated to an error: the cells are listed already. */

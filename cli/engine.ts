@@ -24,9 +24,11 @@ import { isCellFailure, type CellResult } from "../functions/cells";
 import type { FunctionMetadata } from "../functions/metadata";
 import { guarded } from "../functions/registry";
 import { spillShapes, type SpillShape } from "../functions/spill-shapes";
+import { NAMESPACE, normaliseFormula } from "./formula-text";
 import { MAX_COLUMNS, MAX_ROWS } from "./workbook-limits";
 
-export const NAMESPACE = "BRITTLE";
+export { NAMESPACE, normaliseFormula };
+
 export const LICENSE_KEY = "gpl-v3";
 
 const ERROR_TYPES = { "#VALUE!": ErrorType.VALUE, "#NUM!": ErrorType.NUM, "#N/A": ErrorType.NA } as const;
@@ -143,30 +145,6 @@ export function registerFunctions(metadata: FunctionMetadata[]): void {
   const names = Object.keys((plugin as unknown as { implementedFunctions: object }).implementedFunctions);
   HyperFormula.registerFunctionPlugin(plugin as never, { enGB: Object.fromEntries(names.map((n) => [n, n])) });
   registered = true;
-}
-
-/**
- * What a spreadsheet accepts but the engine's parser does not, rewritten
- * outside string literals: saved add-in calls (_xldudf_BRITTLE_NAME( becomes
- * BRITTLE.NAME( ), the prefix a spreadsheet saves before newer built-ins
- * (_xlfn.STDEV.S( becomes STDEV.S( ), an upper-case exponent in a number
- * (3.15E8 becomes 3.15e8), and a range from row 1 to the sheet's last row
- * (A1:A1048576), which the engine would build cell by cell, as the same
- * column range (A:A), which it does not.
- */
-export function normaliseFormula(formula: string): string {
-  return formula
-    .split(/("(?:[^"]|"")*")/)
-    .map((part, i) =>
-      i % 2 === 1
-        ? part
-        : part
-            .replace(/_xldudf_BRITTLE_([A-Za-z0-9]+)\s*\(/gi, (_, name: string) => `${NAMESPACE}.${name.toUpperCase()}(`)
-            .replace(/(?<![A-Za-z0-9_.])_xl(?:fn|ws)\.(?=[A-Za-z][A-Za-z0-9_.]*\s*\()/gi, "")
-            .replace(/(?<![A-Za-z_$\d.])(\d+\.?\d*|\.\d+)E([+-]?\d+)/g, "$1e$2")
-            .replace(/(?<![A-Za-z0-9_.$])(\$?[A-Za-z]{1,3})\$?1:(\$?[A-Za-z]{1,3})\$?1048576(?![0-9A-Za-z_(])/g, "$1:$2"),
-    )
-    .join("");
 }
 
 /**

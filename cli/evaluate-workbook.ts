@@ -9,11 +9,12 @@ import { CellType, DetailedCellError, type HyperFormula } from "hyperformula";
 import { addNamedRanges, createEngine, type NamedRange } from "./engine";
 import { NOT_REPRESENTABLE, standardError, type StandardError } from "./error-values";
 import { fitsRangeBudget } from "./range-budget";
-import { EMPTY_ROW } from "./workbook-limits";
+import { columnName, ShownGrid, type Shown } from "./shown-grid";
 import type { FunctionMetadata } from "../functions/metadata";
 import type { LoadedWorkbook } from "./workbook-io";
 
-export type Shown = number | string | boolean | null;
+export type { Shown };
+export { columnName };
 
 export interface FormulaResult extends ShownCell {
   sheet: string;
@@ -47,15 +48,8 @@ export function evaluateWorkbook(workbook: LoadedWorkbook, metadata: FunctionMet
   const formulas: FormulaResult[] = [];
   for (const name of Object.keys(workbook.sheets)) {
     const sheet = engine.getSheetId(name)!;
-    const grid: Shown[][] = [];
-    const put = (r: number, c: number, v: Shown) => {
-      if (v === null) return;
-      while (grid.length <= r) grid.push(EMPTY_ROW as Shown[]);
-      if (grid[r] === EMPTY_ROW) grid[r] = [];
-      const row = grid[r];
-      while (row.length < c) row.push(null);
-      row[c] = v;
-    };
+    const grid = new ShownGrid();
+    const put = (r: number, c: number, v: Shown) => grid.put(r, c, v);
     workbook.sheets[name].forEach((row, r) =>
       row.forEach((contents, c) => {
         const cell = shownCell(engine.getCellValue({ sheet, row: r, col: c }));
@@ -69,7 +63,7 @@ export function evaluateWorkbook(workbook: LoadedWorkbook, metadata: FunctionMet
         }
       }),
     );
-    grids[name] = grid;
+    grids[name] = grid.rows;
   }
   return { engine, grids, formulas, addInNames: new Set(metadata.map((f) => f.id)), refusedNames };
 }
@@ -106,12 +100,6 @@ function namedRanges(workbook: LoadedWorkbook, engine: HyperFormula): { names: N
     out.push({ name: n.name, expression: n.formula, ...(scope === undefined ? {} : { scope }) });
   }
   return { names: out, tooLarge };
-}
-
-export function columnName(index: number): string {
-  let name = "";
-  for (let n = index + 1; n > 0; n = Math.floor((n - 1) / 26)) name = String.fromCharCode(65 + ((n - 1) % 26)) + name;
-  return name;
 }
 
 /** The rows and columns an array formula fills (1 x 1 for any other cell). */

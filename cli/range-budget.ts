@@ -7,7 +7,7 @@
  * the other ranges of a workbook may span at most MAX_RANGE_CELLS cells in
  * all, counting each distinct range once (the engine shares them).
  */
-import { normaliseFormula } from "./engine";
+import { normaliseFormula } from "./formula-text";
 import { WorkbookError } from "./workbook-errors";
 import { MAX_COLUMNS } from "./workbook-limits";
 import type { LoadedWorkbook } from "./workbook-io";

@@ -97,7 +97,7 @@ function readCsvText(text: string, choice: DialectChoice): { rows: Contents[][];
 function csvValue(t: string, dialect: Dialect, line: number, field: number): Contents {
   if (t === "") return null;
   if (t.startsWith("=")) return t;
-  if (/^true$/i.test(t)) return true;
-  if (/^false$/i.test(t)) return false;
+  if (t.length === 4 && /^true$/i.test(t)) return true;
+  if (t.length === 5 && /^false$/i.test(t)) return false;
   return fieldNumber(t, dialect.decimalMark, line, field) ?? t;
 }

@@ -83,6 +83,8 @@ function decodeUtf16(bytes: Uint8Array, little: boolean): string {
  * @example decodeUtf8(new Uint8Array([0xc2, 0xb5])) // "µ";  decodeUtf8(new Uint8Array([0xb5])) // null
  */
 export function decodeUtf8(bytes: Uint8Array): string | null {
+  // Bytes below 0x80 only (most data files) read the same under every decoder: the built-in one is many times faster.
+  if (isAscii(bytes)) return ASCII.decode(bytes);
   const out: number[] = [];
   let s = "";
   for (let i = 0; i < bytes.length; ) {
@@ -119,6 +121,13 @@ export function decodeUtf8(bytes: Uint8Array): string | null {
     }
   }
   return s + String.fromCharCode.apply(null, out);
+}
+
+const ASCII = new TextDecoder("utf-8");
+
+function isAscii(bytes: Uint8Array): boolean {
+  for (let i = 0; i < bytes.length; i++) if (bytes[i] >= 0x80) return false;
+  return true;
 }
 
 // Windows-1252 bytes 0x80..0x9F (WHATWG Encoding Standard, index windows-1252); the rest is Latin-1.

@@ -1,0 +1,30 @@
+/**
+ * Formula text as the engine's parser takes it. Kept apart from engine.ts so
+ * that reading a formula's ranges (range-budget.ts) does not load the engine.
+ */
+
+export const NAMESPACE = "BRITTLE";
+
+/**
+ * What a spreadsheet accepts but the engine's parser does not, rewritten
+ * outside string literals: saved add-in calls (_xldudf_BRITTLE_NAME( becomes
+ * BRITTLE.NAME( ), the prefix a spreadsheet saves before newer built-ins
+ * (_xlfn.STDEV.S( becomes STDEV.S( ), an upper-case exponent in a number
+ * (3.15E8 becomes 3.15e8), and a range from row 1 to the sheet's last row
+ * (A1:A1048576), which the engine would build cell by cell, as the same
+ * column range (A:A), which it does not.
+ */
+export function normaliseFormula(formula: string): string {
+  return formula
+    .split(/("(?:[^"]|"")*")/)
+    .map((part, i) =>
+      i % 2 === 1
+        ? part
+        : part
+            .replace(/_xldudf_BRITTLE_([A-Za-z0-9]+)\s*\(/gi, (_, name: string) => `${NAMESPACE}.${name.toUpperCase()}(`)
+            .replace(/(?<![A-Za-z0-9_.])_xl(?:fn|ws)\.(?=[A-Za-z][A-Za-z0-9_.]*\s*\()/gi, "")
+            .replace(/(?<![A-Za-z_$\d.])(\d+\.?\d*|\.\d+)E([+-]?\d+)/g, "$1e$2")
+            .replace(/(?<![A-Za-z0-9_.$])(\$?[A-Za-z]{1,3})\$?1:(\$?[A-Za-z]{1,3})\$?1048576(?![0-9A-Za-z_(])/g, "$1:$2"),
+    )
+    .join("");
+}
