@@ -6,6 +6,7 @@
  *
  * Only adapters are exported: the registry registers every export.
  */
+import { InputError } from "../src/errors";
 import { fitMaterial, type MaterialFitResult } from "../src/design/material-fit";
 import { materialFitCaution } from "../src/design/material-fit-caution";
 import { MATERIAL_SIMULATION, simulateMaterialFit, type MaterialSimulation } from "../src/design/material-fit-simulation";
@@ -73,11 +74,24 @@ function groupByConfiguration(strengths: unknown, configurations: unknown, censo
   return [...groups.values()];
 }
 
+/**
+ * The simulated bounds and p-values, or why there are none. They need complete samples, and enough simulated data
+ * sets that can be fitted: the point fit stays useful when they do not exist, so the table shows it with the reason.
+ */
+function simulatedBounds(fit: MaterialFitResult, laws: SizeLaw[], confidence: number): { sim: MaterialSimulation | null; notSimulated: string } {
+  if (fit.censored) return { sim: null, notSimulated: "n/a (censored specimens: simulation needs complete samples)" };
+  try {
+    return { sim: simulateMaterialFit({ fit, laws, confidence, seed: MATERIAL_SIMULATION.seed }), notSimulated: "" };
+  } catch (error) {
+    if (error instanceof InputError && error.kind === "notApplicable") return { sim: null, notSimulated: `n/a (${error.message})` };
+    throw error;
+  }
+}
+
 const NO_OWN_FIT = "n/a (failures all equal in a configuration: no finite modulus of its own)";
 
-function fitTable(fit: MaterialFitResult, sim: MaterialSimulation | null, confidence: number, sizeUnit: string): CellValue[][] {
+function fitTable(fit: MaterialFitResult, sim: MaterialSimulation | null, notSimulated: string, confidence: number, sizeUnit: string): CellValue[][] {
   const level = `(${percent(confidence)}, two-sided, simulated)`;
-  const notSimulated = "n/a (censored specimens: simulation needs complete samples)";
   const rows: CellValue[][] = [
     ["modulus m (maximum likelihood, no unbiasing)", fit.shape],
     ["material scale sigma_0 (stress x size^(1/m))", fit.materialScale],
@@ -162,11 +176,9 @@ export function MATERIALFIT(
   if (!fit.converged) {
     throw new CellError("#N/A", "the pooled likelihood has no maximum inside the moduli searched: these specimens do not fit one material model");
   }
-  const sim = fit.censored
-    ? null
-    : simulateMaterialFit({ fit, laws, confidence: level, seed: MATERIAL_SIMULATION.seed });
+  const { sim, notSimulated } = simulatedBounds(fit, laws, level);
   const unit = flawKind === "surface" ? "effective area (mm^2 for presets and dimensions in mm)" : "effective volume (mm^3 for presets and dimensions in mm)";
-  return fitTable(fit, sim, level, unit);
+  return fitTable(fit, sim, notSimulated, level, unit);
 }
 
 function planningInputs(modulus: unknown, survival: unknown, sizeRatio: unknown, confidence: unknown) {

@@ -40,6 +40,16 @@ describe("the pooled-fit panel", () => {
     expect(answer.checks).toMatch(/the size effect fails .*size scaling is not to be trusted for the part/);
   });
 
+  // The case properties-cells found for the cell (see test/material-cells.test.ts): the fit exists, the simulated
+  // bounds do not; the panel shows the fit and says why the checks were not run instead of failing outright.
+  it("shows the fit and a caution when simulated bounds do not exist (a modulus near the end of the covered range)", () => {
+    const lines = ["1\tC1161-B-4PT", "1\tC1161-B-4PT", "1\tC1161-B-4PT", "1\tC1161-B-4PT", "1\tC1499-20/10", "1\tC1499-20/10", "1\tC1499-20/10", "0.9598622010341454\tC1499-20/10"];
+    const answer = materialFitAnswer({ text: lines.join("\n"), flaws: "volume", poisson: 0.22, decimalComma: false });
+    expect(answer.caution).toBe(true);
+    expect(answer.checks).toMatch(/^CAUTION: the one-modulus and size-effect checks were not run \(only \d+ of 2000/);
+    expect(answer.rows[0].value).toMatch(/^1\d\d(\.\d+)? \(bounds not available: /);
+  }, 60_000);
+
   it("needs two configurations, and names a bad line", () => {
     expect(() => materialFitAnswer({ text: "412\tC1161-B-4PT\n398\tC1161-B-4PT\n", flaws: "volume", decimalComma: false })).toThrow(/at least two configurations/);
     expect(() => materialFitAnswer({ text: "412\tC1161-B-4PT\nabc\tC1161-B-4PT\n", flaws: "volume", decimalComma: false })).toThrow(/line 2: "abc" is not a strength/);

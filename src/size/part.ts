@@ -106,7 +106,7 @@ function scanSlowly(principal: Float64Array, stride: number, sizes: Float64Array
  */
 export function partRiskSum({ principal, stride, sizes, shape, criterion = "PIA" }: PartRiskInput): PartRiskSum {
   ensurePositive(shape, "modulus");
-  ensure(stride === 1 || stride === 3, `stride must be 1 or 3 (got ${stride})`);
+  ensure(stride === 1 || stride === 3, () => `stride must be 1 or 3 (got ${stride})`);
   const rows = sizes.length;
   const { peak, peakRow } = scan(principal, stride, sizes);
   if (peak === 0) return { peak: 0, peakRow: -1, effectiveSize: 0, rows };

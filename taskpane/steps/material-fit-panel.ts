@@ -62,9 +62,25 @@ export function materialFitAnswer(request: MaterialFitRequest): MaterialFitAnswe
   const laws = grouped.map((g) => sizeLaw({ geometry: JSON.parse(g.key), flaws: request.flaws, poisson: request.poisson, criterion: "PIA" }));
   const fit = fitMaterial({ groups: grouped.map((g, k) => ({ label: g.label, law: laws[k], strengths: g.strengths })) });
   if (!fit.converged) throw new InputError("notConverged", "the pooled likelihood has no maximum inside the moduli searched");
-  const sim = simulateMaterialFit({ fit, laws, seed: MATERIAL_SIMULATION.seed });
   const unit = request.flaws === "surface" ? "mm^2" : "mm^3";
   const f = (x: number) => String(Number(x.toPrecision(4)));
+  let sim;
+  try {
+    sim = simulateMaterialFit({ fit, laws, seed: MATERIAL_SIMULATION.seed });
+  } catch (error) {
+    // The fit exists even where simulated bounds do not (e.g. a modulus near the end of the covered range).
+    if (!(error instanceof InputError && error.kind === "notApplicable")) throw error;
+    const reason = `not available: ${error.message}`;
+    return {
+      headline: `${fit.groups.reduce((s, g) => s + g.specimens, 0)} specimens in ${fit.groups.length} configurations; no simulated bounds or checks.`,
+      rows: [
+        { label: "Weibull modulus (pooled, maximum likelihood)", value: `${f(fit.shape)} (bounds ${reason})` },
+        { label: `Material scale (MPa ${unit}^(1/m))`, value: f(fit.materialScale) },
+      ],
+      checks: `CAUTION: the one-modulus and size-effect checks were not run (${error.message}).`,
+      caution: true,
+    };
+  }
   const rows = [
     { label: "Weibull modulus (pooled, maximum likelihood)", value: `${f(fit.shape)} (90 % two-sided, simulated: ${f(sim.shapeBounds.lower)} to ${f(sim.shapeBounds.upper)})` },
     { label: `Material scale (MPa ${unit}^(1/m))`, value: `${f(fit.materialScale)} (90 % two-sided, simulated: ${f(sim.scaleBounds.lower)} to ${f(sim.scaleBounds.upper)})` },
