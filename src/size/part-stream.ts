@@ -291,7 +291,10 @@ export class PartTableReader {
     }
     this.pending.push(chunk);
     this.pendingBytes += chunk.length;
-    for (let i = 0; i < chunk.length; i++) if (chunk[i] === LF || chunk[i] === CR) this.pendingLines++;
+    // Counting stops at the read-ahead's line limit: a large first chunk is not scanned twice.
+    let lines = this.pendingLines;
+    for (let i = 0; i < chunk.length && lines < SNIFF_LINES; i++) if (chunk[i] === LF || chunk[i] === CR) lines++;
+    this.pendingLines = lines;
     if (this.pendingLines >= SNIFF_LINES || this.pendingBytes >= SNIFF_BYTES) this.sniff();
   }
 
