@@ -17,11 +17,13 @@
  * go to stderr; results to stdout.
  * Exit status: 0 done, 1 bad data (the message names the line), 2 bad usage.
  */
-import { createReadStream, statSync } from "node:fs";
+import { closeSync, openSync, statSync } from "node:fs";
 import { InputError } from "../src/errors";
 import { CRITERIA, type Criterion } from "../src/size/criteria";
 import type { ColumnChoice } from "../src/size/part-columns";
 import { type PartStreamOptions, type PartStreamResult, PartTableReader } from "../src/size/part-stream";
+import { parallelAvailable, readPartFileInHalves } from "./part-parallel";
+import { readFileRange } from "./read-file-range";
 
 export interface PartCommandIo {
   out: (text: string) => void;
@@ -166,16 +168,31 @@ export function parsePartArgs(args: string[]): PartArgs {
 
 /**
  * Streams a file (or standard input) through the reader. The core of the
- * command, exported so a benchmark can time file reading plus parsing.
+ * command, exported so a benchmark can time file reading plus parsing. A
+ * large file is read in two halves at once when BRITTLE_THREADS=2 asks for it
+ * and it is safe (cli/part-parallel.ts; no progress lines then), otherwise in one pass.
  */
 export async function streamPartFile(
   file: string,
   options: PartStreamOptions,
   onProgress?: (rows: number, bytes: number, totalBytes: number | null) => void,
 ): Promise<PartStreamResult> {
-  const reader = new PartTableReader(options);
   const total = file === "-" ? null : statSync(file).size;
-  const source = file === "-" ? process.stdin : createReadStream(file, { highWaterMark: 1 << 20 });
+  if (parallelAvailable(file, total)) {
+    const joined = await readPartFileInHalves(file, total as number, options);
+    if (joined !== null) return joined;
+  }
+  const reader = new PartTableReader(options);
+  if (file !== "-") {
+    const fd = openSync(file, "r");
+    try {
+      readFileRange(fd, 0, total as number, reader, (bytes) => onProgress?.(reader.rows, bytes, total));
+    } finally {
+      closeSync(fd);
+    }
+    return reader.finish();
+  }
+  const source = process.stdin;
   let bytes = 0;
   for await (const chunk of source as AsyncIterable<Uint8Array>) {
     reader.push(chunk);

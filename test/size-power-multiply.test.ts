@@ -118,6 +118,29 @@ describe("power kernel, whole-number modulus (repeated multiplication)", () => {
     expect(relativeError(fast.value, tables.value)).toBeLessThan(1e-14);
   });
 
+  it("rows of three principal stresses (their own loop): the same visits and sum as the table path", () => {
+    const rnd = lcg(5);
+    const rows = 1000;
+    const values = new Float64Array(rows * 3);
+    const sizes = new Float64Array(rows);
+    for (let i = 0; i < rows * 3; i++) values[i] = 100 * (rnd() - 0.3); // about a third compressive
+    for (let i = 0; i < rows; i++) sizes[i] = 0.5 + rnd();
+    values.fill(-5, 30, 33); // a row wholly in compression: term 0, never visited
+    const visits = (kernel: ScaledPower) => {
+      const seen: number[] = [];
+      const total = newTotal();
+      for (let start = 0; start < rows; start += 100) {
+        kernel.sumRows(values, 3, sizes, start, Math.min(rows, start + 100), "PIA", total, (row) => seen.push(row), () => 0);
+      }
+      return { seen, value: totalValue(total) };
+    };
+    const fast = visits(new ScaledPower(7, 70));
+    const tables = visits(new ScaledPower(7, 70, { multiply: false }));
+    expect(fast.seen).toEqual(tables.seen);
+    expect(fast.seen).not.toContain(10);
+    expect(relativeError(fast.value, tables.value)).toBeLessThan(1e-14);
+  });
+
   it("non-integer and large moduli keep the table path (results unchanged by the option)", () => {
     for (const m of [10.5, MAX_MULTIPLY_SHAPE + 1, 200]) {
       expect(new ScaledPower(m, 3).of(2.2)).toBe(new ScaledPower(m, 3, { multiply: false }).of(2.2));

@@ -48,6 +48,21 @@ describe("maximum likelihood against scipy.stats.weibull_min.fit (floc=0; Censor
   }
 });
 
+describe("hostile input: strengths spanning more decades than a ratio of doubles holds", () => {
+  // 1e-300 / 1e300 underflows to 0, and ln 0 once turned into "all failure strengths are equal to the
+  // largest strength". The likelihood equations still have a finite solution: 40-digit mpmath
+  // solutions from test/fixtures/generate_wide_span.py (hostile/fit-wide-span.json).
+  const wide = fixture<{ datasets: Dataset[] }>("hostile/fit-wide-span.json").datasets;
+  for (const d of wide) {
+    it(`${d.id}: shape and scale to 1e-12 relative, converged`, () => {
+      const fit = fitMaximumLikelihood({ strengths: d.strengths, censored: d.censored });
+      expect(fit.converged).toBe(true);
+      expect(relativeError(fit.shape, d.ml.shapeFloat)).toBeLessThan(1e-12);
+      expect(relativeError(fit.scale, d.ml.scaleFloat)).toBeLessThan(1e-12);
+    });
+  }
+});
+
 describe("maximum likelihood: properties of the estimator", () => {
   const d = datasets.find((x) => x.kind === "complete" && x.strengths.length >= 20)!;
   it("is scale-equivariant: multiplying strengths by k multiplies the scale by k (derived from the likelihood)", () => {

@@ -167,19 +167,20 @@ function checkPairs(
   }
   const pairs: Array<[number, number]> = [];
   for (let i = 0; i < xs.length; i++) {
-    ensure(Number.isFinite(xs[i]) && xs[i] > 0, () => `${xName} ${i + 1} must be a positive number (got ${describe(xs[i])})`);
-    ensure(Number.isFinite(ys[i]) && ys[i] > 0, () => `${yName} ${i + 1} must be a positive number (got ${describe(ys[i])})`);
+    // Test first, build the message only on failure (no closure per specimen either).
+    if (!(Number.isFinite(xs[i]) && xs[i] > 0)) throw new InputError("input", `${xName} ${i + 1} must be a positive number (got ${describe(xs[i])})`);
+    if (!(Number.isFinite(ys[i]) && ys[i] > 0)) throw new InputError("input", `${yName} ${i + 1} must be a positive number (got ${describe(ys[i])})`);
     pairs.push([xs[i], ys[i]]);
   }
   // N - 2 degrees of freedom for the slope interval need at least three points.
-  ensure(pairs.length >= 3, `a fatigue fit needs at least three specimens (got ${pairs.length})`);
+  ensure(pairs.length >= 3, () => `a fatigue fit needs at least three specimens (got ${pairs.length})`);
   return pairs;
 }
 
 function checkConfidence(confidence: number): void {
   ensure(
     Number.isFinite(confidence) && confidence > 0 && confidence < 1,
-    `confidence must lie strictly between 0 and 1 (got ${confidence})`,
+    () => `confidence must lie strictly between 0 and 1 (got ${confidence})`,
   );
 }
 
@@ -203,7 +204,7 @@ function fitLine(
     sxy.add(dx * dy);
     syy.add(dy * dy);
   }
-  ensure(sxx.value > 0, `a fatigue fit needs at least two different ${levelName}`);
+  ensure(sxx.value > 0, () => `a fatigue fit needs at least two different ${levelName}`);
   const slope = sxy.value / sxx.value;
   const intercept = yMean - slope * xMean;
   const residuals = new CompensatedSum();

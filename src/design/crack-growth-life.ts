@@ -36,7 +36,7 @@
 import { ensure, ensurePositive, ensurePositiveResult } from "../errors";
 
 export function checkExponent(n: number): void {
-  ensure(Number.isFinite(n) && n > 2, `the crack-growth exponent n must be greater than 2 (got ${n})`);
+  ensure(Number.isFinite(n) && n > 2, () => `the crack-growth exponent n must be greater than 2 (got ${n})`);
 }
 
 /**
@@ -109,7 +109,7 @@ export function crackGrowthBFromStaticFit({
   inertStrength: number;
 }): number {
   checkExponent(n);
-  ensure(Number.isFinite(log10D), `log10 D must be a finite number (got ${log10D})`);
+  ensure(Number.isFinite(log10D), () => `log10 D must be a finite number (got ${log10D})`);
   ensurePositive(inertStrength, "inert strength");
   const logB = log10D * Math.LN10 - (n - 2) * Math.log(inertStrength);
   return finite(Math.exp(logB), "B parameter");

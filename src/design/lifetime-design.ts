@@ -142,11 +142,11 @@ export function loadHistoryStress({
   for (let j = 0; j < stresses.length; j++) {
     const s = stresses[j];
     const t = durations[j];
-    ensure(
-      Number.isFinite(s) && s >= 0,
-      () => `stress ${j + 1} must be zero or positive (got ${describe(s)}); enter compressive blocks as zero`,
-    );
-    ensure(Number.isFinite(t) && t >= 0, () => `duration ${j + 1} must be zero or positive (got ${describe(t)})`);
+    // Test first, build the message only on failure (no closure per block either).
+    if (!(Number.isFinite(s) && s >= 0)) {
+      throw new InputError("input", `stress ${j + 1} must be zero or positive (got ${describe(s)}); enter compressive blocks as zero`);
+    }
+    if (!(Number.isFinite(t) && t >= 0)) throw new InputError("input", `duration ${j + 1} must be zero or positive (got ${describe(t)})`);
     maxStress = Math.max(maxStress, s);
     total.add(t);
   }

@@ -11,8 +11,8 @@ import { ensure, ensureProbability } from "../errors";
 
 function checkLot(failureProbability: number, lotSize: number): void {
   ensure(Number.isFinite(failureProbability) && failureProbability >= 0 && failureProbability < 1,
-    `failure probability must lie in [0, 1) (got ${failureProbability})`);
-  ensure(Number.isInteger(lotSize) && lotSize >= 1 && lotSize <= 1e9, `lot size must be a whole number from 1 to 1e9 (got ${lotSize})`);
+    () => `failure probability must lie in [0, 1) (got ${failureProbability})`);
+  ensure(Number.isInteger(lotSize) && lotSize >= 1 && lotSize <= 1e9, () => `lot size must be a whole number from 1 to 1e9 (got ${lotSize})`);
 }
 
 export function expectedFailures({ failureProbability, lotSize }: { failureProbability: number; lotSize: number }): number {

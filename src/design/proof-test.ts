@@ -41,7 +41,7 @@ export function postProofFailureProbability({
   ensurePositive(shape, "modulus");
   ensurePositive(scale, "characteristic strength");
   ensurePositive(sizeRatio, "size ratio");
-  ensure(Number.isFinite(stress) && stress >= 0, `stress must be zero or positive (got ${stress})`);
+  ensure(Number.isFinite(stress) && stress >= 0, () => `stress must be zero or positive (got ${stress})`);
   if (stress <= proofStress) return 0;
   // k (s/th)^m (1 - (s_p/s)^m): the difference through expm1, so a stress just
   // above the proof stress keeps its digits.
@@ -77,7 +77,7 @@ export function proofMinimumLife({
   ensurePositive(serviceStress, "service stress");
   ensure(
     serviceStress <= proofStress,
-    `the service stress (${serviceStress}) exceeds the proof stress (${proofStress}): the proof test guarantees nothing`,
+    () => `the service stress (${serviceStress}) exceeds the proof stress (${proofStress}): the proof test guarantees nothing`,
   );
   return timeToFailureFromInertStrength({ stress: serviceStress, inertStrength: proofStress, n, B });
 }

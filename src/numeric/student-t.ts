@@ -14,16 +14,16 @@ import { bracketIncreasing, findRoot } from "./roots";
 
 /** Upper-tail probability P(T > t) for t >= 0 with `df` degrees of freedom. */
 export function studentUpperTail(t: number, df: number): number {
-  ensure(Number.isFinite(df) && df > 0, `degrees of freedom must be positive (got ${df})`);
-  ensure(Number.isFinite(t) && t >= 0, `t must be zero or positive (got ${t})`);
+  ensure(Number.isFinite(df) && df > 0, () => `degrees of freedom must be positive (got ${df})`);
+  ensure(Number.isFinite(t) && t >= 0, () => `t must be zero or positive (got ${t})`);
   const x = df / (df + t * t);
   return 0.5 * regularizedBeta(x, df / 2, 0.5);
 }
 
 /** The quantile t_p of Student's t with `df` degrees of freedom, for 0.5 <= p < 1. */
 export function studentQuantile(p: number, df: number): { value: number; converged: boolean } {
-  ensure(Number.isFinite(p) && p >= 0.5 && p < 1, `probability must lie in [0.5, 1) (got ${p})`);
-  ensure(Number.isFinite(df) && df > 0, `degrees of freedom must be positive (got ${df})`);
+  ensure(Number.isFinite(p) && p >= 0.5 && p < 1, () => `probability must lie in [0.5, 1) (got ${p})`);
+  ensure(Number.isFinite(df) && df > 0, () => `degrees of freedom must be positive (got ${df})`);
   if (p === 0.5) return { value: 0, converged: true };
   const tail = 1 - p;
   // Closed forms where they exist: exact and free.

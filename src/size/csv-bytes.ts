@@ -4,13 +4,19 @@
  * millions of rows, and per-line strings would dominate its time.
  *
  * Numbers: optional spaces and quotes, sign, digits, one decimal point
- * (or a comma when the delimiter is not a comma), exponent. With at most 15
- * significant digits and a decimal exponent within +/-22 the result is
- * correctly rounded (both factors are exact doubles, one rounding). Longer
- * mantissas are accumulated in floating point, within about two units in the
- * last place; larger exponents fall back to Number() on the decoded text.
- * Anything else (empty, "NaN", "inf", stray characters) is not a number.
+ * (or a comma when the delimiter is not a comma), exponent. The digits are
+ * gathered as integers (the first 15 significant ones, then up to 4 more)
+ * and turned into the nearest double by decimal-to-double.ts, the same
+ * double Number() gives. Where that method cannot decide (more than 19
+ * significant digits other than trailing zeros, a decimal exponent beyond
+ * +/-250, a decimal within 2^-100 of a midpoint between two doubles) the
+ * text goes to Number() itself. Anything else (empty, "NaN", "inf", stray
+ * characters) is not a number.
  */
+import { decimalInto } from "./decimal-to-double";
+
+/** parseNumber's result slot (decimalInto writes its result, see there). */
+const generalValue = new Float64Array(1);
 
 export const COMMA = 0x2c;
 export const SEMICOLON = 0x3b;
@@ -21,11 +27,6 @@ export const CR = 0x0d;
 export const LF = 0x0a;
 /** Marker for "fields separated by runs of spaces or tabs". */
 export const WHITESPACE = -1;
-
-const POW10 = [
-  1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19,
-  1e20, 1e21, 1e22,
-];
 
 function isSpace(b: number): boolean {
   return b === SPACE || b === TAB;
@@ -62,24 +63,31 @@ export function parseNumber(buf: Uint8Array, start: number, end: number, altDeci
     negative = b === 0x2d;
     i++;
   }
-  let mantissa = 0;
-  let digits = 0; // significant digits taken into the mantissa
+  // Significant digits in groups of 8, 8 and 3 (see decimal-to-double.ts); leading zeros are not counted.
+  let first = 0;
+  let second = 0;
+  let third = 0;
+  let count = 0;
   let scale = 0; // decimal exponent adjustment
   let any = false;
   let seenPoint = false;
+  let inexact = false; // a nonzero digit beyond the 19th
   for (; i < j; i++) {
     b = buf[i];
     const d = b - 0x30;
     if (d >= 0 && d <= 9) {
       any = true;
-      if (digits < 19) {
-        if (mantissa !== 0 || d !== 0) {
-          mantissa = mantissa * 10 + d;
-          digits++;
-        }
+      if (count === 0 && d === 0) {
         if (seenPoint) scale--;
-      } else if (!seenPoint) {
-        scale++;
+      } else if (count < 19) {
+        if (count < 8) first = first * 10 + d;
+        else if (count < 16) second = second * 10 + d;
+        else third = third * 10 + d;
+        count++;
+        if (seenPoint) scale--;
+      } else {
+        if (d !== 0) inexact = true;
+        if (!seenPoint) scale++;
       }
       continue;
     }
@@ -108,18 +116,12 @@ export function parseNumber(buf: Uint8Array, start: number, end: number, altDeci
     }
     scale += expNegative ? -exponent : exponent;
   }
-  let value: number;
-  if (mantissa === 0) value = 0;
-  else if (scale === 0) value = mantissa;
-  else if (scale > 0 && scale <= 22) value = mantissa * POW10[scale];
-  else if (scale < 0 && scale >= -22) value = mantissa / POW10[-scale];
-  else {
-    value = Number(decodeAscii(buf, start, end).trim().replace(/^"|"$/g, "").replace(",", "."));
-    if (!Number.isFinite(value)) return NaN;
-    return value;
+  if (inexact || !decimalInto(first, second, third, count, scale, generalValue, 0)) {
+    // Undecided by the exact method: Number() on the same text (validated above: sign, digits, mark, exponent).
+    const value = Number(decodeAscii(buf, start, end).trim().replace(/^"|"$/g, "").trim().replace(",", "."));
+    return Number.isFinite(value) ? value : NaN;
   }
-  if (!Number.isFinite(value)) return NaN;
-  return negative ? -value : value;
+  return negative ? -generalValue[0] : generalValue[0];
 }
 
 /**
@@ -175,19 +177,41 @@ export function splitFields(buf: Uint8Array, start: number, end: number, delimit
   return fields;
 }
 
-/** Where the last fastNumber call stopped (the byte after the number). */
-export let fastStop = 0;
+/**
+ * The value of four decimal digits at buf[i..i+3], or -1 if any of the four
+ * bytes is not a digit: all four tested and combined at once in one 32-bit
+ * word (bytes 0x30-0x39 are the ones whose high nibble is 3 both before and
+ * after adding 6), instead of four rounds of test, multiply and add.
+ */
+function fourDigits(buf: Uint8Array, i: number): number {
+  const w = buf[i] | (buf[i + 1] << 8) | (buf[i + 2] << 16) | (buf[i + 3] << 24);
+  if ((w & 0xf0f0f0f0) !== 0x30303030 || ((w + 0x06060606) & 0xf0f0f0f0) !== 0x30303030) return -1;
+  const d = w - 0x30303030; // digit k in byte k
+  const pairs = (d * 10 + (d >>> 8)) & 0x00ff00ff; // 10 d0 + d1 in the low half, 10 d2 + d3 in the high
+  return (pairs & 0xffff) * 100 + (pairs >>> 16);
+}
 
 /**
  * The common case only, fused with finding the field's end: a plain number
  * (sign, at most 19 significant digits, the file's decimal mark `decimal`,
- * exponent within +/-22) followed directly by the delimiter, CR, LF or the
- * end. `decimal` is '.' or ',' once the file's mark is settled, -1 before
- * (whole numbers only). Returns NaN for anything else (spaces, quotes, the
- * other mark, long mantissas, junk), and the caller then takes the general
- * path, which gives the same value or the error message.
+ * an exponent of at most 3 digits) followed directly by the delimiter, CR,
+ * LF or the end. Writes the value to out[at] and returns the index just
+ * after the number, or -1 for anything else (spaces, quotes, the other mark,
+ * long mantissas, junk, a decimal exactly between two doubles), and the
+ * caller then takes the general path, which gives the same value or the
+ * error message; -0 gives 0. `decimal` is '.' or ',' once the file's mark is settled, -1
+ * before (whole numbers only). Only small integers cross the calls, so
+ * nothing is boxed per number.
  */
-export function fastNumber(buf: Uint8Array, start: number, end: number, delimiter: number, decimal: number): number {
+export function fastNumber(
+  buf: Uint8Array,
+  start: number,
+  end: number,
+  delimiter: number,
+  decimal: number,
+  out: Float64Array,
+  at: number,
+): number {
   let i = start;
   let b = buf[i];
   let negative = false;
@@ -195,37 +219,77 @@ export function fastNumber(buf: Uint8Array, start: number, end: number, delimite
     negative = b === 0x2d;
     b = buf[++i];
   }
-  let mantissa = 0;
-  let digits = 0;
-  let scale = 0;
-  let any = false;
+  // Leading zeros (and the mark among them) are not significant digits.
+  let point = -1;
+  let zeros = false;
   while (i < end) {
-    const d = b - 0x30;
-    if (d < 0 || d > 9) break;
-    any = true;
-    if (mantissa !== 0 || d !== 0) {
-      mantissa = mantissa * 10 + d;
-      digits++;
-    }
+    if (b === 0x30) zeros = true;
+    else if (b === decimal && point < 0) point = i;
+    else break;
     b = buf[++i];
   }
-  if (i < end && b === decimal) {
-    b = buf[++i];
-    while (i < end) {
-      const d = b - 0x30;
-      if (d < 0 || d > 9) break;
-      any = true;
-      if (mantissa !== 0 || d !== 0) {
-        mantissa = mantissa * 10 + d;
-        digits++;
+  // Significant digits in small-integer groups of 8, 8 and 3 (short dependency chains, no boxed
+  // doubles); a 20th sends the text to the general path.
+  let first = 0;
+  let second = 0;
+  let third = 0;
+  let count = 0;
+  digits: {
+    while (count < 8) {
+      if (count <= 4 && i + 4 <= end) {
+        const four = fourDigits(buf, i);
+        if (four >= 0) {
+          first = first * 10000 + four;
+          count += 4;
+          i += 4;
+          b = buf[i];
+          continue;
+        }
       }
-      scale--;
+      const d = b - 0x30;
+      if (d >= 0 && d <= 9 && i < end) {
+        first = first * 10 + d;
+        count++;
+      } else if (b === decimal && point < 0 && i < end) point = i;
+      else break digits;
       b = buf[++i];
     }
+    while (count < 16) {
+      if (count <= 12 && i + 4 <= end) {
+        const four = fourDigits(buf, i);
+        if (four >= 0) {
+          second = second * 10000 + four;
+          count += 4;
+          i += 4;
+          b = buf[i];
+          continue;
+        }
+      }
+      const d = b - 0x30;
+      if (d >= 0 && d <= 9 && i < end) {
+        second = second * 10 + d;
+        count++;
+      } else if (b === decimal && point < 0 && i < end) point = i;
+      else break digits;
+      b = buf[++i];
+    }
+    while (count < 19) {
+      const d = b - 0x30;
+      if (d >= 0 && d <= 9 && i < end) {
+        third = third * 10 + d;
+        count++;
+      } else if (b === decimal && point < 0 && i < end) point = i;
+      else break digits;
+      b = buf[++i];
+    }
+    if (b === decimal && point < 0 && i < end) {
+      point = i;
+      b = buf[++i];
+    }
+    if (b >= 0x30 && b <= 0x39 && i < end) return -1;
   }
-  // Up to 15 digits the value is correctly rounded; 16 to 19 (full doubles as some programs write
-  // them) accumulate within about two units in the last place, as on the general path.
-  if (!any || digits > 19) return NaN;
+  if (count === 0 && !zeros) return -1;
+  let scale = point >= 0 ? point + 1 - i : 0;
   if (i < end && (b === 0x65 || b === 0x45)) {
     b = buf[++i];
     let expNegative = false;
@@ -242,16 +306,12 @@ export function fastNumber(buf: Uint8Array, start: number, end: number, delimite
       expDigits++;
       b = buf[++i];
     }
-    if (expDigits === 0 || expDigits > 3) return NaN;
+    if (expDigits === 0 || expDigits > 3) return -1;
     scale += expNegative ? -exponent : exponent;
   }
-  if (i < end && b !== delimiter && b !== CR && b !== LF) return NaN;
-  let value: number;
-  if (mantissa === 0) value = 0;
-  else if (scale === 0) value = mantissa;
-  else if (scale > 0 && scale <= 22) value = mantissa * POW10[scale];
-  else if (scale < 0 && scale >= -22) value = mantissa / POW10[-scale];
-  else return NaN;
-  fastStop = i;
-  return negative ? -value : value;
+  if (i < end && b !== delimiter && b !== CR && b !== LF) return -1;
+  if (!decimalInto(first, second, third, count, scale, out, at)) return -1;
+  // -0 reads as 0, as on the general path (docs/files-and-formats.md).
+  if (negative && out[at] !== 0) out[at] = -out[at];
+  return i;
 }

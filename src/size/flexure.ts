@@ -38,10 +38,10 @@ function spanFactor({ shape, outerSpan, innerSpan }: Spans): number {
   ensurePositive(shape, "modulus");
   ensurePositive(outerSpan, "outer span");
   if (typeof innerSpan !== "number" || !Number.isFinite(innerSpan)) throw new InputError("input", "inner span must be a finite number");
-  ensure(innerSpan >= 0, `inner span must be 0 (three-point) or positive (got ${innerSpan})`);
+  ensure(innerSpan >= 0, () => `inner span must be 0 (three-point) or positive (got ${innerSpan})`);
   ensure(
     innerSpan < outerSpan,
-    `the inner span (${innerSpan}) must be shorter than the outer span (${outerSpan})`,
+    () => `the inner span (${innerSpan}) must be shorter than the outer span (${outerSpan})`,
   );
   return (shape * innerSpan + outerSpan) / (shape + 1);
 }

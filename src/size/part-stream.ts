@@ -38,7 +38,6 @@ import {
   QUOTE,
   decodeAscii,
   fastNumber,
-  fastStop,
   fieldEnd,
   nextFieldStart,
   parseNumber,
@@ -66,6 +65,34 @@ export interface PartStreamOptions {
   top?: number;
   /** Rows per batch (default 16384). */
   batchRows?: number;
+  /**
+   * Read a later part of a table whose beginning another reader has settled
+   * (see SettledTable): no read-ahead, no header; line numbers count from the
+   * start of this part.
+   */
+  continueFrom?: SettledTable;
+}
+
+/**
+ * What the beginning of a table settled: enough for a second reader to read
+ * a later part of the same file alike (src/size/part-split.ts).
+ */
+export interface SettledTable {
+  delimiter: number;
+  delimiterBasis: string;
+  mark: DecimalMark | null;
+  markBasis: string;
+  encoding: string;
+  columns: ResolvedColumns;
+  fieldCount: number;
+  firstLineNumber: number;
+}
+
+/** A part of a table read on its own: the result, the lines it spans and its hot spots' terms (largest first). */
+export interface TablePiece {
+  result: PartStreamResult;
+  lines: number;
+  terms: number[];
 }
 
 export interface HotSpot {
@@ -197,6 +224,8 @@ export class PartTableReader {
   private power: ScaledPower | null = null;
   private readonly nsa: NsaEvaluator | null;
   private held: Held[] = [];
+  /** The hot spots' terms, largest first, as finish() listed them. */
+  private heldTerms: number[] = [];
 
   constructor(options: PartStreamOptions) {
     ensurePositive(options.shape, "modulus");
@@ -211,6 +240,40 @@ export class PartTableReader {
     this.top = Math.max(0, Math.floor(options.top ?? 10));
     this.batchRows = Math.max(1, Math.floor(options.batchRows ?? 16384));
     this.nsa = this.criterion === "NSA" ? new NsaEvaluator(this.shape) : null;
+    const from = options.continueFrom;
+    if (from) {
+      this.sniffed = true;
+      this.delimiter = from.delimiter;
+      this.delimiterBasis = from.delimiterBasis;
+      this.encoding = from.encoding;
+      this.settleMark(from.mark, from.markBasis);
+      this.useColumns(from.columns, from.fieldCount, from.firstLineNumber);
+    }
+  }
+
+  /**
+   * The settled dialect and columns once the first element line is read, or
+   * null while they are not, or where a later part could not be read alone
+   * (UTF-16, lone CR line ends, a decimal mark the numbers have not settled yet).
+   */
+  settled(): SettledTable | null {
+    if (!this.sniffed || this.columns === null || this.transcoder !== null || this.loneCr) return null;
+    if (this.mark === null) return null;
+    return {
+      delimiter: this.delimiter as number,
+      delimiterBasis: this.delimiterBasis,
+      mark: this.mark,
+      markBasis: this.markBasis,
+      encoding: this.encoding,
+      columns: this.columns,
+      fieldCount: this.fieldCount,
+      firstLineNumber: this.firstLineNumber,
+    };
+  }
+
+  /** Whether the reader still holds on to the chunks pushed (the read-ahead): a caller must not reuse them then. */
+  get keepsChunks(): boolean {
+    return !this.sniffed;
   }
 
   /** Data rows read so far (for progress). */
@@ -270,8 +333,20 @@ export class PartTableReader {
       for (let i = 0; i < text.length; i++) if (text[i] === CR) text[i] = LF;
     }
     const lastLf = text.lastIndexOf(LF);
-    const sampleText = decodeAscii(text, 0, lastLf >= 0 ? lastLf : Math.min(text.length, SNIFF_BYTES));
-    const sample = contentLines(sampleText, true, SNIFF_LINES);
+    const sampleEnd = lastLf >= 0 ? lastLf : Math.min(text.length, SNIFF_BYTES);
+    // Only the first SNIFF_LINES content lines count: decode a prefix that ends on a line end and
+    // holds them (growing it while it does not), not megabytes of read-ahead.
+    let sample: { line: number; text: string }[] = [];
+    for (let lines = 4 * SNIFF_LINES; ; lines *= 4) {
+      let end = -1;
+      for (let k = 0, at = 0; k < lines; k++, at = end + 1) {
+        end = text.indexOf(LF, at);
+        if (end < 0 || end >= sampleEnd) break;
+      }
+      const prefixEnd = end < 0 || end >= sampleEnd ? sampleEnd : end;
+      sample = contentLines(decodeAscii(text, 0, prefixEnd), true, SNIFF_LINES);
+      if (sample.length >= SNIFF_LINES || prefixEnd === sampleEnd) break;
+    }
     if (this.delimiter === null) {
       const found = detectDelimiter(sample, { allowWhitespace: true, decimalMark: this.statedMark ?? "auto" });
       this.delimiter = found.delimiter === "space" ? WHITESPACE : found.delimiter.charCodeAt(0);
@@ -385,16 +460,15 @@ export class PartTableReader {
           i++;
         }
       } else {
-        const v = fastNumber(buf, i, end, delimiter, decimal);
-        if (v !== v) return -1;
-        i = fastStop;
-        if (slot < k) raw[row * k + slot] = v;
-        else if (slot === k) {
-          if (!(v >= 0)) return -1;
-          this.sizes[row] = v;
+        if (slot < k) {
+          i = fastNumber(buf, i, end, delimiter, decimal, raw, row * k + slot);
+          if (i < 0) return -1;
+        } else if (slot === k) {
+          i = fastNumber(buf, i, end, delimiter, decimal, this.sizes, row);
+          if (i < 0 || !(this.sizes[row] >= 0)) return -1;
         } else {
-          if (!Number.isSafeInteger(v)) return -1;
-          this.idNumbers[row] = v;
+          i = fastNumber(buf, i, end, delimiter, decimal, this.idNumbers, row);
+          if (i < 0 || !Number.isSafeInteger(this.idNumbers[row])) return -1;
           if (this.idTexts) this.idTexts[row] = null;
         }
       }
@@ -468,9 +542,16 @@ export class PartTableReader {
     // A data line has numbers in its stress and size fields; a header has none (ids may be text).
     const anyNumber = fields.some((f) => f !== "" && looksNumeric(f));
     const isHeader = this.headerMode === "yes" || (this.headerMode === "auto" && !anyNumber);
-    this.columns = resolveColumns(isHeader ? fields : null, fields.length, this.choice);
-    this.fieldCount = fields.length;
-    this.firstLineNumber = this.lineNumber;
+    this.useColumns(resolveColumns(isHeader ? fields : null, fields.length, this.choice), fields.length, this.lineNumber);
+    if (isHeader) this.skip("header");
+    else this.dataLine(buf, start, end);
+  }
+
+  /** Column positions, field count and the batch buffers. */
+  private useColumns(columns: ResolvedColumns, fieldCount: number, firstLineNumber: number): void {
+    this.columns = columns;
+    this.fieldCount = fieldCount;
+    this.firstLineNumber = firstLineNumber;
     const k = this.columns.stress.length;
     this.lastField = Math.max(...this.columns.stress, this.columns.size, this.columns.id);
     this.slotOf = new Int32Array(this.lastField + 1).fill(-1);
@@ -483,8 +564,6 @@ export class PartTableReader {
     this.sizes = new Float64Array(n);
     this.lines = new Float64Array(n);
     this.idNumbers = new Float64Array(this.columns.id >= 0 ? n : 0);
-    if (isHeader) this.skip("header");
-    else this.dataLine(buf, start, end);
   }
 
   /** A stress or size field: bytes straight to a number, or the shared text rules where a mark is involved. */
@@ -685,6 +764,12 @@ export class PartTableReader {
     }
   }
 
+  /** Ends the stream as finish() does, with what joining it to other parts needs (src/size/part-split.ts). */
+  finishPiece(): TablePiece {
+    const result = this.finish();
+    return { result, lines: this.lineNumber, terms: this.heldTerms };
+  }
+
   /** Ends the stream (a last line without LF counts) and returns the result. */
   finish(): PartStreamResult {
     if (!this.sniffed) this.sniff();
@@ -695,23 +780,10 @@ export class PartTableReader {
     }
     this.flush();
     const effectiveSize = this.peak > 0 ? totalValue(this.total) : 0;
-    let risk: number | null = null;
-    let failureProbability: number | null = null;
-    if (this.materialScale !== undefined) {
-      risk = this.peak > 0 && effectiveSize > 0 ? Math.exp(Math.log(effectiveSize) + this.shape * Math.log(this.peak / this.materialScale)) : 0;
-      if (!Number.isFinite(risk)) {
-        const where = this.peakId !== null ? `element ${this.peakId} (line ${this.peakLine})` : `the element on line ${this.peakLine}`;
-        throw new InputError(
-          "notRepresentable",
-          `${where}: the risk of rupture is too large to represent (peak stress ${this.peak} against material scale ${this.materialScale}, ` +
-            `modulus ${this.shape}): failure is certain to double precision; check the stress unit and the material scale`,
-        );
-      }
-      failureProbability = -Math.expm1(-risk);
-    }
-    const hotSpots = [...this.held]
-      .sort((a, b) => b.term - a.term)
-      .map((h) => ({ id: h.id, line: h.line, principal: h.principal, size: h.size, share: effectiveSize > 0 ? h.term / effectiveSize : 0 }));
+    const { risk, failureProbability } = riskOfPart(effectiveSize, this.peak, this.peakLine, this.peakId, this.shape, this.materialScale);
+    const held = [...this.held].sort((a, b) => b.term - a.term);
+    this.heldTerms = held.map((h) => h.term);
+    const hotSpots = held.map((h) => ({ id: h.id, line: h.line, principal: h.principal, size: h.size, share: effectiveSize > 0 ? h.term / effectiveSize : 0 }));
     return {
       rows: this.rowsRead,
       skippedLines: this.skipped,
@@ -732,6 +804,32 @@ export class PartTableReader {
       hotSpots,
     };
   }
+}
+
+/**
+ * The risk of rupture S_E (peak / sigma_0)^m and the failure probability
+ * -expm1(-risk), or nulls without a material scale; a risk too large to
+ * represent is an error naming the peak element.
+ */
+export function riskOfPart(
+  effectiveSize: number,
+  peak: number,
+  peakLine: number,
+  peakId: string | null,
+  shape: number,
+  materialScale: number | undefined,
+): { risk: number | null; failureProbability: number | null } {
+  if (materialScale === undefined) return { risk: null, failureProbability: null };
+  const risk = peak > 0 && effectiveSize > 0 ? Math.exp(Math.log(effectiveSize) + shape * Math.log(peak / materialScale)) : 0;
+  if (!Number.isFinite(risk)) {
+    const where = peakId !== null ? `element ${peakId} (line ${peakLine})` : `the element on line ${peakLine}`;
+    throw new InputError(
+      "notRepresentable",
+      `${where}: the risk of rupture is too large to represent (peak stress ${peak} against material scale ${materialScale}, ` +
+        `modulus ${shape}): failure is certain to double precision; check the stress unit and the material scale`,
+    );
+  }
+  return { risk, failureProbability: -Math.expm1(-risk) };
 }
 
 /**

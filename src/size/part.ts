@@ -20,7 +20,7 @@
  */
 import { ensure, ensureApplicable, ensurePositive, InputError, notRepresentable } from "../errors";
 import { type Criterion, NsaEvaluator } from "./criteria";
-import { type CompensatedTotal, ScaledPower, newTotal, totalValue } from "./power-kernel";
+import { type CompensatedTotal, ScaledPower, additionError, newTotal, totalValue } from "./power-kernel";
 import { principalStresses } from "./principal";
 
 export type StressColumns = 1 | 3 | 6;
@@ -53,21 +53,49 @@ function scan(principal: Float64Array, stride: number, sizes: Float64Array): { p
   if (principal.length !== rows * stride) {
     throw new InputError("input", `stresses have ${principal.length / stride} rows but sizes have ${rows}`);
   }
+  // One branch-light pass: x * 0 is 0 for finite x and NaN otherwise, so `bad` turns NaN at the
+  // first non-finite value; only then does the slow pass below run, to name the row.
   let peak = 0;
-  let peakIndex = -1;
+  let peakRow = -1;
+  let bad = 0;
+  if (stride === 3) {
+    for (let r = 0; r < rows; r++) {
+      const a = principal[3 * r];
+      const b = principal[3 * r + 1];
+      const c = principal[3 * r + 2];
+      const s = sizes[r];
+      bad += a * 0 + b * 0 + c * 0 + s * 0 + (s < 0 ? NaN : 0);
+      const top = a > b ? (a > c ? a : c) : b > c ? b : c;
+      if (top > peak) {
+        peak = top;
+        peakRow = r;
+      }
+    }
+  } else {
+    for (let r = 0; r < rows; r++) {
+      const a = principal[r];
+      const s = sizes[r];
+      bad += a * 0 + s * 0 + (s < 0 ? NaN : 0);
+      if (a > peak) {
+        peak = a;
+        peakRow = r;
+      }
+    }
+  }
+  if (bad !== 0) scanSlowly(principal, stride, sizes);
+  return { peak, peakRow };
+}
+
+/** The first non-finite stress or bad size, named. */
+function scanSlowly(principal: Float64Array, stride: number, sizes: Float64Array): void {
   for (let i = 0; i < principal.length; i++) {
     const v = principal[i];
     if (v - v !== 0) throw new InputError("input", `row ${Math.floor(i / stride) + 1}: a stress is not a finite number`);
-    if (v > peak) {
-      peak = v;
-      peakIndex = i;
-    }
   }
-  for (let r = 0; r < rows; r++) {
+  for (let r = 0; r < sizes.length; r++) {
     const s = sizes[r];
     if (!(s >= 0 && s < Infinity)) throw new InputError("input", `row ${r + 1}: the element size must be a finite number >= 0 (got ${s})`);
   }
-  return { peak, peakRow: peakIndex < 0 ? -1 : Math.floor(peakIndex / stride) };
 }
 
 /**
@@ -78,7 +106,7 @@ function scan(principal: Float64Array, stride: number, sizes: Float64Array): { p
  */
 export function partRiskSum({ principal, stride, sizes, shape, criterion = "PIA" }: PartRiskInput): PartRiskSum {
   ensurePositive(shape, "modulus");
-  ensure(stride === 1 || stride === 3, `stride must be 1 or 3 (got ${stride})`);
+  ensure(stride === 1 || stride === 3, () => `stride must be 1 or 3 (got ${stride})`);
   const rows = sizes.length;
   const { peak, peakRow } = scan(principal, stride, sizes);
   if (peak === 0) return { peak: 0, peakRow: -1, effectiveSize: 0, rows };
@@ -115,8 +143,7 @@ export function accumulate(
       if (intensity > 0) {
         const term = intensity * sizes[row];
         const t = sum + term;
-        if (Math.abs(sum) >= Math.abs(term)) comp += sum - t + term;
-        else comp += term - t + sum;
+        comp += additionError(sum, term, t);
         sum = t;
         if (term > limit && visit) {
           visit(row, term);

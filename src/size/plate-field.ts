@@ -110,14 +110,14 @@ function checkGeometry(innerName: string, innerDiameter: number, g: DiskGeometry
   ensurePositive(g.diskDiameter, "disk diameter");
   ensure(
     innerDiameter < g.supportDiameter,
-    `the ${innerName} (${innerDiameter}) must be smaller than the support diameter (${g.supportDiameter})`,
+    () => `the ${innerName} (${innerDiameter}) must be smaller than the support diameter (${g.supportDiameter})`,
   );
   ensure(
     g.supportDiameter <= g.diskDiameter,
-    `the support diameter (${g.supportDiameter}) must not exceed the disk diameter (${g.diskDiameter})`,
+    () => `the support diameter (${g.supportDiameter}) must not exceed the disk diameter (${g.diskDiameter})`,
   );
   if (typeof g.poisson !== "number" || !Number.isFinite(g.poisson)) throw new InputError("input", "Poisson's ratio must be a number");
-  ensure(g.poisson > -1 && g.poisson < 0.5, `Poisson's ratio must lie between -1 and 0.5 (got ${g.poisson})`);
+  ensure(g.poisson > -1 && g.poisson < 0.5, () => `Poisson's ratio must lie between -1 and 0.5 (got ${g.poisson})`);
 }
 
 function overhang(b: number, R: number, K: number): FieldRegion {

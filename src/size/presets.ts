@@ -194,7 +194,7 @@ export function specimenEffectiveSize({
     diskDiameter: preset.diskDiameter.value,
   };
   if (flaws === "volume") {
-    ensureApplicable(preset.thickness !== null, `${preset.name} fixes no specimen thickness, so it has no effective volume here`);
+    ensureApplicable(preset.thickness !== null, () => `${preset.name} fixes no specimen thickness, so it has no effective volume here`);
   }
   const thickness = preset.thickness?.value ?? NaN;
   if (preset.kind === "ring-on-ring") {

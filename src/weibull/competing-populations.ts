@@ -55,7 +55,7 @@ export function populationSample({
   const censored = origins.map((o) => normaliseLabel(o) !== wanted);
   ensure(
     censored.some((c) => !c),
-    `no specimen has the origin label "${population}" (labels present: ${[...new Set(origins.map(normaliseLabel))].join(", ")})`,
+    () => `no specimen has the origin label "${population}" (labels present: ${[...new Set(origins.map(normaliseLabel))].join(", ")})`,
   );
   return { strengths, censored };
 }
@@ -78,7 +78,7 @@ function checkPopulations(populations: readonly Population[]): void {
 /** Failure probability at `stress` with all populations acting: -expm1(-sum of hazards). */
 export function competingFailureProbability({ stress, populations }: { stress: number; populations: readonly Population[] }): number {
   checkPopulations(populations);
-  ensure(Number.isFinite(stress) && stress >= 0, `stress must be zero or positive (got ${stress})`);
+  ensure(Number.isFinite(stress) && stress >= 0, () => `stress must be zero or positive (got ${stress})`);
   const pf = -Math.expm1(-totalHazard(stress, populations));
   // Positive at any positive stress: 0 there is an underflow, an error rather than a probability.
   if (pf === 0 && stress > 0) throw notRepresentable("failure probability", "small");

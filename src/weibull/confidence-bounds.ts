@@ -105,7 +105,7 @@ export function pivotalSource(sample: StrengthSample, fit?: MaximumLikelihoodFit
   const inTail = (p: number) => {
     ensure(
       Math.min(p, 1 - p) * q.length >= MIN_TAIL_DRAWS,
-      `the bootstrap of this censored sample has ${q.length} draws, too few beyond the ${p} quantile for a bound at this confidence: lower the confidence`,
+      () => `the bootstrap of this censored sample has ${q.length} draws, too few beyond the ${p} quantile for a bound at this confidence: lower the confidence`,
     );
     return p;
   };
@@ -158,14 +158,14 @@ export function boundsFromPivots(
  */
 export function tailProbabilities(confidence: number, sides: BoundSides): { forLower: number; forUpper: number } {
   ensureProbability(confidence, "confidence");
-  ensure(sides === 1 || sides === 2, `sides must be 1 or 2 (got ${sides})`);
+  ensure(sides === 1 || sides === 2, () => `sides must be 1 or 2 (got ${sides})`);
   const a = sides === 2 ? (1 - confidence) / 2 : 1 - confidence;
   const { lowest, highest } = PIVOTAL_PROBABILITIES;
   // 1e-12 absorbs the rounding of (1 - C)/2 at the table's end points.
   const inside = (p: number) => p >= lowest - 1e-12 && p <= highest + 1e-12;
   ensure(
     inside(a) && inside(1 - a),
-    sides === 2
+    () => sides === 2
       ? `a two-sided bound needs a confidence of at most 0.99 (got ${confidence}): the pivotal quantiles are simulated from probability ${lowest} to ${highest}`
       : `a one-sided bound needs a confidence from 0.005 to 0.995 (got ${confidence}): the pivotal quantiles are simulated from probability ${lowest} to ${highest}`,
   );

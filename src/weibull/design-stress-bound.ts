@@ -46,11 +46,11 @@ export function designStressBound({
 }: StrengthSample & { survival: number; confidence?: number; sizeRatio?: number }): DesignStressBound {
   ensureProbability(survival, "survival probability");
   ensureProbability(confidence, "confidence");
-  ensure(Number.isFinite(sizeRatio) && sizeRatio > 0, `size ratio must be a positive number (got ${sizeRatio})`);
+  ensure(Number.isFinite(sizeRatio) && sizeRatio > 0, () => `size ratio must be a positive number (got ${sizeRatio})`);
   const { lowest, highest } = PIVOTAL_PROBABILITIES;
   ensure(
     confidence >= lowest && confidence <= highest,
-    `confidence must lie from ${lowest} to ${highest} for this bound (got ${confidence}): the pivotal quantities are simulated over that range`,
+    () => `confidence must lie from ${lowest} to ${highest} for this bound (got ${confidence}): the pivotal quantities are simulated over that range`,
   );
   const sample = { strengths, censored };
   const fit = fitMaximumLikelihood(sample);
@@ -65,7 +65,7 @@ export function designStressBound({
     const { shapeRatio, scaleLogError } = pivotalSource(sample, fit).pairs!;
     ensure(
       Math.min(confidence, 1 - confidence) * shapeRatio.length >= MIN_TAIL_DRAWS,
-      `the bootstrap of this censored sample has ${shapeRatio.length} draws, too few for a bound at confidence ${confidence}: lower the confidence`,
+      () => `the bootstrap of this censored sample has ${shapeRatio.length} draws, too few for a bound at confidence ${confidence}: lower the confidence`,
     );
     const u = new Float64Array(shapeRatio.length);
     for (let i = 0; i < u.length; i++) u[i] = scaleLogError[i] + w * (1 - shapeRatio[i]);

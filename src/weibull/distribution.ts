@@ -34,7 +34,7 @@ function checkParameters({ shape, scale }: WeibullParameters, sizeRatio: number)
 /** The cumulative hazard k (s/sigma_theta)^m, i.e. -ln(survival). */
 export function cumulativeHazard({ stress, shape, scale, sizeRatio = 1 }: AtStress): number {
   checkParameters({ shape, scale }, sizeRatio);
-  ensure(Number.isFinite(stress) && stress >= 0, `stress must be zero or positive (got ${stress})`);
+  ensure(Number.isFinite(stress) && stress >= 0, () => `stress must be zero or positive (got ${stress})`);
   if (stress === 0) return 0;
   const hazard = sizeRatio * Math.pow(stress / scale, shape);
   if (hazard > 0 && Number.isFinite(hazard)) return hazard;

@@ -13,10 +13,18 @@
  * Strengths are divided by their maximum first: every x lies in (0, 1], the
  * largest term of sum x^m is exactly 1, and nothing overflows or underflows
  * whatever the units or the modulus.
+ *
+ * The solve is Halley's method (third order) inside a bracket, from a moment
+ * estimate: one pass over the data per iterate gives g and its first two
+ * derivatives, and typically three or four passes reach the root to rounding.
+ *
+ * @example
+ * fitMaximumLikelihood({ strengths: [300, 350] }).scale // about 336.6
  */
-import { ensure, ensurePositiveResult, InputError } from "../errors";
+import { ensurePositiveResult, InputError } from "../errors";
+import { fastExp } from "../numeric/exp";
 import { CompensatedSum } from "../numeric/sum";
-import { checkSample, type StrengthSample } from "./sample";
+import { summarizeSample, type StrengthSample } from "./sample";
 import type { WeibullParameters } from "./distribution";
 
 export interface MaximumLikelihoodFit extends WeibullParameters {
@@ -24,84 +32,80 @@ export interface MaximumLikelihoodFit extends WeibullParameters {
   specimens: number;
   failures: number;
   converged: boolean;
+  /** Passes over the data (each evaluates g and its derivatives at one modulus). */
   iterations: number;
-  /** |g(m)| at the returned modulus, in units of 1/m. */
+  /**
+   * |g| times m at the last modulus where g was evaluated, in units of 1/m. After
+   * convergence the returned modulus is one more step from there, smaller than
+   * 1e-11 m, so its own residual is smaller still.
+   */
   residual: number;
 }
 
 const MAX_ITERATIONS = 200;
 
+/**
+ * Working space for ln(s / s_max), reused by every call and grown to the largest sample fitted so
+ * far (8 bytes a specimen: 8 MB after a fit of a million). A new typed array per fit costs about a
+ * tenth of a fit at n = 30 to 100, and at a million its fresh pages cost about 8 % of the fit
+ * (measured). The fit calls nothing that could re-enter it, and nothing in it outlives the call.
+ */
+let logSpace = new Float64Array(4096);
+
+/** The smallest normal double, 2^-1022. */
+const SMALLEST_NORMAL = 2.2250738585072014e-308;
+
+/** A step below this fraction of m ends the solve: Halley's error after it is of order its cube. */
+const STEP_TOLERANCE = 1e-11;
+
 export function fitMaximumLikelihood(sample: StrengthSample): MaximumLikelihoodFit {
-  const { strengths, censored, failures } = checkSample(sample);
+  const { failures, largest: max } = summarizeSample(sample);
+  const { strengths, censored } = sample;
   const n = strengths.length;
-  let max = 0;
-  for (let i = 0; i < n; i++) max = Math.max(max, strengths[i]);
-
-  const logX = new Float64Array(n);
-  const meanLogFailures = new CompensatedSum();
-  for (let i = 0; i < n; i++) {
-    logX[i] = Math.log(strengths[i] / max);
-    if (!censored[i]) meanLogFailures.add(logX[i]);
-  }
-  const failureLogMean = meanLogFailures.value / failures;
+  if (n > logSpace.length) logSpace = new Float64Array(n);
+  const logX = logSpace.subarray(0, n);
+  const failureLogMean = logRatios(strengths, censored, max, logX) / failures;
   // g(infinity) = -failureLogMean: when every failure sits at the maximum, no finite m fits.
-  ensure(failureLogMean < 0, "all failure strengths are equal to the largest strength: the modulus is unbounded");
+  if (!(failureLogMean < 0)) {
+    throw new InputError("input", "all failure strengths are equal to the largest strength: the modulus is unbounded");
+  }
 
-  // One pass per iterate: three Neumaier sums kept in locals (the same operations, in the
-  // same order, as three CompensatedSum objects, so the results are unchanged).
-  const moments = (m: number) => {
-    let t0 = 0, c0 = 0, t1 = 0, c1 = 0, t2 = 0, c2 = 0;
-    for (let i = 0; i < n; i++) {
-      const l = logX[i];
-      const w = Math.exp(m * l);
-      const wl = w * l;
-      const wll = wl * l;
-      let t = t0 + w;
-      if (Math.abs(t0) >= Math.abs(w)) c0 += t0 - t + w;
-      else c0 += w - t + t0;
-      t0 = t;
-      t = t1 + wl;
-      if (Math.abs(t1) >= Math.abs(wl)) c1 += t1 - t + wl;
-      else c1 += wl - t + t1;
-      t1 = t;
-      t = t2 + wll;
-      if (Math.abs(t2) >= Math.abs(wll)) c2 += t2 - t + wll;
-      else c2 += wll - t + t2;
-      t2 = t;
-    }
-    const s0 = t0 + c0;
-    const mean = (t1 + c1) / s0;
-    return { sum: s0, mean, variance: Math.max((t2 + c2) / s0 - mean * mean, 0) };
-  };
-
-  // Safeguarded Newton: keep a bracket [lo, hi] with g(lo) < 0 < g(hi).
+  const sums = new Float64Array(4);
+  // Safeguarded Halley: keep a bracket [lo, hi] with g(lo) < 0 < g(hi).
   let lo = 0;
   let hi = Infinity;
-  let m = startingModulus(logX, censored, failures);
+  let m = startingModulus(logX, censored, failures, failureLogMean);
   let converged = false;
   let iterations = 0;
   let residual = Infinity;
+  // ln sum_all x^m at the returned modulus (NaN until known).
+  let logSum = NaN;
   for (iterations = 1; iterations <= MAX_ITERATIONS; iterations++) {
-    const { mean, variance } = moments(m);
+    powerSums(logX, m, sums);
+    const mean = sums[1] / sums[0];
+    const second = sums[2] / sums[0];
+    const variance = Math.max(second - mean * mean, 0);
     const value = mean - failureLogMean - 1 / m;
     residual = Math.abs(value) * m;
-    if (value === 0) {
-      converged = true;
-      break;
-    }
     if (value < 0) lo = Math.max(lo, m);
-    else hi = Math.min(hi, m);
+    else if (value > 0) hi = Math.min(hi, m);
     const slope = variance + 1 / (m * m);
-    const newton = m - value / slope;
-    // Newton converges quadratically: a step below 1e-11 m lands within rounding of the root.
-    // (Waiting for a step of a few ulp instead leaves the iteration dithering in the rounding
-    // noise of g, and a step that rounds onto the bracket's end would be taken for an escape.)
-    if (Math.abs(newton - m) <= 1e-11 * m) {
-      m = newton;
+    const newtonStep = -value / slope;
+    // Halley's correction uses g'' = third central moment - 2/m^3; far from the root, where the
+    // correction would more than halve or double the Newton step, the Newton step is taken as it is.
+    const third = sums[3] / sums[0] - mean * (3 * second - 2 * mean * mean);
+    const ratio = (value * (third - 2 / (m * m * m))) / (2 * slope * slope);
+    const step = Math.abs(ratio) <= 0.5 ? newtonStep / (1 - ratio) : newtonStep;
+    if (Math.abs(step) <= STEP_TOLERANCE * m) {
+      // Converged. The sum at m + step follows from the moments at m without another pass:
+      // ln S0(m + d) = ln S0(m) + d mean + d^2 variance / 2 + O(d^3), and d <= 1e-11 m.
+      logSum = Math.log(sums[0]) + step * (mean + 0.5 * step * variance);
+      m += step;
       converged = true;
       break;
     }
-    m = newton > lo && newton < hi ? newton : Number.isFinite(hi) ? 0.5 * (lo + hi) : 2 * Math.max(m, lo);
+    const next = m + step;
+    m = next > lo && next < hi ? next : Number.isFinite(hi) ? 0.5 * (lo + hi) : 2 * Math.max(m, lo);
     if (Number.isFinite(hi) && hi - lo <= 2 * Number.EPSILON * hi) {
       m = 0.5 * (lo + hi);
       converged = true;
@@ -109,25 +113,87 @@ export function fitMaximumLikelihood(sample: StrengthSample): MaximumLikelihoodF
     }
   }
   if (!Number.isFinite(m) || m <= 0) throw new InputError("input", "the likelihood equation has no finite solution for these data");
-  // One pass at the returned modulus gives both the residual and the sum for the scale.
-  const final = moments(m);
-  residual = Math.abs(final.mean - failureLogMean - 1 / m) * m;
-  const sum = final.sum;
-  const scale = max * Math.exp(Math.log(sum / failures) / m);
+  if (Number.isNaN(logSum)) {
+    // Ended on the bracket or the iteration limit, at a modulus not yet evaluated: one more pass.
+    powerSums(logX, m, sums);
+    residual = Math.abs(sums[1] / sums[0] - failureLogMean - 1 / m) * m;
+    logSum = Math.log(sums[0]);
+  }
+  const scale = max * Math.exp((logSum - Math.log(failures)) / m);
   ensurePositiveResult(scale, "characteristic strength");
   return { shape: m, scale, specimens: n, failures, converged, iterations: Math.min(iterations, MAX_ITERATIONS), residual };
+}
+
+/**
+ * ln(s / max) of every strength into logX, and the compensated sum of those
+ * logarithms over the failures. (Every loop over the specimens is a small
+ * function of its own: the engine compiles each within a few calls.)
+ */
+function logRatios(strengths: readonly number[], censored: readonly boolean[] | undefined, max: number, logX: Float64Array): number {
+  const failureLogs = new CompensatedSum();
+  for (let i = 0; i < strengths.length; i++) {
+    const x = strengths[i] / max;
+    // Strengths more than about 300 decades apart: the ratio is subnormal or 0 (1e-300 / 1e300), and
+    // the difference of the logarithms keeps what the ratio has lost.
+    const l = x >= SMALLEST_NORMAL ? Math.log(x) : Math.log(strengths[i]) - Math.log(max);
+    logX[i] = l;
+    if (!censored?.[i]) failureLogs.add(l);
+  }
+  return failureLogs.value;
+}
+
+/**
+ * Sums over every specimen of w = x^m times 1, ln x, (ln x)^2 and (ln x)^3, with
+ * x = s / s_max, into out[0..3]. The first two decide the root and the
+ * characteristic strength, so they carry the exact rounding error of every
+ * addition (compensated summation); the other two only shape the step, and
+ * plain sums serve.
+ *
+ * Every w lies in (0, 1], so the sum of w starts from 1 and takes 1 off at the
+ * end (exact: the total is at least 1): every partial sum is then at least as
+ * large as the next term, and Dekker's three-operation error term is exact,
+ * as Neumaier's branch or Knuth's six operations would be in general. The
+ * terms w ln x have no such bound, so their sum uses Knuth's two-sum.
+ */
+function powerSums(logX: Float64Array, m: number, out: Float64Array): void {
+  let s0 = 1;
+  let c0 = 0;
+  let s1 = 0;
+  let c1 = 0;
+  let s2 = 0;
+  let s3 = 0;
+  for (let i = 0; i < logX.length; i++) {
+    const l = logX[i];
+    const w = fastExp(m * l);
+    const wl = w * l;
+    const wll = wl * l;
+    let t = s0 + w;
+    c0 += s0 - t + w;
+    s0 = t;
+    t = s1 + wl;
+    const part = t - s1;
+    c1 += s1 - (t - part) + (wl - part);
+    s1 = t;
+    s2 += wll;
+    s3 += wll * l;
+  }
+  out[0] = s0 - 1 + c0;
+  out[1] = s1 + c1;
+  out[2] = s2;
+  out[3] = s3;
 }
 
 /**
  * Moment estimate from the spread of ln s among the failures: ln s follows a
  * Gumbel law with standard deviation pi / (m sqrt 6), so m0 = 1.2825 / sd.
  */
-function startingModulus(logX: Float64Array, censored: Uint8Array, failures: number): number {
-  let mean = 0;
-  for (let i = 0; i < logX.length; i++) if (!censored[i]) mean += logX[i];
-  mean /= failures;
+function startingModulus(logX: Float64Array, censored: readonly boolean[] | undefined, failures: number, mean: number): number {
   let ss = 0;
-  for (let i = 0; i < logX.length; i++) if (!censored[i]) ss += (logX[i] - mean) ** 2;
+  for (let i = 0; i < logX.length; i++) {
+    if (censored?.[i]) continue;
+    const d = logX[i] - mean;
+    ss += d * d;
+  }
   const sd = Math.sqrt(ss / Math.max(failures - 1, 1));
   const m0 = Math.PI / Math.sqrt(6) / sd;
   return Number.isFinite(m0) && m0 > 0 ? Math.min(Math.max(m0, 1e-3), 1e6) : 1;

@@ -74,9 +74,14 @@ export function mixtureStatistic(y: Float64Array, work = new MixtureWork(y.lengt
   // Single Weibull at its ML fit: n ln m + m sum(z - mu) - n, with e^(m mu) = sum e^(m z) / n.
   const lOne = n * Math.log(m0) + m0 * sumZ - n * Math.log(one.weightSum / n) - n;
   let best = { l: -Infinity, p: NaN, mu1: NaN, mu2: NaN, m: NaN };
+  // e^(m0 z) for the first CM-step, the same for every start.
+  const { w } = work;
+  for (let i = 0; i < n; i++) w[i] = Math.exp(m0 * z[i]);
+  const sums = work.sums;
   for (const start of STARTS) {
     const k = Math.max(1, Math.min(n - 1, Math.round(start * n)));
     for (let i = 0; i < n; i++) r[i] = i < k ? 1 : 0;
+    weightedSums(z, r, w, sums);
     let m = m0;
     let p = 0;
     let mu1 = 0;
@@ -86,25 +91,7 @@ export function mixtureStatistic(y: Float64Array, work = new MixtureWork(y.lengt
       // CM-step 1, at the current m: p and each th_k^m = sum r e^(m z) / sum r (mu_k = ln th_k).
       // CM-step 2: one Newton step on m of the expected complete-data log-likelihood, th_k profiled:
       // d/dm = n/m + sum z - sum_k R_k zbar_k, zbar_k the e^(m z)-weighted mean of z in component k.
-      let r1 = 0;
-      let a1 = 0;
-      let a2 = 0;
-      let b1 = 0;
-      let b2 = 0;
-      let c1 = 0;
-      let c2 = 0;
-      for (let i = 0; i < n; i++) {
-        const w = Math.exp(m * z[i]);
-        const w1 = r[i] * w;
-        const w2 = w - w1;
-        r1 += r[i];
-        a1 += w1;
-        a2 += w2;
-        b1 += w1 * z[i];
-        b2 += w2 * z[i];
-        c1 += w1 * z[i] * z[i];
-        c2 += w2 * z[i] * z[i];
-      }
+      const [r1, a1, a2, b1, b2, c1, c2] = sums;
       const r2 = n - r1;
       p = r1 / n;
       mu1 = a1 > 0 ? Math.log(a1 / r1) / m : 0;
@@ -119,20 +106,9 @@ export function mixtureStatistic(y: Float64Array, work = new MixtureWork(y.lengt
       if (!(next > 0.5 * m && next < 2 * m)) next = next > m ? 2 * m : 0.5 * m;
       // Keep th_k where CM-step 1 put them while m moves: mu_k stays, only m changes.
       m = next;
-      // E-step, and the observed log-likelihood at these parameters (up to the sum of -ln s).
-      const shift = Math.exp(m * (mu1 - mu2));
-      let total = 0;
-      for (let i = 0; i < n; i++) {
-        const e1 = Math.exp(m * (z[i] - mu1));
-        const e2 = e1 * shift;
-        const g1 = p * e1 * Math.exp(-e1);
-        const g2 = (1 - p) * e2 * Math.exp(-e2);
-        const g = g1 + g2;
-        if (g > 0) {
-          r[i] = g1 / g;
-          total += Math.log(g);
-        } else total += -745;
-      }
+      // E-step, the observed log-likelihood at these parameters (up to the sum of -ln s), and the
+      // sums for the next CM-step (same m) in the same pass.
+      const total = eStep(z, r, m, p, mu1, mu2, it < ITERATIONS - 1 ? sums : null);
       const lNew = n * Math.log(m) + total;
       const done = lNew - l <= 1e-8 * n;
       l = lNew;
@@ -150,12 +126,138 @@ export function mixtureStatistic(y: Float64Array, work = new MixtureWork(y.lengt
   };
 }
 
+/**
+ * CM-step sums, in the order [sum r, sum r w, sum (1-r) w, sum r w z, sum (1-r) w z, sum r w z^2,
+ * sum (1-r) w z^2], w = e^(m z) given.
+ */
+function weightedSums(z: Float64Array, r: Float64Array, w: Float64Array, sums: Float64Array): void {
+  let r1 = 0;
+  let a1 = 0;
+  let a2 = 0;
+  let b1 = 0;
+  let b2 = 0;
+  let c1 = 0;
+  let c2 = 0;
+  for (let i = 0; i < z.length; i++) {
+    const w1 = r[i] * w[i];
+    const w2 = w[i] - w1;
+    r1 += r[i];
+    a1 += w1;
+    a2 += w2;
+    b1 += w1 * z[i];
+    b2 += w2 * z[i];
+    c1 += w1 * z[i] * z[i];
+    c2 += w2 * z[i] * z[i];
+  }
+  sums[0] = r1;
+  sums[1] = a1;
+  sums[2] = a2;
+  sums[3] = b1;
+  sums[4] = b2;
+  sums[5] = c1;
+  sums[6] = c2;
+}
+
+/** Logs of products smaller than this are taken at once: g >= SMALL_DENSITY keeps the product normal. */
+const SMALL_DENSITY = 1e-50;
+const FLUSH_PRODUCT = 1e-250;
+/** Products of factors 1 + q (each below 1e50) are logged before they pass this. */
+const FLUSH_FACTORS = 1e250;
+
+/**
+ * E-step at (m, p, mu1, mu2): new responsibilities r and the sum of ln g, g the mixture density of m z.
+ * With `sums`, also the next CM-step's sums in the same pass. Why this shape (it was two passes with five
+ * exponentials or logarithms per specimen, the whole cost of the check): e^(m z) is taken as
+ * e^(m (z - mu1)) e^(m mu1) from the E-step's own exponential, both component densities from one more
+ * exponential, and logarithms once per run of factors rather than per specimen. These agree with the
+ * direct forms to rounding (statistics within 1e-11 in a seeded comparison of 1240 samples).
+ */
+function eStep(z: Float64Array, r: Float64Array, m: number, p: number, mu1: number, mu2: number, sums: Float64Array | null): number {
+  const n = z.length;
+  const shift = Math.exp(m * (mu1 - mu2));
+  const scale1 = Math.exp(m * mu1);
+  let total = 0;
+  let product = 1;
+  let factors = 1;
+  let r1 = 0;
+  let a1 = 0;
+  let a2 = 0;
+  let b1 = 0;
+  let b2 = 0;
+  let c1 = 0;
+  let c2 = 0;
+  // g = g1 (1 + q), q = g2 / g1 = ((1 - p) / p) shift e^(e1 - e2): one exponential for both terms where
+  // neither can underflow (then g > 0 and the two forms differ by rounding only).
+  const lnP = Math.log(p);
+  const odds = ((1 - p) / p) * shift;
+  const both = p > 1e-100 && 1 - p > 1e-100 && odds > 0 && odds < Infinity;
+  for (let i = 0; i < n; i++) {
+    const t = m * (z[i] - mu1);
+    const e1 = Math.exp(t);
+    const e2 = e1 * shift;
+    if (both && e1 > 1e-100 && e1 < 200 && e2 > 1e-100 && e2 < 200) {
+      const q = odds * Math.exp(e1 - e2);
+      r[i] = 1 / (1 + q);
+      total += lnP + t - e1;
+      if (q < 1e50) {
+        factors *= 1 + q;
+        if (factors > FLUSH_FACTORS) {
+          total += Math.log(factors);
+          factors = 1;
+        }
+      } else total += Math.log(1 + q);
+    } else {
+      const g1 = p * e1 * Math.exp(-e1);
+      const g2 = (1 - p) * e2 * Math.exp(-e2);
+      const g = g1 + g2;
+      if (g > 0) {
+      r[i] = g1 / g;
+        if (g < SMALL_DENSITY) total += Math.log(g);
+        else {
+          product *= g;
+          if (product < FLUSH_PRODUCT) {
+            total += Math.log(product);
+            product = 1;
+          }
+        }
+      } else total += -745;
+    }
+    if (sums) {
+      // e^(m z) from e1 unless e1 overflowed or lost its precision to underflow.
+      const w = e1 < Infinity && e1 > 1e-290 ? e1 * scale1 : Math.exp(m * z[i]);
+      const w1 = r[i] * w;
+      const w2 = w - w1;
+      r1 += r[i];
+      a1 += w1;
+      a2 += w2;
+      b1 += w1 * z[i];
+      b2 += w2 * z[i];
+      c1 += w1 * z[i] * z[i];
+      c2 += w2 * z[i] * z[i];
+    }
+  }
+  if (sums) {
+    sums[0] = r1;
+    sums[1] = a1;
+    sums[2] = a2;
+    sums[3] = b1;
+    sums[4] = b2;
+    sums[5] = c1;
+    sums[6] = c2;
+  }
+  return total + Math.log(product) + Math.log(factors);
+}
+
 export class MixtureWork {
   readonly z: Float64Array;
   readonly r: Float64Array;
+  /** e^(m z) at the start of each run of iterations. */
+  readonly w: Float64Array;
+  readonly sums = new Float64Array(7);
   constructor(n: number) {
     this.z = new Float64Array(n);
     this.r = new Float64Array(n);
+    this.w = new Float64Array(n);
   }
 }
 
@@ -173,7 +275,8 @@ function oneReplication(random: SeededRandom, y: Float64Array, work: MixtureWork
 export function simulateMixtureStatistics(n: number): Float64Array {
   const hit = cache.get(n);
   if (hit) return hit;
-  const perSlice = replicationsPerSlice(20 * n);
+  // About 0.56 of the 20 n per replication it cost before the one-pass E-step (whole-run ratio): slices as long as before.
+  const perSlice = replicationsPerSlice(11 * n);
   const sorted = simulate("mixture check", String(n), function* () {
     const random = new SeededRandom((patternSeed(n, []) ^ SALT) >>> 0);
     const y = new Float64Array(n);

@@ -87,11 +87,11 @@ export function modulusFromCoefficientOfVariation({
   const target = Math.log1p(cv * cv);
   ensure(
     target > 0 && target < logOnePlusSquaredCv(LOWEST_SHAPE),
-    `the coefficient of variation ${cv} is too large: no Weibull modulus above ${LOWEST_SHAPE} gives it`,
+    () => `the coefficient of variation ${cv} is too large: no Weibull modulus above ${LOWEST_SHAPE} gives it`,
   );
   ensure(
     target > logOnePlusSquaredCv(HIGHEST_SHAPE),
-    `the coefficient of variation ${cv} is too small: the modulus would exceed ${HIGHEST_SHAPE}`,
+    () => `the coefficient of variation ${cv} is too small: the modulus would exceed ${HIGHEST_SHAPE}`,
   );
   // The log form keeps the equation well scaled when CV is tiny.
   const f = (m: number) => Math.log(logOnePlusSquaredCv(m)) - Math.log(target);

@@ -83,7 +83,7 @@ function buildTable(file: TableFile): PivotalTable {
     return values[j] + w * (values[j + 1] - values[j]);
   };
 
-  const checkSize = (n: number) => ensure(Number.isInteger(n) && n >= 2, `pivotal quantities need a whole number of at least 2 specimens (got ${n})`);
+  const checkSize = (n: number) => ensure(Number.isInteger(n) && n >= 2, () => `pivotal quantities need a whole number of at least 2 specimens (got ${n})`);
 
   const quantile = (n: number, p: number, key: "q" | "t"): number => {
     checkSize(n);

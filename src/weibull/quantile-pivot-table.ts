@@ -99,11 +99,11 @@ export function quantilePivotQuantile({
   logHazard: number;
   probability: number;
 }): number {
-  ensure(Number.isInteger(specimens) && specimens >= 2, `the table needs a whole number of at least 2 specimens (got ${specimens})`);
+  ensure(Number.isInteger(specimens) && specimens >= 2, () => `the table needs a whole number of at least 2 specimens (got ${specimens})`);
   ensure(Number.isFinite(logHazard), "the log cumulative hazard must be finite");
   ensure(
     probability >= P[0] && probability <= P[P.length - 1],
-    `probability ${probability} is outside the simulated range ${P[0]} .. ${P[P.length - 1]}`,
+    () => `probability ${probability} is outside the simulated range ${P[0]} .. ${P[P.length - 1]}`,
   );
   const radians = Math.atan(logHazard);
   const degrees = (radians * 180) / Math.PI;

@@ -12,6 +12,6 @@ export const SIMULATION_MAX_SPECIMENS = 1000;
 export function requireSimulationSize(specimens: number, what: string): void {
   ensure(
     specimens <= SIMULATION_MAX_SPECIMENS,
-    `${what} is simulated and accepts at most ${SIMULATION_MAX_SPECIMENS} specimens (got ${specimens}); use "MLE-RAW" or a smaller sample`,
+    () => `${what} is simulated and accepts at most ${SIMULATION_MAX_SPECIMENS} specimens (got ${specimens}); use "MLE-RAW" or a smaller sample`,
   );
 }

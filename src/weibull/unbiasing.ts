@@ -22,7 +22,7 @@ import { fitMaximumLikelihood } from "./maximum-likelihood";
 import { pivotalTable } from "./pivotal-table";
 
 export function unbiasingFactor(specimens: number): number {
-  ensure(Number.isInteger(specimens) && specimens >= 2, `the unbiasing factor needs at least 2 specimens (got ${specimens})`);
+  ensure(Number.isInteger(specimens) && specimens >= 2, () => `the unbiasing factor needs at least 2 specimens (got ${specimens})`);
   return pivotalTable().unbiasingFactor(specimens);
 }
 

@@ -1,0 +1,23 @@
+/**
+ * Bytes of a file into an element-table reader in large chunks, read with
+ * positional reads into one reused buffer: no stream machinery, and no fresh
+ * memory (page faults, zero-filling) for every chunk. A new buffer is taken
+ * only while the reader is still reading ahead, since it keeps those chunks.
+ */
+import { readSync } from "node:fs";
+import type { PartTableReader } from "../src/size/part-stream";
+
+const CHUNK = 4 << 20;
+
+/** Feeds bytes [start, end) of the open file `fd` to `reader`; `onChunk` gets the bytes read so far. */
+export function readFileRange(fd: number, start: number, end: number, reader: PartTableReader, onChunk?: (bytes: number) => void): void {
+  let buffer = new Uint8Array(Math.min(CHUNK, Math.max(1, end - start)));
+  for (let at = start; at < end; ) {
+    if (reader.keepsChunks) buffer = new Uint8Array(buffer.length);
+    const n = readSync(fd, buffer, 0, Math.min(buffer.length, end - at), at);
+    if (n <= 0) break;
+    reader.push(n === buffer.length ? buffer : buffer.subarray(0, n));
+    at += n;
+    onChunk?.(at - start);
+  }
+}

@@ -1,0 +1,83 @@
+// A table read in two parts (src/size/part-split.ts, as `brittle part` does on two cores with
+// cli/part-parallel.ts) against the same table read by one reader: the same result, to rounding
+// in the effective size and shares (the parts sum in another order). The one-reader result is
+// itself checked against numpy in test/size-part.test.ts; here it is the reference.
+import { describe, expect, it } from "vitest";
+import { joinPieces } from "../src/size/part-split";
+import { PartTableReader, type PartStreamOptions, type PartStreamResult } from "../src/size/part-stream";
+import { relativeError } from "./helpers";
+
+const bytes = (s: string) => new TextEncoder().encode(s);
+
+function lcg(seed: number): () => number {
+  return () => (seed = (seed * 16807) % 2147483647) / 2147483647;
+}
+
+/** Reads `text` split after the line end nearest `at`: the first part whole, the second continuing. */
+function readInTwo(text: string, at: number, options: PartStreamOptions): PartStreamResult {
+  const data = bytes(text);
+  const middle = data.indexOf(0x0a, at) + 1;
+  const head = new PartTableReader(options);
+  head.push(data.subarray(0, Math.min(middle, 4096)));
+  head.push(data.subarray(Math.min(middle, 4096), middle));
+  const settled = head.settled();
+  expect(settled).not.toBeNull();
+  const first = new PartTableReader(options);
+  first.push(data.subarray(0, middle));
+  const second = new PartTableReader({ ...options, continueFrom: settled! });
+  for (let i = middle; i < data.length; i += 1000) second.push(data.subarray(i, Math.min(data.length, i + 1000)));
+  return joinPieces([first.finishPiece(), second.finishPiece()], options.shape, options.top ?? 10, options.materialScale);
+}
+
+function readWhole(text: string, options: PartStreamOptions): PartStreamResult {
+  const reader = new PartTableReader(options);
+  reader.push(bytes(text));
+  return reader.finish();
+}
+
+describe("an element table read in two parts", () => {
+  const rnd = lcg(41);
+  const lines = ["# invented table", "elem,s1,s2,s3,vol"];
+  for (let r = 0; r < 3000; r++) {
+    const load = 300 * rnd() ** 4;
+    lines.push(`${r + 1},${load},${load * (rnd() - 0.3)},${-load * rnd()},${0.01 * 10 ** (2 * rnd())}`);
+    if (r === 2100) lines.push("", "# a comment in the second half");
+  }
+  const text = lines.join("\n") + "\n";
+
+  it("gives the one-reader result: rows, skipped lines, peak, effective size, failure probability, hot spots", () => {
+    const options: PartStreamOptions = { shape: 10, top: 7, materialScale: 500 };
+    const whole = readWhole(text, options);
+    for (const at of [text.length / 3, text.length / 2, (3 * text.length) / 4]) {
+      const split = readInTwo(text, Math.floor(at), options);
+      expect(split.rows).toBe(whole.rows);
+      expect(split.skippedLines).toBe(whole.skippedLines);
+      expect(split.skipped).toEqual(whole.skipped);
+      expect(split.peak).toBe(whole.peak);
+      expect(split.peakLine).toBe(whole.peakLine);
+      expect(split.peakId).toBe(whole.peakId);
+      expect(relativeError(split.effectiveSize, whole.effectiveSize)).toBeLessThan(1e-14);
+      expect(relativeError(split.failureProbability!, whole.failureProbability!)).toBeLessThan(1e-13);
+      expect(split.hotSpots.map((h) => [h.id, h.line, h.principal, h.size])).toEqual(whole.hotSpots.map((h) => [h.id, h.line, h.principal, h.size]));
+      split.hotSpots.forEach((h, k) => expect(Math.abs(h.share - whole.hotSpots[k].share)).toBeLessThan(1e-14));
+      expect({ ...split, effectiveSize: 0, failureProbability: 0, risk: 0, hotSpots: [] }).toEqual({
+        ...whole,
+        effectiveSize: 0,
+        failureProbability: 0,
+        risk: 0,
+        hotSpots: [],
+      });
+    }
+  });
+
+  it("a beginning that leaves the decimal mark open is not settled (the file is then read in one pass)", () => {
+    const reader = new PartTableReader({ shape: 10 });
+    reader.push(bytes("s;vol\n100;1\n200;2\n"));
+    reader.finish();
+    expect(reader.settled()).toBeNull(); // semicolons and whole numbers: the mark is still open
+    const utf16 = new PartTableReader({ shape: 10 });
+    utf16.push(new Uint8Array([0xff, 0xfe, ...Array.from(bytes("s,vol\n1.5,1\n")).flatMap((b) => [b, 0])]));
+    utf16.finish();
+    expect(utf16.settled()).toBeNull(); // UTF-16: a later part could not be read on its own
+  });
+});
