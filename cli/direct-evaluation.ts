@@ -10,7 +10,9 @@
  * outside it returns undefined so the caller evaluates with the engine:
  * - formulas: exactly =BRITTLE.NAME(arg,...) with an upper-case name of a
  *   function that returns one value (no spill), no spaces, every required
- *   argument given and none empty, at most as many as the function takes;
+ *   argument given (an empty one, as in A2:AD2,,"LSQ", counts as given and
+ *   reaches the adapter as null: the engine's plugin passes null for it),
+ *   at most as many as the function takes;
  *   a range argument is a same-sheet reference (A2:AD2, $A$2, B7) in order,
  *   a number argument a plain decimal literal (-12.5) or one cell holding a
  *   number, a text argument a quoted literal without quotes inside; anything
@@ -54,7 +56,9 @@ type Adapter = (...args: unknown[]) => CellResult;
 type Argument =
   | { kind: "range"; top: number; left: number; bottom: number; right: number }
   | { kind: "number"; value: number }
-  | { kind: "text"; value: string };
+  | { kind: "text"; value: string }
+  /** Nothing between two commas: the adapter gets null, as from the engine (engine.ts). */
+  | { kind: "empty" };
 
 interface Call {
   name: string;
@@ -202,6 +206,7 @@ class SheetEvaluation {
   }
 
   private argumentValue(arg: Argument, param: FunctionMetadata["parameters"][number]): unknown {
+    if (arg.kind === "empty") return null;
     if (param.dimensionality === "matrix" && arg.kind === "range") return this.rangeValues(arg);
     if (param.dimensionality !== "matrix" && param.type === "number") {
       if (arg.kind === "number") return arg.value;
@@ -273,6 +278,7 @@ function splitArguments(inner: string): string[] | undefined {
 }
 
 function parseArgument(text: string): Argument | undefined {
+  if (text === "") return { kind: "empty" };
   const ref = REFERENCE.exec(text);
   if (ref) {
     const left = columnIndex(ref[1]);

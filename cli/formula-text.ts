@@ -5,6 +5,8 @@
 
 export const NAMESPACE = "BRITTLE";
 
+const DIGIT_BEFORE_E = /[0-9.]E/;
+
 /**
  * What a spreadsheet accepts but the engine's parser does not, rewritten
  * outside string literals: saved add-in calls (_xldudf_BRITTLE_NAME( becomes
@@ -15,6 +17,9 @@ export const NAMESPACE = "BRITTLE";
  * column range (A:A), which it does not.
  */
 export function normaliseFormula(formula: string): string {
+  // Each rewrite needs an underscore, a digit or point before an E, or the last row's number: a formula with
+  // none of them (the common case, checked once per formula before any evaluation) is returned as it is.
+  if (!formula.includes("_") && !formula.includes("1048576") && !DIGIT_BEFORE_E.test(formula)) return formula;
   return formula
     .split(/("(?:[^"]|"")*")/)
     .map((part, i) =>

@@ -34,11 +34,15 @@ export function rangesOf(formula: string): RangeUse[] {
     const cols = Math.abs(columnNumber(m[3]) - columnNumber(m[1])) + 1;
     out.push({ text: m[0], cells: rows * cols });
   }
+  // A row range needs a digit, a colon and a digit (3:7, 3:$7); most formulas have none, and skip the scan.
+  if (!ROW_RANGE_HINT.test(code)) return out;
   for (const m of code.matchAll(/(?<![A-Za-z0-9_.$:])\$?(\d{1,7}):\$?(\d{1,7})(?![A-Za-z0-9_.:(])/g)) {
     out.push({ text: m[0], cells: (Math.abs(Number(m[2]) - Number(m[1])) + 1) * MAX_COLUMNS });
   }
   return out;
 }
+
+const ROW_RANGE_HINT = /[0-9]:\$?[0-9]/;
 
 function columnNumber(letters: string): number {
   return [...letters.toUpperCase()].reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0);

@@ -206,19 +206,93 @@ export function detectDialect(sample: { line: number; text: string }[], choice: 
  * @example detectDelimiter([{ line: 1, text: "a\tb, c" }]).delimiter // "\t"
  */
 export function detectDelimiter(sample: { line: number; text: string }[], choice: DialectChoice = {}): { delimiter: Delimiter; basis: string } {
+  const evidence: DelimiterEvidence = { lines: sample.length, first: [0, 0, 0], same: [true, true, true] };
+  CANDIDATES.forEach((d, k) => {
+    const counts = sample.map((l) => countFields(l.text, d));
+    evidence.first[k] = counts.length > 0 ? counts[0] : 0;
+    evidence.same[k] = counts.every((c) => c === counts[0]);
+  });
+  return chooseDelimiter(evidence, choice);
+}
+
+/** What the content lines say about each candidate delimiter (tab, semicolon, comma, in CANDIDATES order). */
+interface DelimiterEvidence {
+  /** Content lines seen. */
+  lines: number;
+  /** Fields on the first content line under each candidate. */
+  first: number[];
+  /** Whether every content line has that many. */
+  same: boolean[];
+}
+
+function chooseDelimiter(evidence: DelimiterEvidence, choice: DialectChoice): { delimiter: Delimiter; basis: string } {
   const statedMark = choice.decimalMark && choice.decimalMark !== "auto" ? choice.decimalMark : null;
   if (choice.delimiter && choice.delimiter !== "auto") return { delimiter: choice.delimiter, basis: "stated" };
   // A stated decimal comma rules the comma out as a delimiter.
   const candidates = CANDIDATES.filter((d) => !(d === "," && statedMark === "comma"));
-  const counts = candidates.map((d) => sample.map((l) => countFields(l.text, d)));
-  const consistent = candidates.findIndex((_, k) => counts[k].length > 0 && counts[k][0] > 1 && counts[k].every((c) => c === counts[k][0]));
-  if (consistent >= 0) return { delimiter: candidates[consistent], basis: "detected: splits every line alike" };
-  const first = counts.map((c) => (c.length > 0 ? c[0] - 1 : 0));
+  const at = (d: Delimiter) => CANDIDATES.indexOf(d);
+  const consistent = candidates.find((d) => evidence.lines > 0 && evidence.first[at(d)] > 1 && evidence.same[at(d)]);
+  if (consistent !== undefined) return { delimiter: consistent, basis: "detected: splits every line alike" };
+  const first = candidates.map((d) => (evidence.lines > 0 ? evidence.first[at(d)] - 1 : 0));
   const most = Math.max(0, ...first);
   if (most > 0) return { delimiter: candidates[first.indexOf(most)], basis: "detected: most frequent on the first line" };
   if (choice.allowWhitespace) return { delimiter: "space", basis: "detected: runs of blanks" };
   // One column: a delimiter that cannot be a decimal mark here; comma by convention.
   return { delimiter: statedMark === "comma" ? ";" : ",", basis: "no delimiter found: one column" };
+}
+
+/**
+ * The delimiter of a whole text, from every content line (as contentLines
+ * picks them, without a limit) counted as countFields counts, in one pass
+ * that keeps no line: the same choice as detectDelimiter(contentLines(text,
+ * comments, Infinity)) at a fraction of the cost on a large sheet.
+ * @example detectDelimiterOfText("s;v\n445,3;2\n", false).delimiter // ";"
+ */
+export function detectDelimiterOfText(text: string, comments: boolean, choice: DialectChoice = {}): { delimiter: Delimiter; basis: string } {
+  const evidence: DelimiterEvidence = { lines: 0, first: [0, 0, 0], same: [true, true, true] };
+  const n = text.length;
+  let i = 0;
+  for (;;) {
+    // One physical line: fields under tab, semicolon and comma (a quote toggles quoting for all three).
+    let tabs = 1;
+    let semicolons = 1;
+    let commas = 1;
+    let inQuotes = false;
+    let content = false; // anything but blanks, commas, semicolons and quotes
+    let firstNonBlank = -1;
+    for (; i < n; i++) {
+      const c = text.charCodeAt(i);
+      if (c === 10 || c === 13) break;
+      if (c === 34) inQuotes = !inQuotes;
+      else if (!inQuotes) {
+        if (c === 9) tabs++;
+        else if (c === 59) semicolons++;
+        else if (c === 44) commas++;
+      }
+      const blank = isBlank(c);
+      if (!blank && firstNonBlank < 0) firstNonBlank = c;
+      if (!content && !blank && c !== 44 && c !== 59 && c !== 34) content = true;
+    }
+    if (content && !(comments && firstNonBlank === 35)) {
+      const counts = [tabs, semicolons, commas];
+      for (let k = 0; k < 3; k++) {
+        if (evidence.lines === 0) evidence.first[k] = counts[k];
+        else if (counts[k] !== evidence.first[k]) evidence.same[k] = false;
+      }
+      evidence.lines++;
+    }
+    if (i >= n) break;
+    i += text.charCodeAt(i) === 13 && text.charCodeAt(i + 1) === 10 ? 2 : 1;
+  }
+  return chooseDelimiter(evidence, choice);
+}
+
+const BLANK = /\s/;
+
+/** A character String.prototype.trim removes and /\s/ matches (ECMAScript WhiteSpace and LineTerminator). */
+function isBlank(c: number): boolean {
+  if (c < 128) return c === 32 || (c >= 9 && c <= 13);
+  return BLANK.test(String.fromCharCode(c));
 }
 
 /**

@@ -59,6 +59,39 @@ export function classifyNumber(text: string): NumberShape {
   return { kind: "decimal", mark: separator, value };
 }
 
+/**
+ * The value of the commonest token, read without a pattern match or a result
+ * object: a sign, digits and at most one decimal point ("413.6", "-12",
+ * ".5"), when readNumber would read it as that one number under `mark`.
+ * Undefined for everything else (a comma, an exponent, blanks, "1.250",
+ * a decimal point in a decimal-comma file, a value beyond double range),
+ * which readNumber then reads or refuses as before.
+ * @example plainNumberValue("413.6", null) // 413.6;  plainNumberValue("1.250", null) // undefined
+ */
+export function plainNumberValue(text: string, mark: DecimalMark | null): number | undefined {
+  const n = text.length;
+  let i = 0;
+  let c = n > 0 ? text.charCodeAt(0) : 0;
+  if (c === 43 || c === 45) c = ++i < n ? text.charCodeAt(i) : 0; // + or -
+  const firstDigit = i;
+  while (c >= 48 && c <= 57) c = ++i < n ? text.charCodeAt(i) : 0;
+  const whole = i - firstDigit;
+  let fraction = -1; // digits after the point; -1: no point
+  if (i < n && c === 46) {
+    if (mark === "comma") return undefined; // refused by readNumber, with its reason
+    const start = ++i;
+    c = i < n ? text.charCodeAt(i) : 0;
+    while (c >= 48 && c <= 57) c = ++i < n ? text.charCodeAt(i) : 0;
+    fraction = i - start;
+  }
+  if (i !== n || whole + Math.max(fraction, 0) === 0) return undefined;
+  // "1.250": a decimal point or a thousands separator (AMBIGUOUS above); readNumber decides.
+  if (fraction === 3 && whole >= 1 && whole <= 3 && text.charCodeAt(firstDigit) !== 48) return undefined;
+  const value = Number(text);
+  if (!Number.isFinite(value)) return undefined;
+  return value === 0 ? 0 : value;
+}
+
 /** The outcome of reading one token under a file's decimal mark. */
 export type NumberReading =
   | { ok: true; value: number; /** the mark this token proves, when the file's was not yet known */ proves?: DecimalMark }

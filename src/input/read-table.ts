@@ -9,14 +9,13 @@ import {
   type Dialect,
   type DialectChoice,
   type TextRecord,
-  contentLines,
-  detectDelimiter,
+  detectDelimiterOfText,
   settleDecimalMark,
   evenFieldCounts,
   fieldCountMessage,
   splitRecords,
 } from "./delimited-text";
-import { type DecimalMark, readNumber } from "./number-text";
+import { type DecimalMark, plainNumberValue, readNumber } from "./number-text";
 
 export interface DelimitedTable {
   dialect: Dialect;
@@ -30,8 +29,7 @@ export interface DelimitedTable {
  * @example readDelimited("s;v\n445,3;2\n").dialect // { delimiter: ";", decimalMark: "comma", basis: ... }
  */
 export function readDelimited(text: string, choice: DialectChoice & { comments?: boolean } = {}): DelimitedTable {
-  const sample = contentLines(text, choice.comments ?? false, Number.POSITIVE_INFINITY);
-  const delimiter = detectDelimiter(sample, choice);
+  const delimiter = detectDelimiterOfText(text, choice.comments ?? false, choice);
   const all = splitRecords(text, delimiter.delimiter);
   const records = choice.comments ? all.map((r) => (isComment(r) ? { ...r, fields: [], comment: true } : r)) : all;
   const dialect = settleDecimalMark(records, delimiter, choice);
@@ -54,6 +52,8 @@ function isComment(r: TextRecord): boolean {
  * @example fieldNumber("1,250", "comma", 3, 2) // 1.25;  fieldNumber("1,250", null, 3, 2) throws "line 3, field 2: ..."
  */
 export function fieldNumber(text: string, mark: DecimalMark | null, line: number, field: number): number | null {
+  const plain = plainNumberValue(text, mark);
+  if (plain !== undefined) return plain;
   const r = readNumber(text, mark);
   if (r.ok) return r.value;
   if (r.reason === "is not a number") return null;
