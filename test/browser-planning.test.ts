@@ -1,5 +1,6 @@
 /**
- * The "How many specimens?" panel in a real headless Chromium (Debian's package), standalone: the
+ * The "How many specimens?" panel in a real headless Chromium (a system one, or the one the npm package
+ * @sparticuz/chromium ships: see browser-launch.ts), standalone: the
  * pane is built into a temporary folder and served on a loopback port; the test types as a user
  * would and checks that the page shows what the core computes (the core is the reference for the
  * pane; it is checked against a seeded pivot simulation in specimens-needed.test.ts).
@@ -14,6 +15,7 @@ import type { AddressInfo } from "node:net";
 import { build } from "vite";
 import { chromium, type BrowserContext } from "playwright-core";
 import { specimensNeeded } from "../src/design/specimens-needed";
+import { CHROMIUM_ARGS, findChromium } from "./browser-launch";
 
 const ROOT = resolve(import.meta.dirname, "..");
 let outDir = "";
@@ -22,7 +24,11 @@ let server: Server;
 let baseUrl = "";
 let context: BrowserContext;
 
+const chromiumFound = await findChromium();
+if (chromiumFound.executablePath === null) console.warn(`browser tests skipped: ${chromiumFound.reason}`);
+
 beforeAll(async () => {
+  if (chromiumFound.executablePath === null) return;
   outDir = await mkdtemp(join(tmpdir(), "brittle-plan-"));
   profileDir = await mkdtemp(join(tmpdir(), "brittle-plan-profile-"));
   await build({ configFile: join(ROOT, "vite.config.ts"), logLevel: "silent", build: { outDir, emptyOutDir: true } });
@@ -40,9 +46,9 @@ beforeAll(async () => {
   await new Promise<void>((done) => server.listen(0, "127.0.0.1", done));
   baseUrl = `http://127.0.0.1:${(server.address() as AddressInfo).port}`;
   context = await chromium.launchPersistentContext(profileDir, {
-    executablePath: "/usr/bin/chromium",
+    executablePath: chromiumFound.executablePath,
     headless: true,
-    args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+    args: CHROMIUM_ARGS,
   });
 }, 180_000);
 
@@ -53,7 +59,7 @@ afterAll(async () => {
   await rm(profileDir, { recursive: true, force: true });
 });
 
-describe("How many specimens?", () => {
+describe.skipIf(chromiumFound.executablePath === null)(`How many specimens? (headless Chromium: ${chromiumFound.executablePath === null ? "none found" : chromiumFound.source})`, () => {
   it("shows the core's number of specimens, updates as the user types, and names a bad field", async () => {
     const page = await context.newPage();
     const problems: string[] = [];
