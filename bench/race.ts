@@ -41,6 +41,7 @@ export const SAME_SUM = 1e-12;
 const GOALS: Record<string, number> = {
   "fit-30 numpy Newton": 10,
   "fit-30 scipy weibull_min.fit": 1000,
+  "fit-100 numpy Newton": 10,
   "fit-1000 numpy Newton": 1,
   "fit-1e6 numpy Newton": 1,
   "pia numpy": 4,

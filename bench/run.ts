@@ -6,7 +6,7 @@
  * with the machine and date, and writes a JSON record to bench/results/ (git-ignored).
  *
  * BENCH_QUICK=1     fewer rounds, no 40-digit solve at 10^6 specimens, no full-column workbook
- * BENCH_ONLY=fit,calc  only the rows whose id contains one of the words (ids: fit-30, fit-1000,
+ * BENCH_ONLY=fit,calc  only the rows whose id contains one of the words (ids: fit-30, fit-100, fit-1000,
  *                   fit-1e6, pia, part, calc-start, calc-sheet, bounds, streaming, demo, full-column)
  * BENCH_ROUNDS=N    N alternating rounds for the short rows, at most 5 for the long ones
  */
@@ -80,7 +80,7 @@ async function paired(ids: string[], path: string, run: () => Promise<PairedRow 
   }
 }
 
-const FIT_SIZES = { "fit-30": 30, "fit-1000": 1000, "fit-1e6": 1_000_000 };
+const FIT_SIZES = { "fit-30": 30, "fit-100": 100, "fit-1000": 1000, "fit-1e6": 1_000_000 };
 const accuracy: AccuracyRow[] = [];
 await paired(Object.keys(FIT_SIZES), "ML fit", () => fitRows(ctx, accuracy, Object.entries(FIT_SIZES).filter(([id]) => wanted(id)).map(([, n]) => n)));
 await paired(["pia"], "PIA sum", () => piaRow(ctx));
