@@ -11,7 +11,7 @@ import { fitMaximumLikelihood } from "../src/weibull/maximum-likelihood";
 import { elementTable, weibullSample, writeFloat64 } from "./datasets";
 import { batch, lasting, type Contender, type Turn } from "./measure";
 import type { PythonPeers } from "./processes";
-import { contender, GENERIC_OPTIMISER, race, SAME_EQUATION, SAME_SUM, type BenchContext, type Fit } from "./race";
+import { GENERIC_OPTIMISER, race, SAME_EQUATION, SAME_SUM, type BenchContext, type Fit } from "./race";
 import { agreement, type AccuracyRow, type PairedRow } from "./report";
 
 /**
@@ -100,13 +100,18 @@ interface Digits40 {
 export async function piaRow(ctx: BenchContext): Promise<PairedRow> {
   const { principal, sizes } = elementTable(2 ** 20, 7);
   const shape = 10;
+  // Turns of about TURN seconds on both sides, like the fit rows (one call, 15-80 ms, is a short turn on a shared machine).
   const contenders: Contender<number>[] = [
-    contender("brittle", () => batch(1, () => partRiskSum({ principal, stride: 3, sizes, shape, criterion: "PIA" }).effectiveSize)),
+    lasting("brittle", TURN, 1, async (calls) => batch(calls, () => partRiskSum({ principal, stride: 3, sizes, shape, criterion: "PIA" }).effectiveSize)),
   ];
   const peers = ctx.peers;
   if (peers) {
-    const request = { task: "pia", principal: writeFloat64(ctx.work, "principal.f64", principal), sizes: writeFloat64(ctx.work, "sizes.f64", sizes), shape, batch: 1 };
-    contenders.push(contender("numpy", () => peers.ask<{ seconds: number; effectiveSize: number }>(request).then((r) => ({ seconds: r.seconds, result: r.effectiveSize }))));
+    const request = { task: "pia", principal: writeFloat64(ctx.work, "principal.f64", principal), sizes: writeFloat64(ctx.work, "sizes.f64", sizes), shape };
+    contenders.push(
+      lasting("numpy", TURN, 1, (calls) =>
+        peers.ask<{ seconds: number; effectiveSize: number }>({ ...request, batch: calls }).then((r) => ({ seconds: r.seconds, result: r.effectiveSize })),
+      ),
+    );
   }
   return race(
     ctx,
