@@ -87,14 +87,13 @@ describe("MATERIALFIT table", () => {
     expect(value(rows, "p-value: one modulus (common m vs separate fits)")).toMatch(/^n\/a \(censored/);
   });
 
-  // Found by properties-cells (fast-check seed -30029459): nearly equal strengths give a pooled modulus near 195,
-  // close to the top of the moduli the disk's size law covers (200, common practice for tabulated laws here), so
-  // most simulated fits fall outside it. The fit exists; the simulated rows must say why they are missing, not
-  // turn the whole cell into #NUM! as if the result were beyond double precision.
+  // The hostile case hostile/material-modulus-at-range-edge.json (found by properties-cells): the fit exists; the
+  // simulated rows must say why they are missing, not turn the whole cell into #NUM!.
   it("a modulus near the end of the covered range: the fit is shown and the simulated rows say why they are missing", () => {
-    const strengths = [[1], [1], [1], [1], [1], [1], [1], [0.9598622010341454]];
-    const configs = [...Array(4).fill(["C1161-B-4PT"]), ...Array(4).fill(["C1499-20/10"])];
-    const rows = table(guarded.MATERIALFIT(strengths, configs, "VOLUME", null, "PIA", 0.22));
+    const edge = fixture("hostile/material-modulus-at-range-edge.json");
+    const strengths = edge.strengths.map((s: number) => [s]);
+    const configs = edge.configurations.map((c: string) => [c]);
+    const rows = table(guarded.MATERIALFIT(strengths, configs, edge.flaws, null, edge.criterion, edge.poisson));
     expect(rows[0][1]).toBeGreaterThan(150);
     expect(value(rows, "converged")).toBe(true);
     for (const label of ["p-value: the size effect holds (tied by effective size vs free)", "checks", "bounds and p-values from"]) {

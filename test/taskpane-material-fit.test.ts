@@ -43,8 +43,9 @@ describe("the pooled-fit panel", () => {
   // The case properties-cells found for the cell (see test/material-cells.test.ts): the fit exists, the simulated
   // bounds do not; the panel shows the fit and says why the checks were not run instead of failing outright.
   it("shows the fit and a caution when simulated bounds do not exist (a modulus near the end of the covered range)", () => {
-    const lines = ["1\tC1161-B-4PT", "1\tC1161-B-4PT", "1\tC1161-B-4PT", "1\tC1161-B-4PT", "1\tC1499-20/10", "1\tC1499-20/10", "1\tC1499-20/10", "0.9598622010341454\tC1499-20/10"];
-    const answer = materialFitAnswer({ text: lines.join("\n"), flaws: "volume", poisson: 0.22, decimalComma: false });
+    const edge = JSON.parse(readFileSync("test/fixtures/hostile/material-modulus-at-range-edge.json", "utf8"));
+    const lines = edge.strengths.map((s: number, k: number) => `${s}\t${edge.configurations[k]}`);
+    const answer = materialFitAnswer({ text: lines.join("\n"), flaws: "volume", poisson: edge.poisson, decimalComma: false });
     expect(answer.caution).toBe(true);
     expect(answer.checks).toMatch(/^CAUTION: the one-modulus and size-effect checks were not run \(only \d+ of 2000/);
     expect(answer.rows[0].value).toMatch(/^1\d\d(\.\d+)? \(bounds not available: /);
