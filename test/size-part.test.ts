@@ -125,6 +125,22 @@ describe("part risk sums against numpy", () => {
     expect(() => partRiskSum({ principal: f64([1, NaN]), stride: 1, sizes: f64([1, 1]), shape: 5 })).toThrow(/row 2/);
     expect(() => partRiskSum({ principal: f64([1, 2]), stride: 1, sizes: f64([1, -1]), shape: 5 })).toThrow(/row 2: the element size/);
     expect(() => partRiskSum({ principal: f64([1, 2, 3]), stride: 1, sizes: f64([1, 1]), shape: 5 })).toThrow(/rows/);
+    // Rows of three principal stresses: the row is named whichever column holds the fault.
+    expect(() => partRiskSum({ principal: f64([1, 2, 3, 4, 5, Infinity]), stride: 3, sizes: f64([1, 1]), shape: 5 })).toThrow(/row 2/);
+    expect(() => partRiskSum({ principal: f64([1, 2, 3, 4, 5, 6]), stride: 3, sizes: f64([-1e-300, 1]), shape: 5 })).toThrow(
+      /row 1: the element size/,
+    );
+  });
+
+  it("the peak's row is the first that holds it, in any column; -0 is a valid size", () => {
+    const principal = f64([5, -1, 2, 1, 9, -3, 9, 0, 0, -2, -2, -2]);
+    const r = partRiskSum({ principal, stride: 3, sizes: f64([1, -0, 1, 1]), shape: 2 });
+    expect(r.peak).toBe(9);
+    expect(r.peakRow).toBe(1);
+    const single = partRiskSum({ principal: f64([-1, 4, 4, 2]), stride: 1, sizes: f64([1, 1, 1, 1]), shape: 2 });
+    expect([single.peak, single.peakRow]).toEqual([4, 1]);
+    const compressed = partRiskSum({ principal: f64([-1, -4]), stride: 1, sizes: f64([1, 1]), shape: 2 });
+    expect([compressed.peak, compressed.peakRow, compressed.effectiveSize]).toEqual([0, -1, 0]);
   });
 
   it("a million elements: the compensated sum matches a plain double-double check", () => {

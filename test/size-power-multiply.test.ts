@@ -154,4 +154,42 @@ describe("power kernel, whole-number modulus (repeated multiplication)", () => {
     }
     expect(differs).toBe(true);
   });
+
+  it("rows of three clip compression without a branch, bit for bit as x > 0 ? x / ref : 0 would", () => {
+    // The loop computes (x + |x|) / (2 ref). IEEE 754 doubling is exact, so for x > 0 the quotient
+    // and its rounding are those of x / ref; -0, negatives and subnormals are the edge cases.
+    const values = new Float64Array([
+      -0, 0, 5e-324, // signed zero and the smallest subnormal
+      -3, 2.5e-310, 99.75, // negative, subnormal, ordinary
+      1e-20, -1e-300, 70, // tiny, tiny negative, the reference itself
+      33.3, 33.3, -33.3,
+    ]);
+    const sizes = new Float64Array([1, 0.5, 2, 1e-3]);
+    const ref = 70;
+    for (const m of [1, 2, 7, 10, 40]) {
+      const kernel = new ScaledPower(m, ref);
+      const fast = newTotal();
+      kernel.sumRows(values, 3, sizes, 0, 4, "PIA", fast);
+      // The same sum written the plain way: one value at a time through of(), which divides x / ref.
+      let sum = 0;
+      let comp = 0;
+      for (let row = 0; row < 4; row++) {
+        const term = (kernel.of(values[3 * row]) + kernel.of(values[3 * row + 1]) + kernel.of(values[3 * row + 2])) * sizes[row];
+        const [t, e] = twoSum(sum, term);
+        comp += e;
+        sum = t;
+      }
+      expect(fast.sum, `m = ${m}`).toBe(sum);
+      expect(fast.compensation, `m = ${m}`).toBe(comp);
+    }
+  });
+
+  it("a reference above 2^1022 (twice it would overflow) leaves the multiplication path and stays right", () => {
+    const ref = 1.5e308;
+    const values = new Float64Array([ref, 0.5 * ref, -ref]);
+    const total = newTotal();
+    new ScaledPower(4, ref).sumRows(values, 3, new Float64Array([2]), 0, 1, "PIA", total);
+    // On the multiplication path 2 * ref would be Infinity and every term 0.
+    expect(relativeError(totalValue(total), 2 * (1 + 0.0625))).toBeLessThan(1e-15);
+  });
 });

@@ -53,36 +53,45 @@ function scan(principal: Float64Array, stride: number, sizes: Float64Array): { p
   if (principal.length !== rows * stride) {
     throw new InputError("input", `stresses have ${principal.length / stride} rows but sizes have ${rows}`);
   }
-  // One branch-light pass: x * 0 is 0 for finite x and NaN otherwise, so `bad` turns NaN at the
-  // first non-finite value; only then does the slow pass below run, to name the row.
-  let peak = 0;
-  let peakRow = -1;
+  // One branch-free pass: x * 0 is 0 for finite x and NaN otherwise, so `bad` turns NaN at the
+  // first non-finite value, and the smallest size tells a negative one; only then does the slow
+  // pass below run, to name the row. A running maximum per column (no compare-and-branch, which
+  // mispredicts on mixed-sign columns); the peak's row is found afterwards, the first that holds it.
   let bad = 0;
+  let smallestSize = 0;
+  let peak = 0;
   if (stride === 3) {
+    let top0 = 0;
+    let top1 = 0;
+    let top2 = 0;
     for (let r = 0; r < rows; r++) {
       const a = principal[3 * r];
       const b = principal[3 * r + 1];
       const c = principal[3 * r + 2];
       const s = sizes[r];
-      bad += a * 0 + b * 0 + c * 0 + s * 0 + (s < 0 ? NaN : 0);
-      const top = a > b ? (a > c ? a : c) : b > c ? b : c;
-      if (top > peak) {
-        peak = top;
-        peakRow = r;
-      }
+      bad += a * 0 + b * 0 + c * 0 + s * 0;
+      smallestSize = Math.min(smallestSize, s);
+      top0 = Math.max(top0, a);
+      top1 = Math.max(top1, b);
+      top2 = Math.max(top2, c);
     }
+    peak = Math.max(top0, top1, top2);
   } else {
     for (let r = 0; r < rows; r++) {
       const a = principal[r];
       const s = sizes[r];
-      bad += a * 0 + s * 0 + (s < 0 ? NaN : 0);
-      if (a > peak) {
-        peak = a;
-        peakRow = r;
-      }
+      bad += a * 0 + s * 0;
+      smallestSize = Math.min(smallestSize, s);
+      peak = Math.max(peak, a);
     }
   }
-  if (bad !== 0) scanSlowly(principal, stride, sizes);
+  if (bad !== 0 || smallestSize < 0) scanSlowly(principal, stride, sizes);
+  let peakRow = -1;
+  if (peak > 0) {
+    let i = 0;
+    while (principal[i] !== peak) i++;
+    peakRow = Math.floor(i / stride);
+  }
   return { peak, peakRow };
 }
 
