@@ -22,7 +22,7 @@ import { InputError } from "../src/errors";
 import { CRITERIA, type Criterion } from "../src/size/criteria";
 import type { ColumnChoice } from "../src/size/part-columns";
 import { type PartStreamOptions, type PartStreamResult, PartTableReader } from "../src/size/part-stream";
-import { parallelAvailable, readPartFileInHalves } from "./part-parallel";
+import { parallelAvailable, readPartFileInParallel } from "./part-parallel";
 import { readFileRange } from "./read-file-range";
 
 export interface PartCommandIo {
@@ -47,7 +47,8 @@ FILE: a table of element stresses and sizes, one element per line ("-" reads sta
   --delimiter D    auto (default), a character, "tab" or "space" (runs of blanks)
   --decimal-comma  the decimal mark is a comma (--decimal-point: a point); default: from the numbers,
                    and a number that could be read two ways ("1,250") is refused
-  --top N          hot spots to list, default 10;  --json  machine-readable output;  --quiet  no progress`;
+  --top N          hot spots to list, default 10;  --json  machine-readable output;  --quiet  no progress
+A file of 32 MiB or more is read on two threads on a machine with two processors or more (BRITTLE_THREADS=1: one).`;
 
 class UsageError extends Error {}
 
@@ -169,19 +170,31 @@ export function parsePartArgs(args: string[]): PartArgs {
 /**
  * Streams a file (or standard input) through the reader. The core of the
  * command, exported so a benchmark can time file reading plus parsing. A
- * large file is read in two halves at once when BRITTLE_THREADS=2 asks for it
- * and it is safe (cli/part-parallel.ts; no progress lines then), otherwise in one pass.
+ * large file is read on two threads where a second processor is available and
+ * it is safe (cli/part-parallel.ts; BRITTLE_THREADS=1 asks for one), otherwise in one pass.
  */
 export async function streamPartFile(
   file: string,
   options: PartStreamOptions,
   onProgress?: (rows: number, bytes: number, totalBytes: number | null) => void,
-): Promise<PartStreamResult> {
+): Promise<PartFileResult> {
   const total = file === "-" ? null : statSync(file).size;
   if (parallelAvailable(file, total)) {
-    const joined = await readPartFileInHalves(file, total as number, options);
-    if (joined !== null) return joined;
+    const joined = await readPartFileInParallel(file, total as number, options, onProgress);
+    if (joined !== null) return { ...joined, threads: 2 };
   }
+  return { ...(await streamInOnePass(file, total, options, onProgress)), threads: 1 };
+}
+
+/** The table, and how many threads read it (two may differ from one in the last digit of the effective size). */
+export type PartFileResult = PartStreamResult & { threads: 1 | 2 };
+
+async function streamInOnePass(
+  file: string,
+  total: number | null,
+  options: PartStreamOptions,
+  onProgress?: (rows: number, bytes: number, totalBytes: number | null) => void,
+): Promise<PartStreamResult> {
   const reader = new PartTableReader(options);
   if (file !== "-") {
     const fd = openSync(file, "r");
@@ -216,7 +229,7 @@ function percent(x: number): string {
 }
 
 /** The human-readable report. */
-export function formatPartReport(file: string, r: PartStreamResult): string {
+export function formatPartReport(file: string, r: PartFileResult): string {
   const kinds = { 1: "maximum principal", 3: "principal", 6: "tensor, principal stresses computed" } as const;
   const lines: string[] = [];
   const row = (label: string, text: string) => lines.push(`${label.padEnd(16)}${text}`);
@@ -229,7 +242,7 @@ export function formatPartReport(file: string, r: PartStreamResult): string {
       (others > 0 ? `; ${others} blank or comment line${others === 1 ? "" : "s"} skipped (listed on stderr)` : ""),
   );
   const mark = r.decimalMark === null ? "no decimal mark needed (whole numbers)" : `decimal ${r.decimalMark} (${r.decimalBasis})`;
-  row("read as", `${r.encoding}, delimiter "${r.delimiter}", ${mark}`);
+  row("read as", `${r.encoding}, delimiter "${r.delimiter}", ${mark}${r.threads === 2 ? "; on two threads" : ""}`);
   row(
     "columns",
     `stresses ${r.columns.labels.stress.join(", ")} (${kinds[r.columns.kind]}); size ${r.columns.labels.size}` +

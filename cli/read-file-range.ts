@@ -9,9 +9,18 @@ import type { PartTableReader } from "../src/size/part-stream";
 
 const CHUNK = 4 << 20;
 
-/** Feeds bytes [start, end) of the open file `fd` to `reader`; `onChunk` gets the bytes read so far. */
-export function readFileRange(fd: number, start: number, end: number, reader: PartTableReader, onChunk?: (bytes: number) => void): void {
-  let buffer = new Uint8Array(Math.min(CHUNK, Math.max(1, end - start)));
+/**
+ * Feeds bytes [start, end) of the open file `fd` to `reader`; `onChunk` gets the bytes read so far.
+ * `buffer` (optional) is reused for the chunks, so that a caller reading many ranges allocates once.
+ */
+export function readFileRange(
+  fd: number,
+  start: number,
+  end: number,
+  reader: PartTableReader,
+  onChunk?: (bytes: number) => void,
+  buffer: Uint8Array = new Uint8Array(Math.min(CHUNK, Math.max(1, end - start))),
+): void {
   for (let at = start; at < end; ) {
     if (reader.keepsChunks) buffer = new Uint8Array(buffer.length);
     const n = readSync(fd, buffer, 0, Math.min(buffer.length, end - at), at);

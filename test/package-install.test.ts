@@ -14,7 +14,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { execFile } from "node:child_process";
 import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
+import { availableParallelism, tmpdir } from "node:os";
 import { join, resolve } from "node:path";
 import { promisify } from "node:util";
 import { main } from "../cli/cli";
@@ -38,8 +38,13 @@ interface Outcome {
 
 /** Runs the installed `brittle` with the folder of the install as working directory. */
 async function brittle(...args: string[]): Promise<Outcome> {
+  return brittleWith({}, ...args);
+}
+
+/** The same, with variables added to the environment. */
+async function brittleWith(env: Record<string, string>, ...args: string[]): Promise<Outcome> {
   try {
-    const { stdout, stderr } = await run(process.execPath, [bin, ...args], { cwd: installed, maxBuffer: 64 << 20 });
+    const { stdout, stderr } = await run(process.execPath, [bin, ...args], { cwd: installed, maxBuffer: 64 << 20, env: { ...process.env, ...env } });
     return { code: 0, stdout, stderr };
   } catch (error) {
     const e = error as { code?: number; stdout?: string; stderr?: string };
@@ -130,6 +135,49 @@ describe("the packed package, installed with production dependencies only", { ti
     expect(got.code).toBe(0);
     expect(want.code).toBe(0);
     expect(JSON.parse(got.stdout)).toEqual(JSON.parse(want.stdout));
+  });
+
+  it("part on a table of 32 MiB or more reads it on two threads, with the one-thread result and the one-thread error message", async () => {
+    // An invented element table (seeded), about 40 MB of full-precision doubles: above PARALLEL_MIN_BYTES
+    // (cli/part-parallel.ts), so it is cut into pieces that the main thread and a worker share.
+    let seed = 20261202;
+    const rnd = () => (seed = (seed * 16807) % 2147483647) / 2147483647;
+    const lines = ["# invented element table", "elem,s1,s2,s3,vol"];
+    for (let r = 1; r <= 420_000; r++) {
+      const load = 400 * rnd() ** 3;
+      lines.push(`${r},${load},${load * (rnd() - 0.3)},${-load * rnd()},${rnd()}`);
+      if (r === 300_000) lines.push("# a comment deep in the file", "");
+    }
+    const table = join(installed, "big-elements.csv");
+    writeFileSync(table, lines.join("\n") + "\n");
+    const args = ["part", table, "--modulus", "10", "--scale", "700", "--top", "5", "--json", "--quiet"];
+    const two = await brittle(...args);
+    const one = await brittleWith({ BRITTLE_THREADS: "1" }, ...args);
+    expect(two.code, two.stderr).toBe(0);
+    expect(one.code, one.stderr).toBe(0);
+    const a = JSON.parse(two.stdout);
+    const b = JSON.parse(one.stdout);
+    expect(b.threads).toBe(1);
+    expect(a.threads).toBe(availableParallelism() >= 2 ? 2 : 1);
+    expect(a.rows).toBe(420_000);
+    expect(a.skipped).toEqual(b.skipped); // header, comment and blank line, at their file line numbers
+    expect([a.rows, a.peak, a.peakLine, a.peakId]).toEqual([b.rows, b.peak, b.peakLine, b.peakId]);
+    // The pieces are summed in another order: equal to rounding, not bit for bit.
+    expect(Math.abs(a.effectiveSize - b.effectiveSize) / b.effectiveSize).toBeLessThan(1e-14);
+    expect(Math.abs(a.failureProbability - b.failureProbability) / b.failureProbability).toBeLessThan(1e-13);
+    expect(a.hotSpots.map((h: { id: string; line: number }) => [h.id, h.line])).toEqual(b.hotSpots.map((h: { id: string; line: number }) => [h.id, h.line]));
+
+    // A bad field near the end: the piece that meets it gives up, the file is read again in one pass,
+    // and the message (with its line number) is the one-pass message.
+    const badLine = 410_000;
+    lines[badLine] = lines[badLine].replace(/,([^,]*)$/, ",0.5x");
+    writeFileSync(table, lines.join("\n") + "\n");
+    const twoBad = await brittle(...args);
+    const oneBad = await brittleWith({ BRITTLE_THREADS: "1" }, ...args);
+    expect(oneBad.code).toBe(1);
+    expect(oneBad.stderr).toMatch(new RegExp(`line ${badLine + 1}\\b`));
+    expect(twoBad.code).toBe(1);
+    expect(twoBad.stderr).toBe(oneBad.stderr);
   });
 
   it("check reruns saved design checks (PASS exits 0, FAIL exits 1) with the verdict the source gives", async () => {

@@ -70,6 +70,35 @@ describe("an element table read in two parts", () => {
     }
   });
 
+  it("many pieces, as `brittle part` cuts a large file (some starting on a blank or comment line), join to the one-reader result", () => {
+    const options: PartStreamOptions = { shape: 12, top: 5 };
+    const whole = readWhole(text, options);
+    const data = bytes(text);
+    // Line starts after every cut: the first piece whole (past the 200-line read-ahead that settles the
+    // dialect, as the command line reads it), every later one continuing.
+    const cutAt = (from: number) => data.indexOf(0x0a, from) + 1;
+    const blank = text.indexOf("\n\n# a comment") + 1; // the blank line's start: a piece may begin there
+    const bounds = [0, ...[0.1, 0.2, 0.21, 0.5, 0.69].map((f) => cutAt(Math.floor(f * data.length))), blank, cutAt(blank + 1), data.length];
+    bounds.sort((a, b) => a - b);
+    const first = new PartTableReader(options);
+    first.push(data.subarray(0, bounds[1]));
+    const settled = first.settled();
+    expect(settled).not.toBeNull();
+    const pieces = [first.finishPiece()];
+    for (let k = 1; k + 1 < bounds.length; k++) {
+      const reader = new PartTableReader({ ...options, continueFrom: settled! });
+      reader.push(data.subarray(bounds[k], bounds[k + 1]));
+      pieces.push(reader.finishPiece());
+    }
+    expect(pieces.length).toBe(8);
+    const joined = joinPieces(pieces, options.shape, options.top!, undefined);
+    expect(joined.rows).toBe(whole.rows);
+    expect(joined.skipped).toEqual(whole.skipped); // header and comment lines keep their file line numbers
+    expect([joined.peak, joined.peakLine, joined.peakId]).toEqual([whole.peak, whole.peakLine, whole.peakId]);
+    expect(relativeError(joined.effectiveSize, whole.effectiveSize)).toBeLessThan(1e-14);
+    expect(joined.hotSpots.map((h) => [h.id, h.line])).toEqual(whole.hotSpots.map((h) => [h.id, h.line]));
+  });
+
   it("a beginning that leaves the decimal mark open is not settled (the file is then read in one pass)", () => {
     const reader = new PartTableReader({ shape: 10 });
     reader.push(bytes("s;vol\n100;1\n200;2\n"));

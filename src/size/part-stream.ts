@@ -177,6 +177,8 @@ export class PartTableReader {
   private readonly statedMark: DecimalMark | null;
   private readonly top: number;
   private readonly batchRows: number;
+  /** A later piece of a table (options.continueFrom). */
+  private readonly continuing: boolean;
 
   private columns: ResolvedColumns | null = null;
   /** Field position -> slot: 0..k-1 stresses, k size, k+1 id, -1 ignored. */
@@ -241,6 +243,7 @@ export class PartTableReader {
     this.batchRows = Math.max(1, Math.floor(options.batchRows ?? 16384));
     this.nsa = this.criterion === "NSA" ? new NsaEvaluator(this.shape) : null;
     const from = options.continueFrom;
+    this.continuing = from !== undefined;
     if (from) {
       this.sniffed = true;
       this.delimiter = from.delimiter;
@@ -769,16 +772,17 @@ export class PartTableReader {
 
   /** Ends the stream as finish() does, with what joining it to other parts needs (src/size/part-split.ts). */
   finishPiece(): TablePiece {
-    const result = this.finish();
+    // A later piece may hold no element (a long run of comment lines); the first one may not.
+    const result = this.finish(this.continuing);
     return { result, lines: this.lineNumber, terms: this.heldTerms };
   }
 
   /** Ends the stream (a last line without LF counts) and returns the result. */
-  finish(): PartStreamResult {
+  finish(allowNoElement = false): PartStreamResult {
     if (!this.sniffed) this.sniff();
     if (this.carryLength > 0) this.feed(new Uint8Array([LF]));
     if (this.columns === null) throw new InputError("input", "the table is empty: no line holds an element");
-    if (this.rowsRead === 0) {
+    if (this.rowsRead === 0 && !allowNoElement) {
       throw new InputError("input", `the table is empty: ${this.lineNumber} line${this.lineNumber === 1 ? "" : "s"} read (header, blank or comment), no element`);
     }
     this.flush();
