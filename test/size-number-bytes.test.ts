@@ -4,7 +4,7 @@
 // for up to 19 digits the reader must give exactly Number()'s double, near midpoints included.
 // Seeded (Park-Miller), so every run checks the same cases; exact midpoints are built with BigInt.
 import { describe, expect, it } from "vitest";
-import { fastNumber, parseNumber } from "../src/size/csv-bytes";
+import { fastNumber, fastWholeNumber, parseNumber } from "../src/size/csv-bytes";
 import { decimalInto } from "../src/size/decimal-to-double";
 
 const bytes = (s: string) => new TextEncoder().encode(s);
@@ -206,5 +206,26 @@ describe("the two byte readers, against Number()", () => {
       expect(general, text).toBeNaN();
       expect(fast, text).toBeNull();
     }
+  });
+
+  it("element ids of 1 to 15 digits: the whole-number reader gives Number()'s value, and leaves anything else to fastNumber", () => {
+    const rnd = lcg(7);
+    const read = (text: string, end = ",") => {
+      const b = bytes(text + end);
+      const out = new Float64Array(1);
+      const stop = fastWholeNumber(b, 0, b.length, 0x2c, out, 0);
+      return stop === text.length ? out[0] : null;
+    };
+    const found = disagreements();
+    for (let k = 0; k < 20000; k++) {
+      const digits = 1 + Math.floor(rnd() * 15);
+      let text = "";
+      for (let d = 0; d < digits; d++) text += String(Math.floor(rnd() * 10));
+      found.same(read(text), Number(text), text); // leading zeros included ("007" is 7, as Number() reads it)
+    }
+    expect(found.report).toEqual([]);
+    for (const end of ["\n", "\r\n", ""]) expect(read("42", end)).toBe(42);
+    // Not whole numbers of at most 15 digits, or not followed by the delimiter: left to fastNumber.
+    for (const text of ["", "-1", "+1", "1.0", "1e3", "12a", "1 ", " 1", "1234567890123456"]) expect(read(text), text).toBeNull();
   });
 });

@@ -315,3 +315,26 @@ export function fastNumber(
   if (negative && out[at] !== 0) out[at] = -out[at];
   return i;
 }
+
+/**
+ * An element id of 1 to 15 digits and nothing else, followed by the delimiter, CR, LF or the end:
+ * its value (exact: below 2^53) to out[at] and the index after it, or -1 (then fastNumber decides).
+ */
+export function fastWholeNumber(buf: Uint8Array, start: number, end: number, delimiter: number, out: Float64Array, at: number): number {
+  let i = start;
+  let value = 0;
+  while (i < end) {
+    const d = buf[i] - 0x30;
+    if (d < 0 || d > 9) break;
+    value = value * 10 + d;
+    i++;
+  }
+  const digits = i - start;
+  if (digits === 0 || digits > 15) return -1;
+  if (i < end) {
+    const b = buf[i];
+    if (b !== delimiter && b !== CR && b !== LF) return -1;
+  }
+  out[at] = value;
+  return i;
+}

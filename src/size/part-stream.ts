@@ -38,6 +38,7 @@ import {
   QUOTE,
   decodeAscii,
   fastNumber,
+  fastWholeNumber,
   fieldEnd,
   nextFieldStart,
   parseNumber,
@@ -473,7 +474,8 @@ export class PartTableReader {
           i = fastNumber(buf, i, end, delimiter, decimal, this.sizes, row);
           if (i < 0 || !(this.sizes[row] >= 0)) return -1;
         } else {
-          i = fastNumber(buf, i, end, delimiter, decimal, this.idNumbers, row);
+          const next = fastWholeNumber(buf, i, end, delimiter, this.idNumbers, row);
+          i = next >= 0 ? next : fastNumber(buf, i, end, delimiter, decimal, this.idNumbers, row);
           if (i < 0 || !Number.isSafeInteger(this.idNumbers[row])) return -1;
           if (this.idTexts) this.idTexts[row] = null;
         }
