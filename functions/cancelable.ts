@@ -5,9 +5,11 @@
  * custom-functions runtime has no Worker). Either way the invocation returns
  * a promise, and the host's cancel (it recalculates or the user edits an
  * input before the value arrives) stops the work: the thread is terminated, or
- * no further slice runs.
+ * no further slice runs. The task pane's simulations (pane-tasks.ts) run the
+ * same way.
  */
 import type { CellResult } from "./cells";
+import { paneTasks } from "./pane-tasks";
 import { adapters } from "./registry";
 import { SimulationThreads, UNAVAILABLE, type ThreadLike } from "./simulation-threads";
 import { CANCELED, runInSlices, type Canceled } from "./sliced-run";
@@ -66,5 +68,5 @@ export async function runCancelable(
     if (result !== UNAVAILABLE) return result;
   }
   if (canceled) return CANCELED;
-  return runInSlices(adapters[name], args, { pause: environment.pause, canceled: () => canceled });
+  return runInSlices(adapters[name] ?? paneTasks[name], args, { pause: environment.pause, canceled: () => canceled });
 }
