@@ -24,6 +24,7 @@ import { tmpdir } from "node:os";
 import { extname, join, normalize, resolve } from "node:path";
 import type { AddressInfo } from "node:net";
 import { build } from "vite";
+import { build as esbuild } from "esbuild";
 import { chromium, type BrowserContext, type Page } from "playwright-core";
 import { designStress, failureProbability, strengthAtFailureProbability, meanStrength } from "../src/weibull/distribution";
 import { estimateWeibull } from "../src/weibull/estimate";
@@ -73,6 +74,8 @@ beforeAll(async () => {
   await build({ configFile: join(ROOT, "vite.config.ts"), logLevel: "silent", build: { outDir, emptyOutDir: true } });
   // The build writes functions.json next to the pane (scripts/build.mjs); the explanation reads it.
   await writeFile(join(outDir, "functions.json"), (await generateMetadata()).json);
+  // And the simulation worker beside it, as scripts/build.mjs bundles it (the material fit panel runs on it).
+  await esbuild({ absWorkingDir: ROOT, entryPoints: ["functions/simulation-worker.ts"], bundle: true, format: "iife", target: "es2020", outfile: join(outDir, "simulation-worker.js"), logLevel: "warning" });
 
   server = createServer((req, res) => {
     const path = decodeURIComponent(new URL(req.url ?? "/", "http://127.0.0.1").pathname);
@@ -308,10 +311,64 @@ describe.skipIf(chromiumFound.executablePath === null)(`design-check form in hea
       .filter((f) => f[0])
       .map((f) => `${f[0]}\t${f[1]}`);
     await page.fill("#mfit-text", lines.join("\n"));
+    // Every state the headline line and the Run button pass through, recorded as the page shows them.
+    await page.evaluate(() => {
+      const seen: string[] = [];
+      (window as any).mfitSeen = seen;
+      const answer = document.querySelector("#mfit-answer")!;
+      const button = document.querySelector("#mfit-run")!;
+      const record = () => seen.push(`${answer.textContent} | ${button.textContent}`);
+      new MutationObserver(record).observe(answer, { childList: true, characterData: true, subtree: true });
+      new MutationObserver(record).observe(button, { childList: true, characterData: true, subtree: true });
+    });
     await page.click("#mfit-run");
-    await page.waitForFunction(() => (document.querySelector("#mfit-answer")?.textContent ?? "") !== "", undefined, { timeout: 60_000 });
+    await page.waitForFunction(() => /^\d+ specimens/.test(document.querySelector("#mfit-answer")?.textContent ?? ""), undefined, { timeout: 60_000 });
     expect(await page.textContent("#mfit-answer")).toMatch(/^27 specimens in 2 configurations/);
     expect(await page.textContent("#mfit-checks")).toMatch(/size effect/);
+    // While it simulated: the busy line, and the button offered Cancel; after: the answer, and Run again.
+    const seen: string[] = await page.evaluate(() => (window as any).mfitSeen);
+    expect(seen).toContain("Simulating 2,000 data sets ... | Cancel");
+    expect(seen[seen.length - 1]).toMatch(/^27 specimens in 2 configurations.* \| Fit one material$/);
+    expect(await page.getAttribute("#step-material-fit", "aria-busy")).toBe("false");
+    // It ran on the worker the build deploys beside the pane (not on the page's thread).
+    expect(page.workers().map((w) => w.url())).toContain(`${baseUrl}/simulation-worker.js`);
+    expect(problems).toEqual([]);
+    await page.close();
+  });
+
+  it("the material fit's Cancel drops the run, and an edit while it runs drops it too", async () => {
+    const { page, problems } = await open();
+    await page.click("#step-material-fit summary");
+    const lines = (await readFile(join(ROOT, "examples/material-fit-and-planning.csv"), "utf8"))
+      .split("\n")
+      .slice(1)
+      .map((l) => l.split(","))
+      .filter((f) => f[0])
+      .map((f) => `${f[0]}\t${f[1]}`);
+    await page.fill("#mfit-text", lines.join("\n"));
+    // Run and Cancel in one go (the page gets no chance to finish in between, whatever the machine's speed).
+    const canceled = await page.evaluate(() => {
+      const button = document.querySelector<HTMLButtonElement>("#mfit-run")!;
+      button.click();
+      const busy = `${document.querySelector("#mfit-answer")!.textContent} | ${button.textContent}`;
+      button.click();
+      return [busy, `${document.querySelector("#mfit-answer")!.textContent} | ${button.textContent}`];
+    });
+    expect(canceled).toEqual(["Simulating 2,000 data sets ... | Cancel", "Canceled; nothing was fitted. | Fit one material"]);
+    // Run, then edit the strengths while it runs: the run is dropped and the panel asks for a new one.
+    const edited = await page.evaluate(() => {
+      const button = document.querySelector<HTMLButtonElement>("#mfit-run")!;
+      const box = document.querySelector<HTMLTextAreaElement>("#mfit-text")!;
+      button.click();
+      box.value = box.value.replace(/\n[^\n]*$/, ""); // the last specimen removed
+      box.dispatchEvent(new Event("input", { bubbles: true }));
+      return `${document.querySelector("#mfit-answer")!.textContent} | ${button.textContent}`;
+    });
+    expect(edited).toBe("The input changed; run the fit again. | Fit one material");
+    // Neither dropped run writes its answer later: a fresh run is the only one that does.
+    await page.click("#mfit-run");
+    await page.waitForFunction(() => /^\d+ specimens/.test(document.querySelector("#mfit-answer")?.textContent ?? ""), undefined, { timeout: 60_000 });
+    expect(await page.textContent("#mfit-answer")).toMatch(/^26 specimens in 2 configurations/);
     expect(problems).toEqual([]);
     await page.close();
   });

@@ -104,6 +104,23 @@ describe("the pane's material fit on a worker thread", () => {
     expect(answer).not.toEqual({ answer: reference });
   });
 
+  it("a run whose answer arrives after it was canceled still gives no answer (a thread that cannot be stopped in time)", async () => {
+    // A pool that ignores cancel and answers later, as a reply already posted would: only the run's own check stands.
+    let answer: (result: unknown) => void = () => {};
+    const stubborn = {
+      available: true,
+      run: (_request: unknown, onCancel: (cancel: () => void) => void) => {
+        onCancel(() => {});
+        return new Promise((settle) => (answer = settle));
+      },
+    } as unknown as SimulationThreads;
+    const runs = new MaterialFitRuns(() => ({ threads: stubborn, pause: async () => {} }));
+    const pending = runs.run(REQUEST);
+    runs.cancel();
+    answer(guardedPaneTasks[MATERIAL_FIT_TASK](REQUEST));
+    expect(await pending).toBe(CANCELED);
+  });
+
   it("cancel stops the run under way and leaves nothing running", async () => {
     const { started, environment } = withStandIns();
     const runs = new MaterialFitRuns(environment);
