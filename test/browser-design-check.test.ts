@@ -147,6 +147,20 @@ async function open(officeJs: "blocked" | "npm-copy" = "blocked"): Promise<Opene
   return { page, requests, problems, cdn };
 }
 
+/** Opens the pane with the material fit panel open and the invented bars and disks pasted into it (not run). */
+async function openWithMaterialExample(): Promise<Opened> {
+  const opened = await open();
+  await opened.page.click("#step-material-fit summary");
+  const lines = (await readFile(join(ROOT, "examples/material-fit-and-planning.csv"), "utf8"))
+    .split("\n")
+    .slice(1)
+    .map((l) => l.split(","))
+    .filter((f) => f[0])
+    .map((f) => `${f[0]}\t${f[1]}`);
+  await opened.page.fill("#mfit-text", lines.join("\n"));
+  return opened;
+}
+
 /** The full-precision number the page keeps next to a result row. */
 async function rowValue(page: Page, id: string): Promise<number> {
   const text = await page.getAttribute(`dd[data-row="${id}"]`, "data-value");
@@ -302,15 +316,7 @@ describe.skipIf(chromiumFound.executablePath === null)(`design-check form in hea
   });
 
   it("fits one material to pasted bars and disks and shows the size-effect checks", async () => {
-    const { page, problems } = await open();
-    await page.click("#step-material-fit summary");
-    const lines = (await readFile(join(ROOT, "examples/material-fit-and-planning.csv"), "utf8"))
-      .split("\n")
-      .slice(1)
-      .map((l) => l.split(","))
-      .filter((f) => f[0])
-      .map((f) => `${f[0]}\t${f[1]}`);
-    await page.fill("#mfit-text", lines.join("\n"));
+    const { page, problems } = await openWithMaterialExample();
     // Every state the headline line and the Run button pass through, recorded as the page shows them.
     await page.evaluate(() => {
       const seen: string[] = [];
@@ -337,15 +343,7 @@ describe.skipIf(chromiumFound.executablePath === null)(`design-check form in hea
   });
 
   it("the material fit's Cancel drops the run, and an edit while it runs drops it too", async () => {
-    const { page, problems } = await open();
-    await page.click("#step-material-fit summary");
-    const lines = (await readFile(join(ROOT, "examples/material-fit-and-planning.csv"), "utf8"))
-      .split("\n")
-      .slice(1)
-      .map((l) => l.split(","))
-      .filter((f) => f[0])
-      .map((f) => `${f[0]}\t${f[1]}`);
-    await page.fill("#mfit-text", lines.join("\n"));
+    const { page, problems } = await openWithMaterialExample();
     // Run and Cancel in one go (the page gets no chance to finish in between, whatever the machine's speed).
     const canceled = await page.evaluate(() => {
       const button = document.querySelector<HTMLButtonElement>("#mfit-run")!;
