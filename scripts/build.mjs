@@ -142,7 +142,8 @@ async function buildAddIn(options, functionsJson, functions) {
     outfile: "dist/functions.js",
     logLevel: "warning",
   });
-  // The worker thread that runs the simulating functions in the shared runtime (functions/cancelable.ts).
+  // The worker thread that runs the simulating functions in the shared runtime (functions/cancelable.ts), and the
+  // task pane's material fit (functions/material-fit-run.ts).
   await esbuild({
     absWorkingDir: ROOT,
     entryPoints: ["functions/simulation-worker.ts"],
