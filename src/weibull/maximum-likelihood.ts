@@ -16,7 +16,9 @@
  *
  * The solve is Halley's method (third order) inside a bracket, from a moment
  * estimate: one pass over the data per iterate gives g and its first two
- * derivatives, and typically three or four passes reach the root to rounding.
+ * derivatives, and typically two or three passes reach the root to rounding
+ * (the solve ends on a step so small that the error left after it, of the
+ * order of the step's cube, is below rounding).
  *
  * @example
  * fitMaximumLikelihood({ strengths: [300, 350] }).scale // about 336.6
@@ -37,6 +39,7 @@ export interface MaximumLikelihoodFit extends WeibullParameters {
   /**
    * |g| times m at the last modulus where g was evaluated, in units of 1/m. After
    * convergence the returned modulus is one more step from there, smaller than
+   * 1e-6 m (a Halley step, whose error after it is of the order of its cube) or
    * 1e-11 m, so its own residual is smaller still.
    */
   residual: number;
@@ -57,6 +60,12 @@ const SMALLEST_NORMAL = 2.2250738585072014e-308;
 
 /** A step below this fraction of m ends the solve: Halley's error after it is of order its cube. */
 const STEP_TOLERANCE = 1e-11;
+/**
+ * A Halley step below this fraction of m ends it too: the error left after the step is of order the
+ * cube of its relative size (1e-18), below the rounding of the result, so one more pass would only
+ * confirm it.
+ */
+const LAST_HALLEY_STEP = 1e-6;
 
 export function fitMaximumLikelihood(sample: StrengthSample): MaximumLikelihoodFit {
   const { failures, largest: max } = summarizeSample(sample);
@@ -95,11 +104,13 @@ export function fitMaximumLikelihood(sample: StrengthSample): MaximumLikelihoodF
     // correction would more than halve or double the Newton step, the Newton step is taken as it is.
     const third = sums[3] / sums[0] - mean * (3 * second - 2 * mean * mean);
     const ratio = (value * (third - 2 / (m * m * m))) / (2 * slope * slope);
-    const step = Math.abs(ratio) <= 0.5 ? newtonStep / (1 - ratio) : newtonStep;
-    if (Math.abs(step) <= STEP_TOLERANCE * m) {
-      // Converged. The sum at m + step follows from the moments at m without another pass:
-      // ln S0(m + d) = ln S0(m) + d mean + d^2 variance / 2 + O(d^3), and d <= 1e-11 m.
-      logSum = Math.log(sums[0]) + step * (mean + 0.5 * step * variance);
+    const halley = Math.abs(ratio) <= 0.5;
+    const step = halley ? newtonStep / (1 - ratio) : newtonStep;
+    if (Math.abs(step) <= STEP_TOLERANCE * m || (halley && Math.abs(step) <= LAST_HALLEY_STEP * m)) {
+      // Converged: a step this small lands within rounding of the root (Halley's error after a step d
+      // is of order (d/m)^3, below 1e-18 here). The sum at m + step follows from the cumulants of
+      // ln x at m without another pass: ln S0(m + d) = ln S0(m) + d k1 + d^2 k2 / 2 + d^3 k3 / 6 + O(d^4).
+      logSum = Math.log(sums[0]) + step * (mean + step * (0.5 * variance + (step / 6) * third));
       m += step;
       converged = true;
       break;
