@@ -6,110 +6,22 @@
  * the core reads the units from the header and computes every strength
  * (src/design/test-record.ts); the fracture origins choose the flaw
  * population to fit (the others are censored) and the lots are compared with
- * the rest of the record. This file only gathers, asks the core and presents.
+ * the rest of the record. This file only gathers, asks the core and presents:
+ * everything but the lot verdicts comes at once (recordSummary); the lot
+ * lines say "comparing ..." until the simulated verdicts arrive from a run off
+ * the page thread (functions/record-lots-run.ts). A newer update drops the
+ * run under way, and its answer is never shown.
  */
-import {
-  guessColumns,
-  type Label,
-  QUANTITIES,
-  type Quantity,
-  type RecordSpecimen,
-  recordLots,
-  recordOrigins,
-  recordSample,
-  strengthsFromRecord,
-  type TestConfiguration,
-} from "../../src/design/test-record";
+import { guessColumns, type Label, QUANTITIES, type Quantity, type TestConfiguration } from "../../src/design/test-record";
+import { type ImportAnswer, type LotLine, pendingLotLines, type RecordLot, type RecordTable, readRecordTable, recordSummary } from "../../src/design/record-import-answer";
 import { InputError } from "../../src/errors";
-import { delimiterName } from "../../src/input/delimited-text";
 import { decodeText } from "../../src/input/encoding";
-import { fieldNumber, readDelimited } from "../../src/input/read-table";
-import { compareLots } from "../../src/weibull/lot-comparison";
+import { RecordLotRuns } from "../../functions/record-lots-run";
+import { CANCELED } from "../../functions/sliced-run";
 import { byId, el } from "../app/dom";
 
-export interface RecordTable {
-  headers: string[];
-  rows: (string | number | null)[][];
-  /** How the text was read, in words ("semicolon-delimited, decimal comma"). */
-  dialect: string;
-}
-
-/** Reads the record's text through the shared reader (encoding, delimiter and decimal mark as for every other input). */
-export function readRecordTable(text: string, decimalComma: boolean): RecordTable {
-  const table = readDelimited(text, decimalComma ? { decimalMark: "comma" } : {});
-  const records = table.records.filter((r) => r.fields.length > 0);
-  if (records.length < 2) throw new InputError("input", "the record needs a header line and at least one specimen");
-  const [header, ...data] = records;
-  const mark = table.dialect.decimalMark;
-  const rows = data.map((r) =>
-    r.fields.map((f, k) => {
-      const t = f.text.trim();
-      if (t === "") return null;
-      const n = f.quoted ? null : fieldNumber(t, mark, r.line, k + 1);
-      return n === null ? t : n;
-    }),
-  );
-  const d = table.dialect;
-  const dialect = `${delimiterName(d.delimiter)}-delimited text (${d.basis.delimiter}), decimal ${d.decimalMark ?? "point"} (${d.basis.decimalMark})`;
-  return { headers: header.fields.map((f) => f.text.trim()), rows, dialect };
-}
-
-export interface ImportRequest {
-  table: RecordTable;
-  configuration: TestConfiguration;
-  columns: Partial<Record<Quantity | Label, number>>;
-  fixed: Partial<Record<Quantity, number>>;
-  /** The fracture origin to fit; blank: every specimen is a failure. */
-  population: string;
-}
-
-export interface ImportAnswer {
-  specimens: RecordSpecimen[];
-  /** Lines for the strengths box: strength, and "C" where a specimen is censored. */
-  pasteText: string;
-  origins: string[];
-  /** Each lot against the rest of the record. */
-  lots: { lot: string; specimens: number; text: string }[];
-  notes: string[];
-}
-
-/** Everything the panel shows for one request (pure: tested without a browser). */
-export function importAnswer(request: ImportRequest): ImportAnswer {
-  const { specimens, conversions } = strengthsFromRecord({
-    configuration: request.configuration,
-    headers: request.table.headers,
-    rows: request.table.rows,
-    columns: request.columns,
-    fixed: request.fixed,
-  });
-  const sample = recordSample({ specimens, population: request.population });
-  const pasteText = sample.strengths.map((s, i) => (sample.censored?.[i] ? `${s}\tC` : String(s))).join("\n");
-  const problems = specimens.filter((s) => s.strength === null);
-  const notes = [
-    `Read as ${request.table.dialect}; ${conversions.join("; ")}.`,
-    `${sample.strengths.length} of ${specimens.length} specimens have a strength (MPa).`,
-    ...problems.map((s) => `Row ${s.row} (${s.id}) left out: ${s.problem}.`),
-  ];
-  if (sample.censored) {
-    const failures = sample.censored.filter((c) => !c).length;
-    notes.push(`Fitting origin "${request.population}": ${failures} failures; the other ${sample.censored.length - failures} specimens are censored at their strength.`);
-  }
-  const lots = recordLots(specimens);
-  const lotLines =
-    lots.length < 2
-      ? []
-      : lots.map(({ lot, strengths }) => {
-          const rest = lots.filter((l) => l.lot !== lot).flatMap((l) => l.strengths);
-          try {
-            const c = compareLots({ lot: strengths, baseline: rest });
-            return { lot, specimens: strengths.length, text: c.verdict };
-          } catch (error) {
-            if (!(error instanceof InputError)) throw error;
-            return { lot, specimens: strengths.length, text: `no comparison: ${error.message}` };
-          }
-        });
-  return { specimens, pasteText, origins: recordOrigins(specimens), lots: lotLines, notes };
-}
+// The pure answer lives in the core; re-exported for the panel's tests.
+export { importAnswer, readRecordTable, type ImportAnswer, type ImportRequest, type RecordTable } from "../../src/design/record-import-answer";
 
 const QUANTITY_NAMES: Record<Quantity, string> = {
   load: "Breaking load",
@@ -130,6 +42,7 @@ const STORE = "brittle.record-columns";
 
 let table: RecordTable | null = null;
 let answer: ImportAnswer | null = null;
+const lotRuns = new RecordLotRuns();
 
 function configuration(): TestConfiguration {
   return byId<HTMLSelectElement>("record-config").value as TestConfiguration;
@@ -201,6 +114,10 @@ function show(message: string): void {
   byId("record-error").textContent = message;
 }
 
+function renderLots(lines: readonly LotLine[]): void {
+  byId("record-lots").replaceChildren(...lines.map((l) => el("li", { text: `Lot ${l.lot} (${l.specimens} specimens) against the rest: ${l.text}` })));
+}
+
 function render(a: ImportAnswer | null): void {
   byId("record-notes").replaceChildren(...(a?.notes ?? []).map((n) => el("li", { text: n })));
   byId("record-preview-body").replaceChildren(
@@ -215,7 +132,7 @@ function render(a: ImportAnswer | null): void {
     ),
   );
   byId("record-preview").hidden = !a;
-  byId("record-lots").replaceChildren(...(a?.lots ?? []).map((l) => el("li", { text: `Lot ${l.lot} (${l.specimens} specimens) against the rest: ${l.text}` })));
+  renderLots(a?.lots ?? []);
   const population = byId<HTMLSelectElement>("record-population");
   const current = population.value;
   population.replaceChildren(
@@ -228,11 +145,17 @@ function render(a: ImportAnswer | null): void {
 
 function update(): void {
   answer = null;
-  if (!table) return render(null);
+  if (!table) {
+    lotRuns.cancel();
+    return render(null);
+  }
   const config = configuration();
+  let lots: readonly RecordLot[] = [];
   try {
     const { columns, fixed } = readMapping(config);
-    answer = importAnswer({ table, configuration: config, columns, fixed, population: byId<HTMLSelectElement>("record-population").value });
+    const summary = recordSummary({ table, configuration: config, columns, fixed, population: byId<HTMLSelectElement>("record-population").value });
+    lots = summary.lots;
+    answer = { ...summary, lots: pendingLotLines(lots) };
     remember(table, config, columns);
     show("");
   } catch (error) {
@@ -240,6 +163,21 @@ function update(): void {
     show(error.message.charAt(0).toUpperCase() + error.message.slice(1) + ".");
   }
   render(answer);
+  if (answer && lots.length > 0) void showVerdicts(answer, lots);
+  else lotRuns.cancel(); // nothing to compare now: a run still under way is stale
+}
+
+/** Replaces the pending lot lines of `shown` by the simulated verdicts, unless a newer update came first. */
+async function showVerdicts(shown: ImportAnswer, lots: readonly RecordLot[]): Promise<void> {
+  const outcome = await lotRuns.verdicts(lots);
+  if (outcome === CANCELED || answer !== shown) return; // dropped, or the panel shows a newer request
+  if ("error" in outcome) {
+    renderLots([]);
+    show(outcome.error.charAt(0).toUpperCase() + outcome.error.slice(1) + ".");
+    return;
+  }
+  shown.lots = outcome.lines;
+  renderLots(outcome.lines);
 }
 
 function load(text: string): void {
