@@ -36,6 +36,7 @@ import { relativeError } from "./helpers";
 import { generateMetadata } from "../functions/metadata";
 import { runDesignCheck } from "../src/design/design-check";
 import { parseCheckFile } from "../src/design/check-file";
+import { importAnswer, pendingLotLines, readRecordTable, recordSummary, type ImportRequest } from "../src/design/record-import-answer";
 import { writeFile } from "node:fs/promises";
 import { CHROMIUM_ARGS, findChromium } from "./browser-launch";
 import { OFFICE_JS_CDN } from "../scripts/deploy";
@@ -311,6 +312,66 @@ describe.skipIf(chromiumFound.executablePath === null)(`design-check form in hea
     expect(lines.filter((l) => l.endsWith("\tC"))).toHaveLength(1); // the one pore origin is censored
     expect(await page.textContent("#selection-info")).toMatch(/From a test-machine record: 18 strengths, fitting origin "surface"/);
     await page.screenshot({ path: join(ARTIFACTS, "record-import.png"), fullPage: true });
+    expect(problems).toEqual([]);
+    await page.close();
+  });
+
+  it("the record's lot lines say comparing, then show the lot check's verdicts from the worker; a superseded update never shows", async () => {
+    const { page, problems } = await open();
+    await page.click("#record-import summary");
+    const csv = await readFile(join(ROOT, "examples/machine-export-bars.csv"), "utf8");
+    await page.fill("#record-text", csv);
+    await page.click("#record-read");
+    // Every state of the lot list, recorded as the page shows it.
+    await page.evaluate(() => {
+      const seen: string[] = [];
+      (window as any).lotsSeen = seen;
+      const lots = document.querySelector("#record-lots")!;
+      new MutationObserver(() => seen.push(lots.textContent ?? "")).observe(lots, { childList: true, characterData: true, subtree: true });
+    });
+    await page.fill("#record-val-outerSpan", "40");
+    await page.fill("#record-val-innerSpan", "20");
+    // The synchronous answer for the same request is the reference (test/taskpane-record-lots-run.test.ts checks it
+    // against compareLots); the specimens, the notes and the Use button are there before the verdicts.
+    const request: ImportRequest = {
+      table: readRecordTable(csv, false),
+      configuration: "bar-flexure",
+      columns: { id: 0, width: 1, depth: 2, load: 3, origin: 4, lot: 5 },
+      fixed: { outerSpan: 40, innerSpan: 20 },
+      population: "",
+    };
+    const expected = importAnswer(request).lots.map((l) => `Lot ${l.lot} (${l.specimens} specimens) against the rest: ${l.text}`).join("");
+    const pending = pendingLotLines(recordSummary(request).lots).map((l) => `Lot ${l.lot} (${l.specimens} specimens) against the rest: ${l.text}`).join("");
+    expect(expected).toMatch(/^Lot L1 \(9 specimens\) against the rest: (The lot differs|Consistent)/);
+    await page.waitForFunction((text) => document.querySelector("#record-lots")?.textContent === text, expected, { timeout: 60_000 });
+    const seen: string[] = await page.evaluate(() => (window as any).lotsSeen);
+    expect(seen).toContain(pending);
+    expect(seen.indexOf(pending)).toBeLessThan(seen.lastIndexOf(expected));
+    expect(page.workers().map((w) => w.url())).toContain(`${baseUrl}/simulation-worker.js`);
+    // Two updates in one go: the lots by fracture origin (answered at once: too few specimens to compare), then by lot
+    // again. The first run is dropped before it can answer; only the lines of the second ever show.
+    const shown = await page.evaluate(() => {
+      (window as any).lotsSeen.length = 0;
+      const lot = document.querySelector<HTMLSelectElement>("#record-col-lot")!;
+      const lines = () => document.querySelector("#record-lots")!.textContent;
+      lot.value = "4";
+      lot.dispatchEvent(new Event("change", { bubbles: true }));
+      const first = lines();
+      lot.value = "5";
+      lot.dispatchEvent(new Event("change", { bubbles: true }));
+      return [first, lines()];
+    });
+    expect(shown).toEqual([
+      "Lot surface (17 specimens) against the rest: comparing with the rest of the record ...Lot pore (1 specimens) against the rest: comparing with the rest of the record ...",
+      pending,
+    ]);
+    await page.waitForFunction((text) => document.querySelector("#record-lots")?.textContent === text, expected, { timeout: 60_000 });
+    // Give a dropped run every chance to write: the Use button's click handler runs after any reply already queued.
+    await page.click("#record-use");
+    const later: string[] = await page.evaluate(() => (window as any).lotsSeen);
+    expect(later.filter((t) => /Lot surface|no comparison/.test(t))).toEqual([]);
+    expect(await page.textContent("#record-lots")).toBe(expected);
+    expect(later[later.length - 1]).toBe(expected);
     expect(problems).toEqual([]);
     await page.close();
   });
