@@ -332,7 +332,7 @@ describe.skipIf(chromiumFound.executablePath === null)(`design-check form in hea
     await page.fill("#record-val-outerSpan", "40");
     await page.fill("#record-val-innerSpan", "20");
     // The synchronous answer for the same request is the reference (test/taskpane-record-lots-run.test.ts checks it
-    // against compareLots); the specimens, the notes and the Use button are there before the verdicts.
+    // against compareLots).
     const request: ImportRequest = {
       table: readRecordTable(csv, false),
       configuration: "bar-flexure",
@@ -359,11 +359,16 @@ describe.skipIf(chromiumFound.executablePath === null)(`design-check form in hea
       const first = lines();
       lot.value = "5";
       lot.dispatchEvent(new Event("change", { bubbles: true }));
-      return [first, lines()];
+      // What needs no simulation is shown at once, beside the pending lines.
+      const rows = document.querySelectorAll("#record-preview-body tr").length;
+      const usable = !document.querySelector<HTMLButtonElement>("#record-use")!.disabled;
+      return [first, lines(), rows, usable];
     });
     expect(shown).toEqual([
       "Lot surface (17 specimens) against the rest: comparing with the rest of the record ...Lot pore (1 specimens) against the rest: comparing with the rest of the record ...",
       pending,
+      19,
+      true,
     ]);
     await page.waitForFunction((text) => document.querySelector("#record-lots")?.textContent === text, expected, { timeout: 60_000 });
     // Give a dropped run every chance to write: the Use button's click handler runs after any reply already queued.
