@@ -1,4 +1,4 @@
-// Importing a test-machine record in the task pane (taskpane/steps/record-import.ts, the pure part):
+// Importing a test-machine record in the task pane (src/design/record-import-answer.ts, what the panel shows):
 // the record read through the shared reader, strengths by the core formulas (checked against ASTM
 // C1161 / C1499 in test/load-strength.test.ts), origins to censoring flags as ASTM C1239 sec. 7
 // prescribes for competing flaw populations, and what step 1 receives read back by its own paste
@@ -9,7 +9,7 @@ import { describe, expect, it } from "vitest";
 import { flexureStrength, ringOnRingStrength } from "../src/design/strength-from-load";
 import { decodeText } from "../src/input/encoding";
 import { parsePasted } from "../taskpane/app/parse-pasted";
-import { importAnswer, readRecordTable } from "../taskpane/steps/record-import";
+import { importAnswer, readRecordTable } from "../src/design/record-import-answer";
 import { relativeError } from "./helpers";
 
 const text = (path: string) => decodeText(new Uint8Array(readFileSync(path))).text;

@@ -20,9 +20,6 @@ import { RecordLotRuns } from "../../functions/record-lots-run";
 import { CANCELED } from "../../functions/sliced-run";
 import { byId, el } from "../app/dom";
 
-// The pure answer lives in the core; re-exported for the panel's tests.
-export { importAnswer, readRecordTable, type ImportAnswer, type ImportRequest, type RecordTable } from "../../src/design/record-import-answer";
-
 const QUANTITY_NAMES: Record<Quantity, string> = {
   load: "Breaking load",
   outerSpan: "Outer (support) span",
