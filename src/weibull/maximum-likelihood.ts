@@ -15,10 +15,11 @@
  * whatever the units or the modulus.
  *
  * The solve is Halley's method (third order) inside a bracket, from a moment
- * estimate: one pass over the data per iterate gives g and its first two
- * derivatives, and typically two or three passes reach the root to rounding
- * (the solve ends on a step so small that the error left after it, of the
- * order of the step's cube, is below rounding).
+ * estimate: one pass over the data per iterate gives g and its first three
+ * derivatives (the weighted cumulants of ln x). Near the root Halley's step is
+ * refined by one Newton step on the cubic Taylor model of g, so the error after
+ * a step d is of order (d/m)^4; the solve ends on a step so small that this is
+ * below rounding, typically after two or three passes.
  *
  * @example
  * fitMaximumLikelihood({ strengths: [300, 350] }).scale // about 336.6
@@ -39,8 +40,8 @@ export interface MaximumLikelihoodFit extends WeibullParameters {
   /**
    * |g| times m at the last modulus where g was evaluated, in units of 1/m. After
    * convergence the returned modulus is one more step from there, smaller than
-   * 1e-6 m (a Halley step, whose error after it is of the order of its cube) or
-   * 1e-11 m, so its own residual is smaller still.
+   * 3e-5 m (a refined step, whose error after it is of the order of its fourth
+   * power) or 1e-11 m, so its own residual is smaller still.
    */
   residual: number;
 }
@@ -61,11 +62,11 @@ const SMALLEST_NORMAL = 2.2250738585072014e-308;
 /** A step below this fraction of m ends the solve: Halley's error after it is of order its cube. */
 const STEP_TOLERANCE = 1e-11;
 /**
- * A Halley step below this fraction of m ends it too: the error left after the step is of order the
- * cube of its relative size (1e-18), below the rounding of the result, so one more pass would only
- * confirm it.
+ * A refined step (see above) below this fraction of m ends it too: the error left after the step is
+ * of order the fourth power of its relative size (about 1e-18), below the rounding of the result, so
+ * one more pass would only confirm it.
  */
-const LAST_HALLEY_STEP = 1e-6;
+const LAST_QUARTIC_STEP = 3e-5;
 
 export function fitMaximumLikelihood(sample: StrengthSample): MaximumLikelihoodFit {
   const { failures, largest: max } = summarizeSample(sample);
@@ -79,7 +80,7 @@ export function fitMaximumLikelihood(sample: StrengthSample): MaximumLikelihoodF
     throw new InputError("input", "all failure strengths are equal to the largest strength: the modulus is unbounded");
   }
 
-  const sums = new Float64Array(4);
+  const sums = new Float64Array(5);
   // Safeguarded Halley: keep a bracket [lo, hi] with g(lo) < 0 < g(hi).
   let lo = 0;
   let hi = Infinity;
@@ -103,14 +104,32 @@ export function fitMaximumLikelihood(sample: StrengthSample): MaximumLikelihoodF
     // Halley's correction uses g'' = third central moment - 2/m^3; far from the root, where the
     // correction would more than halve or double the Newton step, the Newton step is taken as it is.
     const third = sums[3] / sums[0] - mean * (3 * second - 2 * mean * mean);
-    const ratio = (value * (third - 2 / (m * m * m))) / (2 * slope * slope);
+    const curvature = third - 2 / (m * m * m);
+    const ratio = (value * curvature) / (2 * slope * slope);
     const halley = Math.abs(ratio) <= 0.5;
-    const step = halley ? newtonStep / (1 - ratio) : newtonStep;
-    if (Math.abs(step) <= STEP_TOLERANCE * m || (halley && Math.abs(step) <= LAST_HALLEY_STEP * m)) {
-      // Converged: a step this small lands within rounding of the root (Halley's error after a step d
-      // is of order (d/m)^3, below 1e-18 here). The sum at m + step follows from the cumulants of
-      // ln x at m without another pass: ln S0(m + d) = ln S0(m) + d k1 + d^2 k2 / 2 + d^3 k3 / 6 + O(d^4).
-      logSum = Math.log(sums[0]) + step * (mean + step * (0.5 * variance + (step / 6) * third));
+    let step = halley ? newtonStep / (1 - ratio) : newtonStep;
+    // Near the root, one Newton step on the cubic Taylor model of g (its third derivative from the
+    // fourth cumulant) from Halley's step: an error of order (d/m)^4 after the step instead of (d/m)^3.
+    const fourthCumulant =
+      sums[4] / sums[0] - 4 * mean * (sums[3] / sums[0]) + 6 * mean * mean * second - 3 * mean * mean * mean * mean - 3 * variance * variance;
+    let refined = false;
+    if (halley) {
+      const g3 = fourthCumulant + 6 / (m * m * m * m);
+      const model = value + step * (slope + step * (0.5 * curvature + (step / 6) * g3));
+      const modelSlope = slope + step * (curvature + 0.5 * step * g3);
+      const correction = model / modelSlope;
+      // Near the root the correction is of order d^4 / m^3, far below d; a larger one means the model
+      // does not hold yet, and Halley's step is taken as it is.
+      if (Math.abs(correction) <= 0.01 * Math.abs(step)) {
+        step -= correction;
+        refined = true;
+      }
+    }
+    if (Math.abs(step) <= STEP_TOLERANCE * m || (refined && Math.abs(step) <= LAST_QUARTIC_STEP * m)) {
+      // Converged: a step this small lands within rounding of the root (the error after it is of
+      // order (d/m)^4, below 1e-18 here). The sum at m + step follows from the cumulants of ln x at m
+      // without another pass: ln S0(m + d) = ln S0(m) + d k1 + d^2 k2 / 2 + d^3 k3 / 6 + d^4 k4 / 24 + O(d^5).
+      logSum = Math.log(sums[0]) + step * (mean + step * (0.5 * variance + step * (third / 6 + (step / 24) * fourthCumulant)));
       m += step;
       converged = true;
       break;
@@ -154,11 +173,11 @@ function logRatios(strengths: readonly number[], censored: readonly boolean[] | 
 }
 
 /**
- * Sums over every specimen of w = x^m times 1, ln x, (ln x)^2 and (ln x)^3, with
- * x = s / s_max, into out[0..3]. The first two decide the root and the
- * characteristic strength, so they carry the exact rounding error of every
- * addition (compensated summation); the other two only shape the step, and
- * plain sums serve.
+ * Sums over every specimen of w = x^m times 1, ln x, (ln x)^2, (ln x)^3 and
+ * (ln x)^4, with x = s / s_max, into out[0..4]. The first two decide the root
+ * and the characteristic strength, so they carry the exact rounding error of
+ * every addition (compensated summation); the others only shape the step (and
+ * the small terms of the sum's expansion), and plain sums serve.
  *
  * Every w lies in (0, 1], so the sum of w starts from 1 and takes 1 off at the
  * end (exact: the total is at least 1): every partial sum is then at least as
@@ -173,6 +192,7 @@ function powerSums(logX: Float64Array, m: number, out: Float64Array): void {
   let c1 = 0;
   let s2 = 0;
   let s3 = 0;
+  let s4 = 0;
   for (let i = 0; i < logX.length; i++) {
     const l = logX[i];
     const w = fastExp(m * l);
@@ -186,12 +206,15 @@ function powerSums(logX: Float64Array, m: number, out: Float64Array): void {
     c1 += s1 - (t - part) + (wl - part);
     s1 = t;
     s2 += wll;
-    s3 += wll * l;
+    const wlll = wll * l;
+    s3 += wlll;
+    s4 += wlll * l;
   }
   out[0] = s0 - 1 + c0;
   out[1] = s1 + c1;
   out[2] = s2;
   out[3] = s3;
+  out[4] = s4;
 }
 
 /**
