@@ -7,13 +7,13 @@
 // never timed. The request is the invented example the pane's help points to (examples/material-fit-and-planning.csv).
 import { readFileSync } from "node:fs";
 import { beforeAll, describe, expect, it, vi } from "vitest";
-import type { CancelableEnvironment } from "../functions/cancelable";
 import { MaterialFitRuns } from "../functions/material-fit-run";
 import { guardedPaneTasks, MATERIAL_FIT_TASK } from "../functions/pane-tasks";
-import { SimulationThreads, type ThreadLike } from "../functions/simulation-threads";
+import { SimulationThreads } from "../functions/simulation-threads";
 import { CANCELED } from "../functions/sliced-run";
 import { materialFitAnswer, type MaterialFitAnswer, type MaterialFitRequest } from "../src/design/material-fit-answer";
 import { SeededRandom } from "../src/numeric/random";
+import { withStandIns } from "./pane-task-stand-ins";
 
 vi.setConfig({ testTimeout: 120_000 }); // generous, never a verdict: a busy machine takes longer, it does not fail
 
@@ -33,34 +33,6 @@ beforeAll(() => {
   reference = materialFitAnswer(REQUEST);
   strongerReference = materialFitAnswer(STRONGER_DISKS);
 });
-
-/** A worker stand-in: runs the worker's task when the test says so (`reply`), on copies as a real worker gets them. */
-class StandInThread implements ThreadLike {
-  onmessage: ((event: { data: any }) => void) | null = null;
-  onerror: ((event: unknown) => void) | null = null;
-  received: { name: string; args: unknown[] }[] = [];
-  terminated = false;
-  postMessage(message: { name: string; args: unknown[] }) {
-    this.received.push(structuredClone(message));
-  }
-  reply() {
-    const { name, args } = this.received[this.received.length - 1];
-    this.onmessage!({ data: structuredClone({ result: guardedPaneTasks[name](...args) }) });
-  }
-  terminate() {
-    this.terminated = true;
-  }
-}
-
-function withStandIns(): { started: StandInThread[]; environment: () => CancelableEnvironment } {
-  const started: StandInThread[] = [];
-  const pool = new SimulationThreads(() => {
-    const thread = new StandInThread();
-    started.push(thread);
-    return thread;
-  }, 1);
-  return { started, environment: () => ({ threads: pool, pause: async () => {} }) };
-}
 
 describe("the pane's material fit on a worker thread", () => {
   it("sends the request to the worker and shows exactly materialFitAnswer's answer", async () => {

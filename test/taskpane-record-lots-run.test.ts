@@ -9,14 +9,13 @@
 // reference value other than what the synchronous functions compute.
 import { readFileSync } from "node:fs";
 import { beforeAll, describe, expect, it, vi } from "vitest";
-import type { CancelableEnvironment } from "../functions/cancelable";
-import { guardedPaneTasks, RECORD_LOTS_TASK } from "../functions/pane-tasks";
+import { RECORD_LOTS_TASK } from "../functions/pane-tasks";
 import { RecordLotRuns } from "../functions/record-lots-run";
-import { SimulationThreads, type ThreadLike } from "../functions/simulation-threads";
 import { CANCELED } from "../functions/sliced-run";
 import { importAnswer, LOT_PENDING, lotVerdicts, pendingLotLines, readRecordTable, recordSummary, type ImportAnswer, type ImportRequest } from "../src/design/record-import-answer";
 import { decodeText } from "../src/input/encoding";
 import { compareLots } from "../src/weibull/lot-comparison";
+import { countDraws, withStandIns } from "./pane-task-stand-ins";
 
 vi.setConfig({ testTimeout: 120_000 }); // generous, never a verdict: a busy machine takes longer, it does not fail
 
@@ -73,34 +72,6 @@ describe("the record's answer in two parts", () => {
     expect(importAnswer(oneLot).lots).toEqual([]);
   });
 });
-
-/** A worker stand-in: runs the worker's task when the test says so (`reply`), on copies as a real worker gets them. */
-class StandInThread implements ThreadLike {
-  onmessage: ((event: { data: any }) => void) | null = null;
-  onerror: ((event: unknown) => void) | null = null;
-  received: { name: string; args: unknown[] }[] = [];
-  terminated = false;
-  postMessage(message: { name: string; args: unknown[] }) {
-    this.received.push(structuredClone(message));
-  }
-  reply() {
-    const { name, args } = this.received[this.received.length - 1];
-    this.onmessage!({ data: structuredClone({ result: guardedPaneTasks[name](...args) }) });
-  }
-  terminate() {
-    this.terminated = true;
-  }
-}
-
-function withStandIns(): { started: StandInThread[]; environment: () => CancelableEnvironment } {
-  const started: StandInThread[] = [];
-  const pool = new SimulationThreads(() => {
-    const thread = new StandInThread();
-    started.push(thread);
-    return thread;
-  }, 1);
-  return { started, environment: () => ({ threads: pool, pause: async () => {} }) };
-}
 
 describe("the lot verdicts on a worker thread", () => {
   it("sends the lots to the worker and shows exactly importAnswer's lines", async () => {
@@ -191,13 +162,7 @@ describe("the lot verdicts where no worker can run", () => {
 
   it("other lots while the first wait between slices: the first gives no answer, the second its own lines", async () => {
     const { runs: r, sliced, random } = await freshModules();
-    const { SeededRandom } = random;
-    const original = SeededRandom.prototype.uniform;
-    let draws = 0;
-    SeededRandom.prototype.uniform = function (this: InstanceType<typeof SeededRandom>) {
-      draws++;
-      return original.call(this);
-    };
+    const draws = countDraws(random.SeededRandom);
     try {
       let pauses = 0;
       let second: Promise<unknown> | null = null;
@@ -207,7 +172,7 @@ describe("the lot verdicts where no worker can run", () => {
         pause: async () => {
           pauses++;
           if (pauses === 3 && second === null) {
-            drawsWhenSuperseded = draws;
+            drawsWhenSuperseded = draws.count();
             second = runs.verdicts(lotsOf(THREE_LOTS)); // the user maps another lot column while the page runs its events
           }
         },
@@ -216,19 +181,13 @@ describe("the lot verdicts where no worker can run", () => {
       expect(drawsWhenSuperseded).toBeGreaterThan(0); // two slices of the first run had drawn
       expect(await second).toEqual({ lines: three.lots });
     } finally {
-      SeededRandom.prototype.uniform = original;
+      draws.restore();
     }
   });
 
   it("canceled between slices: no further slice runs (no more random draws), and no answer", async () => {
     const { runs: r, sliced, random } = await freshModules();
-    const { SeededRandom } = random;
-    const original = SeededRandom.prototype.uniform;
-    let draws = 0;
-    SeededRandom.prototype.uniform = function (this: InstanceType<typeof SeededRandom>) {
-      draws++;
-      return original.call(this);
-    };
+    const draws = countDraws(random.SeededRandom);
     try {
       let pauses = 0;
       let drawsWhenCanceled = -1;
@@ -238,16 +197,16 @@ describe("the lot verdicts where no worker can run", () => {
           pauses++;
           if (pauses === 3) {
             runs.cancel(); // the record is cleared while the page runs its events
-            drawsWhenCanceled = draws;
+            drawsWhenCanceled = draws.count();
           }
         },
       }));
       expect(await runs.verdicts(lotsOf(THREE_LOTS))).toBe(sliced.CANCELED);
       expect(drawsWhenCanceled).toBeGreaterThan(0);
-      expect(draws).toBe(drawsWhenCanceled);
+      expect(draws.count()).toBe(drawsWhenCanceled);
       expect(pauses).toBe(3);
     } finally {
-      SeededRandom.prototype.uniform = original;
+      draws.restore();
     }
   });
 });
