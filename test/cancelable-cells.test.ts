@@ -13,7 +13,7 @@ import { adapters, guarded } from "../functions/registry";
 import { IN_THE_BACKGROUND, SIMULATING } from "../functions/simulating";
 import { spillShapes } from "../functions/spill-shapes";
 import { withSliceHost } from "../src/numeric/replication-slices";
-import { fixture } from "./helpers";
+import { countDraws, fixture } from "./helpers";
 import { baselineCall, chaosCall } from "./properties-arbitraries";
 import { hostValue } from "./properties-policy";
 
@@ -57,16 +57,9 @@ beforeAll(async () => {
   metadata = (await generateMetadata()).functions;
 });
 
-/** Counts the random draws of one module graph's generator (a plain wrapper: a spy records every call and is slow). */
-async function countDraws(): Promise<{ count: () => number; restore: () => void }> {
-  const { SeededRandom } = await import("../src/numeric/random");
-  const original = SeededRandom.prototype.uniform;
-  let count = 0;
-  SeededRandom.prototype.uniform = function (this: InstanceType<typeof SeededRandom>) {
-    count++;
-    return original.call(this);
-  };
-  return { count: () => count, restore: () => void (SeededRandom.prototype.uniform = original) };
+/** Counts the random draws of the current module graph's generator (after freshModules: the graph under test). */
+async function drawsOfCurrentGraph(): Promise<{ count: () => number; restore: () => void }> {
+  return countDraws((await import("../src/numeric/random")).SeededRandom);
 }
 
 /** A module graph of its own (vi.resetModules): its simulations share no cache with the one under test. */
@@ -142,7 +135,7 @@ describe("in slices (the runtime without worker threads)", () => {
     const reference = (await freshModules()).registry.guarded;
     const expected = Object.fromEntries(SIMULATING.map((id) => [id, reference[id](...CASES[id]())]));
     const { cancelable } = await freshModules();
-    const draws = await countDraws(); // the same module graph as the run: every random draw passes here
+    const draws = await drawsOfCurrentGraph(); // the same module graph as the run: every random draw passes here
     for (const id of SIMULATING) {
       const atPause: number[] = [];
       const environment = { threads: null, pause: async () => void atPause.push(draws.count()) };
@@ -168,7 +161,7 @@ describe("in slices (the runtime without worker threads)", () => {
 
   it("a canceled invocation draws no further random number and gives no value", async () => {
     const { cancelable, sliced } = await freshModules();
-    const draws = await countDraws(); // the same module graph as the run
+    const draws = await drawsOfCurrentGraph(); // the same module graph as the run
     const invocation: { onCanceled?: () => void } = {};
     let pauses = 0;
     let drawsWhenCanceled = -1;
@@ -219,16 +212,23 @@ class FakeThread {
   }
 }
 
+/** A pool of one stand-in thread at a time, in a fresh module graph; `started` lists the threads it started. */
+function poolOfOne(registry: Modules["registry"], t: Modules["threads"]) {
+  const started: FakeThread[] = [];
+  const pool = new t.SimulationThreads(() => {
+    const thread = new FakeThread(registry.guarded);
+    started.push(thread);
+    return thread;
+  }, 1);
+  return { started, environment: { threads: pool, pause: async () => {} } };
+}
+
+type Modules = Awaited<ReturnType<typeof freshModules>>;
+
 describe("on worker threads (the shared runtime)", () => {
   it("resolves to the synchronous adapter's value; a queued invocation waits for a free thread", async () => {
     const { registry, cancelable, threads: t } = await freshModules();
-    const started: FakeThread[] = [];
-    const pool = new t.SimulationThreads(() => {
-      const thread = new FakeThread(registry.guarded);
-      started.push(thread);
-      return thread;
-    }, 1);
-    const environment = { threads: pool, pause: async () => {} };
+    const { started, environment } = poolOfOne(registry, t);
     const first = cancelable.runCancelable("FIT", CASES.FIT(), {}, environment);
     const second = cancelable.runCancelable("LOTCHECK", CASES.LOTCHECK(), {}, environment);
     await Promise.resolve();
@@ -243,13 +243,7 @@ describe("on worker threads (the shared runtime)", () => {
 
   it("canceling terminates the running thread and drops a queued invocation unsent", async () => {
     const { registry, cancelable, sliced, threads: t } = await freshModules();
-    const started: FakeThread[] = [];
-    const pool = new t.SimulationThreads(() => {
-      const thread = new FakeThread(registry.guarded);
-      started.push(thread);
-      return thread;
-    }, 1);
-    const environment = { threads: pool, pause: async () => {} };
+    const { started, environment } = poolOfOne(registry, t);
     const running: { onCanceled?: () => void } = {};
     const queued: { onCanceled?: () => void } = {};
     const a = cancelable.runCancelable("MODULUS", CASES.MODULUS(), running, environment);

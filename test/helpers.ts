@@ -23,3 +23,14 @@ export function expectInputError(fn: () => unknown, kind: FailureKind = "input")
   }
   throw new Error(`expected an InputError of kind "${kind}"`);
 }
+
+/** Counts the draws of a SeededRandom class (the one of the module graph under test) until `restore()`. */
+export function countDraws(SeededRandom: { prototype: { uniform(): number } }): { count: () => number; restore: () => void } {
+  const original = SeededRandom.prototype.uniform;
+  let draws = 0;
+  SeededRandom.prototype.uniform = function (this: unknown) {
+    draws++;
+    return original.call(this);
+  };
+  return { count: () => draws, restore: () => void (SeededRandom.prototype.uniform = original) };
+}

@@ -32,13 +32,3 @@ export function withStandIns(): { started: StandInThread[]; environment: () => C
   return { started, environment: () => ({ threads: pool, pause: async () => {} }) };
 }
 
-/** Counts the draws of a SeededRandom class (the one of the module graph under test) until `restore()`. */
-export function countDraws(SeededRandom: { prototype: { uniform(): number } }): { count: () => number; restore: () => void } {
-  const original = SeededRandom.prototype.uniform;
-  let draws = 0;
-  SeededRandom.prototype.uniform = function (this: unknown) {
-    draws++;
-    return original.call(this);
-  };
-  return { count: () => draws, restore: () => void (SeededRandom.prototype.uniform = original) };
-}

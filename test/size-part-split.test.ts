@@ -2,6 +2,7 @@
 // cli/part-parallel.ts) against the same table read by one reader: the same result, to rounding
 // in the effective size and shares (the parts sum in another order). The one-reader result is
 // itself checked against numpy in test/size-part.test.ts; here it is the reference.
+import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { joinPieces } from "../src/size/part-split";
 import { PartTableReader, type PartStreamOptions, type PartStreamResult } from "../src/size/part-stream";
@@ -27,6 +28,34 @@ function readInTwo(text: string, at: number, options: PartStreamOptions): PartSt
   const second = new PartTableReader({ ...options, continueFrom: settled! });
   for (let i = middle; i < data.length; i += 1000) second.push(data.subarray(i, Math.min(data.length, i + 1000)));
   return joinPieces([first.finishPiece(), second.finishPiece()], options.shape, options.top ?? 10, options.materialScale);
+}
+
+/**
+ * Reads `data` cut at the line starts `cuts`, as the command line's pieces: the first whole (past the 200-line
+ * read-ahead that settles the dialect), every later one continuing from what the first settled.
+ */
+function readInPieces(data: Uint8Array, cuts: number[], options: PartStreamOptions): { joined: PartStreamResult; pieces: number } {
+  const bounds = [0, ...cuts, data.length].sort((a, b) => a - b);
+  const first = new PartTableReader(options);
+  first.push(data.subarray(0, bounds[1]));
+  const settled = first.settled();
+  expect(settled).not.toBeNull();
+  const pieces = [first.finishPiece()];
+  for (let k = 1; k + 1 < bounds.length; k++) {
+    const reader = new PartTableReader({ ...options, continueFrom: settled! });
+    reader.push(data.subarray(bounds[k], bounds[k + 1]));
+    pieces.push(reader.finishPiece());
+  }
+  return { joined: joinPieces(pieces, options.shape, options.top ?? 10, options.materialScale), pieces: pieces.length };
+}
+
+/** What a one-reader read and a read in pieces must share: the same elements and lines, the sum to rounding. */
+function expectSameTable(joined: PartStreamResult, whole: PartStreamResult): void {
+  expect(joined.rows).toBe(whole.rows);
+  expect(joined.skipped).toEqual(whole.skipped); // header, comment and blank lines keep their file line numbers
+  expect([joined.peak, joined.peakLine, joined.peakId, joined.decimalMark]).toEqual([whole.peak, whole.peakLine, whole.peakId, whole.decimalMark]);
+  expect(relativeError(joined.effectiveSize, whole.effectiveSize)).toBeLessThan(1e-14);
+  expect(joined.hotSpots.map((h) => [h.id, h.line])).toEqual(whole.hotSpots.map((h) => [h.id, h.line]));
 }
 
 function readWhole(text: string, options: PartStreamOptions): PartStreamResult {
@@ -72,31 +101,30 @@ describe("an element table read in two parts", () => {
 
   it("many pieces, as `brittle part` cuts a large file (some starting on a blank or comment line), join to the one-reader result", () => {
     const options: PartStreamOptions = { shape: 12, top: 5 };
-    const whole = readWhole(text, options);
     const data = bytes(text);
-    // Line starts after every cut: the first piece whole (past the 200-line read-ahead that settles the
-    // dialect, as the command line reads it), every later one continuing.
     const cutAt = (from: number) => data.indexOf(0x0a, from) + 1;
     const blank = text.indexOf("\n\n# a comment") + 1; // the blank line's start: a piece may begin there
-    const bounds = [0, ...[0.1, 0.2, 0.21, 0.5, 0.69].map((f) => cutAt(Math.floor(f * data.length))), blank, cutAt(blank + 1), data.length];
-    bounds.sort((a, b) => a - b);
-    const first = new PartTableReader(options);
-    first.push(data.subarray(0, bounds[1]));
-    const settled = first.settled();
-    expect(settled).not.toBeNull();
-    const pieces = [first.finishPiece()];
-    for (let k = 1; k + 1 < bounds.length; k++) {
-      const reader = new PartTableReader({ ...options, continueFrom: settled! });
-      reader.push(data.subarray(bounds[k], bounds[k + 1]));
-      pieces.push(reader.finishPiece());
-    }
-    expect(pieces.length).toBe(8);
-    const joined = joinPieces(pieces, options.shape, options.top!, undefined);
-    expect(joined.rows).toBe(whole.rows);
-    expect(joined.skipped).toEqual(whole.skipped); // header and comment lines keep their file line numbers
-    expect([joined.peak, joined.peakLine, joined.peakId]).toEqual([whole.peak, whole.peakLine, whole.peakId]);
-    expect(relativeError(joined.effectiveSize, whole.effectiveSize)).toBeLessThan(1e-14);
-    expect(joined.hotSpots.map((h) => [h.id, h.line])).toEqual(whole.hotSpots.map((h) => [h.id, h.line]));
+    const bounds = [...[0.1, 0.2, 0.21, 0.5, 0.69].map((f) => cutAt(Math.floor(f * data.length))), blank, cutAt(blank + 1)];
+    const { joined, pieces } = readInPieces(data, bounds, options);
+    expect(pieces).toBe(8);
+    expectSameTable(joined, readWhole(text, options));
+  });
+
+  it("a hostile-corpus dialect (semicolons, decimal commas, an exponent, CRLF) is read alike in pieces", () => {
+    // The data lines of test/fixtures/hostile/part-european.csv, renumbered and repeated to 1,500 elements with CRLF
+    // line ends: later pieces must read "1,005E+02" as 100.5 with the mark the beginning settled.
+    const corpus = readFileSync("test/fixtures/hostile/part-european.csv", "utf8").split("\n");
+    const rows = corpus.filter((l) => /^\d+;/.test(l));
+    const lines = ["# repeated from the hostile corpus", corpus[1]];
+    for (let k = 0; k < 500; k++) rows.forEach((row, j) => lines.push(row.replace(/^\d+/, String(3 * k + j + 1))));
+    const table = lines.join("\r\n") + "\r\n";
+    const data = bytes(table);
+    const options: PartStreamOptions = { shape: 8, top: 4 };
+    const whole = readWhole(table, options);
+    expect(whole.decimalMark).toBe("comma");
+    expect(whole.peak).toBe(250);
+    const bounds = [0.3, 0.55, 0.8].map((f) => data.indexOf(0x0a, Math.floor(f * data.length)) + 1);
+    expectSameTable(readInPieces(data, bounds, options).joined, whole);
   });
 
   it("a beginning that leaves the decimal mark open is not settled (the file is then read in one pass)", () => {

@@ -15,7 +15,8 @@ import { CANCELED } from "../functions/sliced-run";
 import { importAnswer, LOT_PENDING, lotVerdicts, pendingLotLines, readRecordTable, recordSummary, type ImportAnswer, type ImportRequest } from "../src/design/record-import-answer";
 import { decodeText } from "../src/input/encoding";
 import { compareLots } from "../src/weibull/lot-comparison";
-import { countDraws, withStandIns } from "./pane-task-stand-ins";
+import { countDraws } from "./helpers";
+import { withStandIns } from "./pane-task-stand-ins";
 
 vi.setConfig({ testTimeout: 120_000 }); // generous, never a verdict: a busy machine takes longer, it does not fail
 
