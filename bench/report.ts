@@ -62,6 +62,8 @@ export interface SoloRow {
   ours?: Spread;
   note: string;
   error?: string;
+  /** An absolute goal of the speed work (no peer): the figure, the goal, whether it is met. */
+  goal?: { text: string; figure: string; met: boolean };
 }
 
 export interface AccuracyRow {
@@ -170,6 +172,12 @@ export function markdownTable(record: BenchRecord): string {
       const same = p.agreement.ok === null ? "not checked" : !p.agreement.ok ? "**NO**" : p.agreement.largest === 0 ? "yes, identical" : `yes, to ${p.agreement.largest?.toExponential(0)}`;
       out.push(`| ${row.path} | ${p.peer} | ${ratioText(p.ratio)} | ${ratioText(p.roundRatios.lowest)}-${ratioText(p.roundRatios.highest)} | ${goalText(p)} | ${same} |`);
     }
+  }
+  const absolute = record.solo.filter((r) => r.goal);
+  if (absolute.length) {
+    out.push("", "Goals on absolute figures (no peer; median of several runs in the same bench run):", "");
+    out.push("| path | figure | goal |", "|---|---|---|");
+    for (const r of absolute) out.push(`| ${r.task} | ${r.goal!.figure} | ${r.goal!.text} ${r.goal!.met ? "met" : "not met"} |`);
   }
   return out.join("\n") + "\n";
 }

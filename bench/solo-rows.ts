@@ -13,10 +13,14 @@ import { guarded } from "../functions/registry";
 import { readPartTable } from "../src/size/part-stream";
 import { parameterBounds } from "../src/weibull/confidence-bounds";
 import { elementCsv, elementTable, weibullSample } from "./datasets";
+import { differencesFromNumber, parseTableNumbers } from "./number-parsing";
 import { median, type Spread } from "./measure";
 import type { SoloRow } from "./report";
 
 type Section = (quick: boolean) => Promise<SoloRow[]>;
+
+/** Number parsing alone, in MB of table text per second (issue goal for the element reader). */
+const PARSING_GOAL_MB_S = 300;
 
 /** The timing without the task's result (a workbook or an engine is no figure, and may not even serialise). */
 function figures({ seconds, fastest, slowest, times }: Spread): Spread {
@@ -64,6 +68,17 @@ async function streaming(): Promise<SoloRow[]> {
       task: `stream a 2^20-row element CSV from memory, ${digits ? `${digits} digits` : "full doubles"} (${(bytes / 1e6).toFixed(0)} MB)`,
       ours: figures(t),
       note: `${(elements / t.seconds / 1e6).toFixed(1)} M rows/s, ${(bytes / 1e6 / t.seconds).toFixed(0)} MB/s, parse + PIA sum`,
+    });
+    // The same bytes through the number parser alone (bench/number-parsing.ts): the issue's goal is 300 MB/s.
+    const values = new Float64Array(elements * 5);
+    const p = await median(5, () => parseTableNumbers(chunks, values));
+    const differ = differencesFromNumber(chunks, values, p.result);
+    const rate = bytes / 1e6 / p.seconds;
+    rows.push({
+      task: `number parsing alone, same table, ${digits ? `${digits} digits` : "full doubles"}`,
+      ours: figures(p),
+      note: `${rate.toFixed(0)} MB/s (goal >= ${PARSING_GOAL_MB_S}: ${rate >= PARSING_GOAL_MB_S ? "met" : "not met"}), ${count(p.result)} numbers; ${differ === 0 ? "every value equals Number() of its text" : `${count(differ)} values DIFFER from Number() of their text`}`,
+      goal: { text: `>= ${PARSING_GOAL_MB_S} MB/s`, figure: `${rate.toFixed(0)} MB/s`, met: rate >= PARSING_GOAL_MB_S && differ === 0 },
     });
   }
   return rows;

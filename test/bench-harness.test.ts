@@ -3,7 +3,8 @@
 // No timing is measured or asserted: the contenders report made-up durations.
 import { describe, expect, it } from "vitest";
 import { alternate, lasting, roundRatios, summarize, type Contender } from "../bench/measure";
-import { agreement, describeAgreement } from "../bench/report";
+import { differencesFromNumber, parseTableNumbers } from "../bench/number-parsing";
+import { agreement, describeAgreement, markdownTable, type BenchRecord, type SoloRow } from "../bench/report";
 
 /** A contender that logs its turns and reports the durations it is given, one per turn. */
 function scripted(name: string, durations: number[], log: string[]): Contender<number> {
@@ -106,5 +107,60 @@ describe("agreement", () => {
   });
   it("does not call an empty comparison an agreement", () => {
     expect(agreement([], 1e-9, "nothing").ok).toBe(false);
+  });
+});
+
+describe("number parsing alone (bench/number-parsing.ts)", () => {
+  const text = (s: string) => [new TextEncoder().encode(s)];
+  // Expected values: Number() of each field's text (ECMAScript 2024, 7.1.4.1.1, correctly rounded).
+  it("parses every field of every line, header skipped, the same doubles as Number()", () => {
+    const chunks = [
+      ...text("elem,s1,s2,s3,ivol\n"),
+      ...text("1,0.48064554417143296,-5.250728422979521e-12,17,1e-200\n2,0.1,0.2,0.30000000000000004,123456789012345678\n"),
+    ];
+    const out = new Float64Array(10);
+    expect(parseTableNumbers(chunks, out)).toBe(10);
+    const expected = "1 0.48064554417143296 -5.250728422979521e-12 17 1e-200 2 0.1 0.2 0.30000000000000004 123456789012345678".split(" ").map(Number);
+    expect(Array.from(out)).toEqual(expected);
+    expect(differencesFromNumber(chunks, out, 10)).toBe(0);
+  });
+  it("counts a value that differs from Number() of its text", () => {
+    const chunks = text("1,2.5\n");
+    const out = new Float64Array([1, 2.5000000000000004]);
+    expect(differencesFromNumber(chunks, out, 2)).toBe(1);
+    expect(() => differencesFromNumber(chunks, out, 3)).toThrow(/3 values parsed, 2 fields/);
+  });
+  it("refuses a field the fast parser leaves to the general path (the figure would not be the fast parser's)", () => {
+    expect(() => parseTableNumbers(text('1,"2.5"\n'), new Float64Array(2))).toThrow(/field 2 left to the general path/);
+    expect(() => parseTableNumbers(text("1,1234567890123456789012\n"), new Float64Array(2))).toThrow(/general path/);
+    expect(() => parseTableNumbers(text("1,1e-300\n"), new Float64Array(2))).toThrow(/general path/);
+  });
+});
+
+describe("markdownTable", () => {
+  const record = (solo: SoloRow[]): BenchRecord => ({
+    date: "2026-01-01T00:00:00.000Z",
+    machine: { cpuModel: "cpu", cpus: 2, memoryGB: 8, platform: "linux x64", node: "20", loadAtStart: [0, 0, 0], peers: null },
+    options: { only: [], quick: false, rounds: { short: 3, long: 2 }, warmUps: 1 },
+    paired: [],
+    solo,
+    accuracy: [],
+    notes: [],
+    seconds: 1,
+  });
+  it("lists project-only rows that carry an absolute goal, met or not, and no others", () => {
+    const table = markdownTable(
+      record([
+        { task: "parse A", note: "", goal: { text: ">= 300 MB/s", figure: "329 MB/s", met: true } },
+        { task: "parse B", note: "", goal: { text: ">= 300 MB/s", figure: "202 MB/s", met: false } },
+        { task: "no goal", note: "" },
+      ]),
+    );
+    expect(table).toContain("| parse A | 329 MB/s | >= 300 MB/s met |");
+    expect(table).toContain("| parse B | 202 MB/s | >= 300 MB/s not met |");
+    expect(table).not.toContain("no goal");
+  });
+  it("adds no goal section when no row has a goal", () => {
+    expect(markdownTable(record([{ task: "x", note: "" }]))).not.toContain("absolute");
   });
 });
