@@ -22,7 +22,7 @@
  * read. Progress counts the rows and bytes of both threads.
  */
 import { closeSync, openSync, readSync } from "node:fs";
-import { readFileRange } from "./read-file-range";
+import { READ_CHUNK, readFileRange } from "./read-file-range";
 import { availableParallelism } from "node:os";
 import { Worker, isMainThread, parentPort, workerData } from "node:worker_threads";
 import { joinPieces } from "../src/size/part-split";
@@ -34,8 +34,6 @@ export const PARALLEL_MIN_BYTES = 32 << 20;
 const HEAD_CHUNK = 256 << 10;
 /** About this much per piece: small enough that the threads finish within a few milliseconds of each other. */
 const PIECE_BYTES = 4 << 20;
-/** Read buffer of a piece: fits the processor's second-level cache, where the parser then finds the bytes. */
-const PIECE_CHUNK = 256 << 10;
 /** A piece boundary is the first line end this far past its nominal place (a longer line: one pass instead). */
 const BOUNDARY_WINDOW = 64 << 10;
 
@@ -109,7 +107,7 @@ function readPieces(
 ): boolean {
   const control = new Int32Array(job.control);
   const pieces = job.bounds.length - 1;
-  const buffer = new Uint8Array(PIECE_CHUNK);
+  const buffer = new Uint8Array(READ_CHUNK);
   const fd = openSync(job.file, "r");
   try {
     for (;;) {

@@ -1,5 +1,5 @@
 /**
- * Bytes of a file into an element-table reader in large chunks, read with
+ * Bytes of a file into an element-table reader in chunks, read with
  * positional reads into one reused buffer: no stream machinery, and no fresh
  * memory (page faults, zero-filling) for every chunk. A new buffer is taken
  * only while the reader is still reading ahead, since it keeps those chunks.
@@ -7,7 +7,12 @@
 import { readSync } from "node:fs";
 import type { PartTableReader } from "../src/size/part-stream";
 
-const CHUNK = 4 << 20;
+/**
+ * Read buffer: fits the processor's second-level cache, where the parser then finds the bytes
+ * (a 4 MiB buffer does not). On 2e6 rows in one thread: median 0.79 s against 0.85 s for 4 MiB
+ * and 0.83 s for 128 KiB (11 alternating processes each).
+ */
+export const READ_CHUNK = 256 << 10;
 
 /**
  * Feeds bytes [start, end) of the open file `fd` to `reader`; `onChunk` gets the bytes read so far.
@@ -19,7 +24,7 @@ export function readFileRange(
   end: number,
   reader: PartTableReader,
   onChunk?: (bytes: number) => void,
-  buffer: Uint8Array = new Uint8Array(Math.min(CHUNK, Math.max(1, end - start))),
+  buffer: Uint8Array = new Uint8Array(Math.min(READ_CHUNK, Math.max(1, end - start))),
 ): void {
   for (let at = start; at < end; ) {
     if (reader.keepsChunks) buffer = new Uint8Array(buffer.length);
