@@ -14,6 +14,7 @@
  */
 import { CHECK_FORMAT, CHECK_FORMAT_VERSION, type CheckDescription } from "./check-description";
 import { CheckFieldError, validateCheckDescription } from "./check-validate";
+import { firstDuplicateKey } from "./json-duplicate-keys";
 
 export { CheckFieldError } from "./check-validate";
 
@@ -58,6 +59,13 @@ export function parseCheckFile(text: string): CheckDescription {
     value = JSON.parse(body);
   } catch (error) {
     throw new CheckFieldError("", `not a JSON file: ${syntaxWhere(body, error)}`);
+  }
+  const twice = firstDuplicateKey(body);
+  if (twice) {
+    throw new CheckFieldError(
+      twice.path === "" ? twice.key : `${twice.path}.${twice.key}`,
+      `written twice (lines ${twice.firstLine} and ${twice.line}); a JSON reader would keep only the last one: remove the one you do not mean`,
+    );
   }
   if (typeof value !== "object" || value === null || Array.isArray(value)) {
     throw new CheckFieldError("", "a check file holds one JSON object");
