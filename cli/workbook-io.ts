@@ -7,9 +7,10 @@
  */
 import { readFile } from "node:fs/promises";
 import { InputError } from "../src/errors";
-import type { Dialect, DialectChoice } from "../src/input/delimited-text";
+import type { Delimiter, Dialect, DialectChoice } from "../src/input/delimited-text";
 import { type TextEncodingName, decodeText } from "../src/input/encoding";
 import { fieldNumber, readDelimited } from "../src/input/read-table";
+import { type SeparatorHint, separatorHint } from "../src/input/separator-hint";
 import type { ExcelJS } from "./exceljs-loader";
 import { WorkbookError } from "./workbook-errors";
 import type { DefinedName, DroppedParts } from "./xlsx-parts";
@@ -58,9 +59,10 @@ async function readBytes(path: string): Promise<Uint8Array> {
 }
 
 function describeReading(encoding: TextEncodingName, d: Dialect): string {
-  const delimiter = { ",": "comma", ";": "semicolon", "\t": "tab", space: "blanks" }[d.delimiter];
+  const named = { ",": "comma", ";": "semicolon", "\t": "tab", space: "blanks" }[d.delimiter];
+  const delimiter = d.basis.delimiter.startsWith("stated on line 1") ? `${named}-delimited (${d.basis.delimiter})` : `${named}-delimited`;
   const mark = d.decimalMark === null ? "decimal mark not needed (whole numbers only)" : `decimal ${d.decimalMark} (${d.basis.decimalMark})`;
-  return `${encoding}, ${delimiter}-delimited, ${mark}`;
+  return `${encoding}, ${delimiter}, ${mark}`;
 }
 
 function sheetNameFor(path: string): string {
@@ -85,13 +87,27 @@ export function parseCsv(text: string, choice: DialectChoice = {}): Contents[][]
 }
 
 function readCsvText(text: string, choice: DialectChoice): { rows: Contents[][]; dialect: Dialect } {
-  const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
-  const { dialect, records } = readDelimited(body, choice);
+  const full = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  // A first line "sep=;" states the delimiter and is no row, as a spreadsheet opens the file. It is
+  // blanked rather than cut, so messages keep naming the lines of the file.
+  const hint = separatorHint(full);
+  const body = hint ? full.slice(full.search(/[\r\n]|$/)) : full;
+  const { dialect, records } = readDelimited(body, hint ? { ...choice, delimiter: hintedDelimiter(hint) } : choice);
+  if (hint) {
+    records.shift();
+    dialect.basis.delimiter = `stated on line 1 by "${hint.text}", which is no row`;
+  }
   const rows: Contents[][] = [];
   for (const record of records) {
     rows.push(record.fields.map((f, k) => (f.quoted ? f.text : csvValue(f.text, dialect, record.line, k + 1))));
   }
   return { rows, dialect };
+}
+
+function hintedDelimiter(hint: SeparatorHint): Delimiter {
+  const d = hint.delimiter;
+  if (d === "," || d === ";" || d === "\t") return d;
+  throw new InputError("input", `line 1 ("${hint.text}") names "${d}" as the delimiter; a .csv sheet may be delimited by commas, semicolons or tabs`);
 }
 
 function csvValue(t: string, dialect: Dialect, line: number, field: number): Contents {

@@ -6,10 +6,27 @@ import { readFileSync } from "node:fs";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { main } from "../cli/cli";
+import { runPartCommand } from "../cli/part-command";
 import { firstDuplicateKey } from "../src/design/json-duplicate-keys";
+import { fixture, relativeError } from "./helpers";
 
 const HOSTILE = "test/fixtures/hostile";
 const at = (name: string) => join(HOSTILE, name);
+
+// The strengths in the csv-* files are dataset complete-n10-m10-s350; its maximum-likelihood modulus and
+// characteristic strength are 40-digit mpmath solutions (test/fixtures/generate_weibull_fits.py -> weibull_fits.json).
+const data = fixture("weibull_fits.json").datasets.find((d: { id: string }) => d.id === "complete-n10-m10-s350");
+
+// The element table of part-european.csv (stresses 100.5, -40, 250; sizes 2, 1, 0.5). Source: the definitions
+// S_E = sum V_e (s_e / s_max)^m and Pf = 1 - exp(-S_E (s_max / sigma_0)^m) (ASTM C1683, Annex A3; compression counts nothing).
+const S = 2 * (100.5 / 250) ** 8 + 0.5;
+const Pf = -Math.expm1(-S * (250 / 400) ** 8);
+
+async function calcGrid(name: string): Promise<{ code: number; grid: (number | string | null)[][]; stderr: string }> {
+  const io = capture();
+  const code = await main(["calc", at(name), "--json"], io);
+  return { code, grid: code === 0 ? (Object.values(JSON.parse(io.stdout))[0] as (number | string | null)[][]) : [], stderr: io.stderr };
+}
 
 function capture() {
   const io = { stdout: "", stderr: "", out: (t: string) => (io.stdout += t), err: (t: string) => (io.stderr += t), errIsTTY: false };
@@ -36,5 +53,39 @@ describe("design-check files", () => {
     expect(firstDuplicateKey('{"d": [1, {"x": 1,\n"x": 2}]}')).toEqual({ path: "d[1]", key: "x", firstLine: 1, line: 2 });
     // "\u0061" and "a" are the same key once decoded (ECMA-404, section 9).
     expect(firstDuplicateKey('{"a": 1, "\\u0061": 2}')).toMatchObject({ key: "a" });
+  });
+});
+
+describe('a first line "sep=;" (the delimiter line spreadsheet exports write)', () => {
+  it("calc: the line states the delimiter and is no row, so A2:A11 are the ten strengths (it was row 1: COUNT gave 9, the fit #VALUE!)", async () => {
+    for (const name of ["csv-sep-semicolon.csv", "csv-sep-tab-bom.csv", "csv-sep-comma.csv"]) {
+      const { code, grid, stderr } = await calcGrid(name);
+      expect(code, name).toBe(0);
+      expect(relativeError(grid[1][1] as number, data.ml.shapeFloat), name).toBeLessThan(1e-12); // mpmath, weibull_fits.json
+      expect(relativeError(grid[2][1] as number, data.ml.scaleFloat), name).toBeLessThan(1e-12); // mpmath, weibull_fits.json
+      expect(grid[3][1], name).toBe(10); // lines 3-12 of the file hold ten strengths (counted in the file)
+      expect(grid.map((r) => r[0]).slice(1), name).toEqual(data.strengths);
+      expect(stderr, name).toMatch(/-delimited \(stated on line 1 by "sep=(;|,|<tab>)", which is no row\)/);
+    }
+  });
+
+  it("calc: a sep= line naming a delimiter a sheet cannot have is refused in one line", async () => {
+    const { readCsvBytes } = await import("../cli/workbook-io");
+    expect(() => readCsvBytes(new TextEncoder().encode("sep=|\na|b\n1|2\n"))).toThrow('line 1 ("sep=|") names "|" as the delimiter; a .csv sheet may be delimited by commas, semicolons or tabs');
+  });
+
+  it("part: the line is skipped and named, not taken for a header ('no stress columns recognised in the header (sep=, )')", async () => {
+    for (const name of ["part-sep-semicolon.csv", "part-sep-tab-bom.csv"]) {
+      const io = capture();
+      expect(await runPartCommand([at(name), "--modulus", "8", "--scale", "400", "--json"], io), `${name}: ${io.stderr}`).toBe(0);
+      const r = JSON.parse(io.stdout);
+      expect(relativeError(r.effectiveSize, S), name).toBeLessThan(1e-14);
+      expect(relativeError(r.failureProbability, Pf), name).toBeLessThan(1e-13);
+      expect(r.rows, name).toBe(3);
+      expect(io.stderr, name).toBe("brittle part: skipped line 1 (delimiter line), line 2 (comment), line 5 (blank)\n");
+    }
+    const io = capture();
+    expect(await runPartCommand([at("part-sep-semicolon.csv"), "--modulus", "8", "--delimiter", ","], io)).toBe(1);
+    expect(io.stderr).toBe('brittle part: line 1 ("sep=;") states the delimiter ";", but --delimiter says ",": remove one\n');
   });
 });

@@ -29,6 +29,7 @@ import { ensurePositive, InputError } from "../errors";
 import { contentLines, detectDelimiter, settleDecimalMark, type TextRecord } from "../input/delimited-text";
 import { type EncodingGuess, Utf16ToUtf8, detectEncoding } from "../input/encoding";
 import { type DecimalMark, looksNumeric, readNumber } from "../input/number-text";
+import { separatorHint } from "../input/separator-hint";
 import { type Criterion, NsaEvaluator } from "./criteria";
 import {
   COMMA,
@@ -112,7 +113,7 @@ export interface HotSpot {
 export interface SkippedLines {
   from: number;
   to: number;
-  reason: "header" | "blank" | "comment";
+  reason: "header" | "blank" | "comment" | "delimiter line";
 }
 
 export interface PartStreamResult {
@@ -207,6 +208,8 @@ export class PartTableReader {
   private loneCr = false;
   private encoding = "UTF-8";
   private delimiterBasis = "";
+  /** Line 1 is a "sep=;" delimiter line. */
+  private hintLine = false;
   private mark: DecimalMark | null = null;
   private markBasis = "";
   /** The decimal-mark byte the fast path accepts: '.' or ',' once settled, -1 before. */
@@ -363,7 +366,18 @@ export class PartTableReader {
       sample = contentLines(decodeAscii(text, 0, prefixEnd), true, SNIFF_LINES);
       if (sample.length >= SNIFF_LINES || prefixEnd === sampleEnd) break;
     }
-    if (this.delimiter === null) {
+    // A first line "sep=;" states the delimiter (spreadsheet exports write it): skipped, not a header.
+    const hint = separatorHint(decodeAscii(text, 0, Math.min(text.length, 16)));
+    if (hint) {
+      const named = delimiterByte(hint.delimiter);
+      if (this.delimiter !== null && this.delimiter !== named) {
+        throw new InputError("input", `line 1 ("${hint.text}") states the delimiter "${delimiterName(named!)}", but --delimiter says "${delimiterName(this.delimiter)}": remove one`);
+      }
+      this.delimiter = named;
+      this.hintLine = true;
+      this.delimiterBasis = `stated on line 1 by "${hint.text}"`;
+      sample = sample.filter((l) => l.line !== 1);
+    } else if (this.delimiter === null) {
       const found = detectDelimiter(sample, { allowWhitespace: true, decimalMark: this.statedMark ?? "auto" });
       this.delimiter = found.delimiter === "space" ? WHITESPACE : found.delimiter.charCodeAt(0);
       this.delimiterBasis = found.basis;
@@ -376,7 +390,8 @@ export class PartTableReader {
         quoted: false,
       })),
     }));
-    const dialect = settleDecimalMark(records, { delimiter: d === COMMA ? "," : ";", basis: this.delimiterBasis }, { decimalMark: this.statedMark ?? "auto" });
+    const basis = this.hintLine ? "stated" : this.delimiterBasis;
+    const dialect = settleDecimalMark(records, { delimiter: d === COMMA ? "," : ";", basis }, { decimalMark: this.statedMark ?? "auto" });
     this.settleMark(dialect.decimalMark, dialect.basis.decimalMark);
     this.feed(text);
   }
@@ -544,6 +559,10 @@ export class PartTableReader {
   }
 
   private firstLine(buf: Uint8Array, start: number, end: number): void {
+    if (this.hintLine && this.lineNumber === 1) {
+      this.skip("delimiter line");
+      return;
+    }
     let i = start;
     while (i < end && (buf[i] === 0x20 || buf[i] === 0x09)) i++;
     if (i < end && buf[i] === 0x23) {
