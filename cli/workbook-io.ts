@@ -9,6 +9,7 @@ import { readFile } from "node:fs/promises";
 import { InputError } from "../src/errors";
 import type { Delimiter, Dialect, DialectChoice } from "../src/input/delimited-text";
 import { type TextEncodingName, decodeText } from "../src/input/encoding";
+import { looksNumeric } from "../src/input/number-text";
 import { fieldNumber, readDelimited } from "../src/input/read-table";
 import { type SeparatorHint, separatorHint } from "../src/input/separator-hint";
 import type { ExcelJS } from "./exceljs-loader";
@@ -99,7 +100,7 @@ function readCsvText(text: string, choice: DialectChoice): { rows: Contents[][];
   }
   const rows: Contents[][] = [];
   for (const record of records) {
-    rows.push(record.fields.map((f, k) => (f.quoted ? f.text : csvValue(f.text, dialect, record.line, k + 1))));
+    rows.push(record.fields.map((f, k) => (f.quoted ? quotedValue(f.text, dialect, record.line, k + 1) : csvValue(f.text, dialect, record.line, k + 1))));
   }
   return { rows, dialect };
 }
@@ -108,6 +109,18 @@ function hintedDelimiter(hint: SeparatorHint): Delimiter {
   const d = hint.delimiter;
   if (d === "," || d === ";" || d === "\t") return d;
   throw new InputError("input", `line 1 ("${hint.text}") names "${d}" as the delimiter; a .csv sheet may be delimited by commas, semicolons or tabs`);
+}
+
+/**
+ * A quoted field. Quotes only protect delimiters and line ends: a spreadsheet reads a quoted number
+ * as a number, and so did the formula engine here, but with its own rules ("1.250" became 1.25, while
+ * "373,763" in a decimal-comma file stayed text and SUM counted it as nothing). So a number-shaped
+ * field is read under the file's rules, as if unquoted; anything else stays text.
+ */
+function quotedValue(text: string, dialect: Dialect, line: number, field: number): Contents {
+  const t = text.trim();
+  if (t === "" || !looksNumeric(t)) return text;
+  return fieldNumber(t, dialect.decimalMark, line, field) ?? text;
 }
 
 function csvValue(t: string, dialect: Dialect, line: number, field: number): Contents {

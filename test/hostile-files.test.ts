@@ -89,3 +89,26 @@ describe('a first line "sep=;" (the delimiter line spreadsheet exports write)', 
     expect(io.stderr).toBe('brittle part: line 1 ("sep=;") states the delimiter ";", but --delimiter says ",": remove one\n');
   });
 });
+
+describe("quoted numbers in a CSV sheet", () => {
+  it("csv-quoted-every-field: quoted decimal-comma numbers are numbers (they were text: COUNT 0, SUM 0, the fit #VALUE!, exit 0)", async () => {
+    const { code, grid } = await calcGrid("csv-quoted-every-field.csv");
+    expect(code).toBe(0);
+    expect(grid.slice(1).map((r) => r[0])).toEqual(data.strengths);
+    expect(relativeError(grid[1][1] as number, data.ml.shapeFloat)).toBeLessThan(1e-12); // mpmath, weibull_fits.json
+    expect(relativeError(grid[2][1] as number, data.ml.scaleFloat)).toBeLessThan(1e-12); // mpmath, weibull_fits.json
+    expect(grid[3][1]).toBe(10); // ten strengths on lines 2-11 (counted in the file)
+    // The exact decimal sum of the ten values as written in the file (816249/250, summed by hand with fractions).
+    expect(relativeError(grid[4][1] as number, 3264.996)).toBeLessThan(1e-14);
+  });
+
+  it('csv-quoted-thousands: a quoted "1.250" follows the thousands rule (the engine read it as 1.25, so twice the load was 2.5)', async () => {
+    const io = capture();
+    expect(await main(["calc", at("csv-quoted-thousands.csv"), "--json"], io)).toBe(1);
+    expect(io.stdout).toBe("");
+    expect(io.stderr).toBe(
+      `brittle: ${at("csv-quoted-thousands.csv")}: line 2, field 1: "1.250" could be 1250 (thousands separator) or 1.25 (decimal point), ` +
+        "and no other number settles it: remove thousands separators, or state the decimal mark (--decimal-comma or --decimal-point; in the form, the decimal-comma switch)\n",
+    );
+  });
+});
