@@ -112,3 +112,23 @@ describe("quoted numbers in a CSV sheet", () => {
     );
   });
 });
+
+describe("element tables with text beyond ASCII", () => {
+  it("part-utf8-names: UTF-8 headers and ids are read as written (they were 'Ï1 (MPa)' and 'Ecke-Ã¤', so --stress σ1 found no column)", async () => {
+    const io = capture();
+    const args = [at("part-utf8-names.csv"), "--modulus", "8", "--scale", "400", "--stress", "σ1 (MPa),σ2,σ3", "--size", "Volumen (mm³)", "--id", "Elément", "--json"];
+    expect(await runPartCommand(args, io), io.stderr).toBe(0);
+    const r = JSON.parse(io.stdout);
+    expect(r.columns.labels).toEqual({ stress: ["σ1 (MPa)", "σ2", "σ3"], size: "Volumen (mm³)", id: "Elément" });
+    expect(r.hotSpots.map((h: { id: string }) => h.id)).toEqual(["Mitte", "Ecke-ä"]); // the two elements in tension
+    // Principal stresses (100.5, 0, 0), (-40, 0, 0), (250, 0, 0): PIA counts the tensile one only, so S_E as above.
+    expect(relativeError(r.effectiveSize, S)).toBeLessThan(1e-14);
+    expect(relativeError(r.failureProbability, Pf)).toBeLessThan(1e-13);
+  });
+
+  it("part-unicode-minus: a U+2212 minus is refused and quoted as written (the message showed 'â40')", async () => {
+    const io = capture();
+    expect(await runPartCommand([at("part-unicode-minus.csv"), "--modulus", "8"], io)).toBe(1);
+    expect(io.stderr).toBe('brittle part: line 3: the stress field 2 ("\u221240") is not a number\n');
+  });
+});

@@ -41,6 +41,24 @@ export function decodeAscii(buf: Uint8Array, start: number, end: number): string
   return s;
 }
 
+const UTF8 = new TextDecoder("utf-8", { fatal: true });
+
+/**
+ * Decodes the bytes of a field shown to the user or matched against a name (a header, an id, a
+ * field quoted in a message): UTF-8, which the reader's input is (UTF-16 is converted on the way
+ * in), so "σ1" and "Ecke-ä" are not shown as "Ï1" and "Ecke-Ã¤" and `--stress σ1` finds its
+ * column; bytes that are not UTF-8 (an older Western export) are read one byte a character.
+ */
+export function decodeField(buf: Uint8Array, start: number, end: number): string {
+  const ascii = decodeAscii(buf, start, end);
+  if (!/[\x80-\xff]/.test(ascii)) return ascii;
+  try {
+    return UTF8.decode(buf.subarray(start, end));
+  } catch {
+    return ascii;
+  }
+}
+
 /**
  * The number in bytes [start, end), or NaN if the field is not a plain
  * finite number. `altDecimal` is a second decimal-point byte (a comma), or -1.
@@ -167,7 +185,7 @@ export function splitFields(buf: Uint8Array, start: number, end: number, delimit
   let i = delimiter === WHITESPACE ? nextFieldStart(buf, start, end, WHITESPACE) : start;
   for (;;) {
     const e = fieldEnd(buf, i, end, delimiter);
-    let text = decodeAscii(buf, i, e).trim();
+    let text = decodeField(buf, i, e).trim();
     if (text.length >= 2 && text.startsWith('"') && text.endsWith('"')) text = text.slice(1, -1).replace(/""/g, '"').trim();
     fields.push(text);
     if (e >= end) break;

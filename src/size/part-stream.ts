@@ -38,6 +38,7 @@ import {
   WHITESPACE,
   QUOTE,
   decodeAscii,
+  decodeField,
   fastNumber,
   fastWholeNumber,
   fieldEnd,
@@ -618,7 +619,7 @@ export class PartTableReader {
       const v = parseNumber(buf, i, e, direct);
       if (v === v) return v === 0 ? 0 : v;
     }
-    const text = decodeAscii(buf, i, e).trim().replace(/^"(.*)"$/, "$1").trim();
+    const text = decodeField(buf, i, e).trim().replace(/^"(.*)"$/, "$1").trim();
     const r = readNumber(text, this.mark);
     if (r.ok) {
       if (r.proves) this.settleMark(r.proves, `detected: "${text}" on line ${this.lineNumber}`);
@@ -657,7 +658,7 @@ export class PartTableReader {
             if (this.idTexts) this.idTexts[row] = null;
           } else {
             this.idTexts ??= new Array<string | null>(this.batchRows).fill(null);
-            this.idTexts[row] = decodeAscii(buf, i, e).trim().replace(/^"|"$/g, "");
+            this.idTexts[row] = decodeField(buf, i, e).trim().replace(/^"|"$/g, "");
           }
         } else {
           const v = this.numberField(buf, i, e, slot === k ? "size" : "stress", field);
