@@ -5,6 +5,7 @@
  * billion of the rectangle), and rows with nothing share one empty array.
  */
 import { readFile } from "node:fs/promises";
+import { isTextKeptAsWritten } from "./direct-evaluation";
 import { loadExcelJs, type ExcelJS } from "./exceljs-loader";
 import { checkCellCount, EMPTY_ROW, MAX_CONTENT_CELLS } from "./workbook-limits";
 import { WorkbookError } from "./workbook-errors";
@@ -34,6 +35,7 @@ export async function loadXlsx(path: string, options: XlsxOptions = {}): Promise
     throw new WorkbookError(`cannot read ${path} as an .xlsx workbook: ${String(reason).split("\n")[0]}`);
   }
   const sheets: Record<string, Contents[][]> = {};
+  const epoch = dateEpoch(workbook);
   let cells = 0;
   workbook.eachSheet((ws) => {
     const grid: Contents[][] = [];
@@ -44,7 +46,7 @@ export async function loadXlsx(path: string, options: XlsxOptions = {}): Promise
         // The other cells of a merged range repeat its first cell's value in the reader, but hold nothing:
         // read as values they would count one specimen several times.
         if (cell.type === excel.ValueType.Merge) return;
-        const contents = cellContents(cell);
+        const contents = cellContents(cell, epoch);
         if (contents === null) return;
         if (++cells > maxCells) checkCellCount(cells, maxCells, path);
         if (!line) {
@@ -76,30 +78,39 @@ export async function loadXlsx(path: string, options: XlsxOptions = {}): Promise
   return { kind: "xlsx", sheets, source: workbook, dropped: pkg.dropped, names: pkg.names, sheetOrder: pkg.sheetOrder };
 }
 
-function cellContents(cell: ExcelJS.Cell): Contents {
+function cellContents(cell: ExcelJS.Cell, epoch: number): Contents {
   const v = cell.value as unknown;
   if (v === null || v === undefined) return null;
   if (typeof v === "number" || typeof v === "boolean") return v;
-  // Text that merely starts with "=" stays text: the engine reads a leading apostrophe as "this is text".
-  if (typeof v === "string") return v.startsWith("=") ? `'${v}` : v;
-  if (v instanceof Date) return excelSerial(v);
+  if (typeof v === "string") return textCell(v);
+  if (v instanceof Date) return excelSerial(v, epoch);
   if (typeof v === "object") {
     const o = v as Record<string, unknown>;
     if ("formula" in o || "sharedFormula" in o) {
       const formula = cell.formula;
       // A shared formula whose first cell is missing has no text: its cached result is all there is.
-      return formula ? `=${formula}` : plainResult(o.result);
+      return formula ? `=${formula}` : plainResult(o.result, epoch);
     }
-    if ("richText" in o) return (o.richText as { text: string }[]).map((t) => t.text).join("");
-    if ("text" in o) return String(o.text);
+    if ("richText" in o) return textCell((o.richText as { text: string }[]).map((t) => t.text).join(""));
+    if ("text" in o) return textCell(String(o.text));
     if ("error" in o) return String(o.error);
   }
   return String(v);
 }
 
-function plainResult(result: unknown): Contents {
+/**
+ * A text cell stays text. The engine reads text that looks like a value as that value ("373.763",
+ * "50%", "TRUE", "=A1"); a spreadsheet does not: a number stored as text is text, which SUM skips and
+ * the add-in's functions refuse. Before, such cells were fitted as strengths. A leading apostrophe
+ * tells the engine "this is text" and is not part of the value.
+ */
+function textCell(text: string): string {
+  return text === "" || isTextKeptAsWritten(text) ? text : `'${text}`;
+}
+
+function plainResult(result: unknown, epoch: number): Contents {
   if (typeof result === "number" || typeof result === "boolean" || typeof result === "string") return result;
-  if (result instanceof Date) return excelSerial(result);
+  if (result instanceof Date) return excelSerial(result, epoch);
   if (result && typeof result === "object" && "error" in result) return String((result as { error: unknown }).error);
   return null;
 }
@@ -118,7 +129,18 @@ function decodeRange(ref: string): { top: number; left: number; bottom: number; 
   return { top: Math.min(p.row, q.row), left: Math.min(p.col, q.col), bottom: Math.max(p.row, q.row), right: Math.max(p.col, q.col) };
 }
 
-/** Days since 1899-12-30, the 1900 date system's serial number. */
-function excelSerial(d: Date): number {
-  return d.getTime() / 86400000 + 25569;
+/**
+ * Days since 1970-01-01 of a date system's day 0: 1899-12-30 in the 1900 system (25569 days before
+ * 1970), 1904-01-01 in the 1904 system (24107 days before; 66 years of which 17 leap). ECMA-376
+ * Part 1, 18.17.4 (date systems). The reader turns a date cell into a Date with the workbook's
+ * system; the serial goes back with the same one, so a formula computes with the number stored
+ * in the file (a 1904 workbook's dates were 1462 days later).
+ */
+function dateEpoch(workbook: ExcelJS.Workbook): number {
+  return (workbook.properties as { date1904?: boolean }).date1904 ? 24107 : 25569;
+}
+
+/** The serial number of a date in the workbook's date system. */
+function excelSerial(d: Date, epoch: number): number {
+  return d.getTime() / 86400000 + epoch;
 }

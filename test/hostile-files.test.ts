@@ -2,9 +2,11 @@
 // reader did before (a wrong number, a dropped row, a verdict from misread data, an unhelpful message)
 // and checks the right value or the exact refusal. Values come from the file's own text read by the
 // rule stated beside them, or from Number() per ECMAScript.
-import { readFileSync } from "node:fs";
+import { mkdtempSync, readFileSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
 import { join } from "node:path";
-import { describe, expect, it } from "vitest";
+import JSZip from "jszip";
+import { afterAll, describe, expect, it } from "vitest";
 import { main } from "../cli/cli";
 import { runPartCommand } from "../cli/part-command";
 import { firstDuplicateKey } from "../src/design/json-duplicate-keys";
@@ -130,5 +132,38 @@ describe("element tables with text beyond ASCII", () => {
     const io = capture();
     expect(await runPartCommand([at("part-unicode-minus.csv"), "--modulus", "8"], io)).toBe(1);
     expect(io.stderr).toBe('brittle part: line 3: the stress field 2 ("\u221240") is not a number\n');
+  });
+});
+
+describe("workbooks (built by make-hostile-workbooks.ts)", () => {
+  const dir = mkdtempSync(join(tmpdir(), "brittle-hostile-files-"));
+  afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+  it("xlsx-numbers-as-text: numbers stored as text stay text, as in a spreadsheet (they were fitted as strengths: SUM 3264.996, a modulus)", async () => {
+    const io = capture();
+    expect(await main(["calc", at("xlsx-numbers-as-text.xlsx"), "--json"], io)).toBe(0);
+    const grid = JSON.parse(io.stdout).Data as (number | string | null)[][];
+    // Text cells show as written: an inline string, plain shared strings, a rich-text one ("29" bold + "5.195").
+    expect(grid.map((r) => r[0])).toEqual(["Strength (MPa, as text)", ...data.strengths.map(String)]);
+    // SUM and COUNT skip text in a reference (ECMA-376 Part 1, 18.17.7, SUM and COUNT; from memory).
+    expect(grid[0][1]).toBe(0);
+    expect(grid[1][1]).toBe(0);
+    // Text in a range of strengths is #VALUE! naming its row (the cell policy, ../shared/DESIGN.md).
+    expect(grid[2][1]).toBe("#VALUE!");
+    expect(io.stderr).toMatch(/^Data!B3: #VALUE!: strengths, row 1 is not a number$/m);
+    expect(relativeError(grid[0][3] as number, data.ml.shapeFloat)).toBeLessThan(1e-12); // the same values as numbers: mpmath, weibull_fits.json
+  });
+
+  it("xlsx-1904-dates: a 1904-system workbook computes with its own serial numbers (dates were 1462 days later, and --out wrote them)", async () => {
+    // 2024-03-01 in the 1904 system: 120 years of 365 days, 30 leap days (1904-2020), 31 + 29 days of 2024 = 43890
+    // (ECMA-376 Part 1, 18.17.4.1); A1+1 is the next day.
+    const io = capture();
+    expect(await main(["calc", at("xlsx-1904-dates.xlsx"), "--json"], io)).toBe(0);
+    expect(JSON.parse(io.stdout).Dates).toEqual([[43890, 43891]]);
+    const out = join(dir, "dates-1904.xlsx");
+    expect(await main(["calc", at("xlsx-1904-dates.xlsx"), "--out", out], capture())).toBe(0);
+    const zip = await JSZip.loadAsync(readFileSync(out));
+    expect(await zip.file("xl/workbook.xml")!.async("string")).toMatch(/date1904="1"/);
+    expect(await zip.file("xl/worksheets/sheet1.xml")!.async("string")).toMatch(/<c r="B1"[^>]*><f>A1\+1<\/f><v>43891<\/v><\/c>/);
   });
 });
