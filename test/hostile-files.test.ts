@@ -167,3 +167,22 @@ describe("workbooks (built by make-hostile-workbooks.ts)", () => {
     expect(await zip.file("xl/worksheets/sheet1.xml")!.async("string")).toMatch(/<c r="B1"[^>]*><f>A1\+1<\/f><v>43891<\/v><\/c>/);
   });
 });
+
+describe("hand-edited check files that are not JSON", () => {
+  // Each message keeps the place the JSON reader gives and adds what to remove. The places are read off the
+  // files: line 42 holds `"lotSize": 5000, // parts a year` with "//" at column 20; line 45 is the "}" after `"proof": null,`.
+  const cases: [string, RegExp][] = [
+    ["check-line-comment.check.json", /: not a JSON file: line 42, column 20: .* \(comments are not allowed in JSON: remove them\)\n$/],
+    ["check-block-comment.check.json", /: not a JSON file: .*\(comments are not allowed in JSON: remove them\)\n$/],
+    ["check-trailing-comma.check.json", /: not a JSON file: line 45, column 1: .* \(a comma before a closing bracket is not allowed in JSON: remove it\)\n$/],
+  ];
+  for (const [name, message] of cases) {
+    it(`${name}: refused in one line that says what to remove (the reader's own words only, before)`, async () => {
+      const io = capture();
+      expect(await main(["check", at(name)], io)).toBe(2);
+      expect(io.stdout).toBe("");
+      expect(io.stderr).toMatch(message);
+      expect(io.stderr.trim().split("\n")).toHaveLength(1);
+    });
+  }
+});

@@ -138,10 +138,26 @@ function pretty(value: unknown, indent: string): string {
 function syntaxWhere(text: string, error: unknown): string {
   const message = error instanceof Error ? error.message : String(error);
   const at = /position (\d+)/.exec(message);
-  if (!at) return message;
+  if (!at) {
+    // Some syntax errors come without a position: the token still says what it was.
+    if (/^Unexpected token '\/'/.test(message)) return message + COMMENT_HINT;
+    if (/^Unexpected token '[\]}]'/.test(message) && /,\s*[\]}]/.test(text)) return message + TRAILING_COMMA_HINT;
+    return message;
+  }
   const position = Number(at[1]);
   const before = text.slice(0, position);
   const line = before.split("\n").length;
   const column = position - before.lastIndexOf("\n");
-  return `line ${line}, column ${column}: ${message.replace(/\s*in JSON at position \d+.*$/, "").replace(/\s*\(line \d+ column \d+\)$/, "")}`;
+  return `line ${line}, column ${column}: ${message.replace(/\s*in JSON at position \d+.*$/, "").replace(/\s*\(line \d+ column \d+\)$/, "")}${editHint(text, position)}`;
+}
+
+const COMMENT_HINT = " (comments are not allowed in JSON: remove them)";
+const TRAILING_COMMA_HINT = " (a comma before a closing bracket is not allowed in JSON: remove it)";
+
+/** What a hand-edited file most often holds at a syntax error: a comment, or a comma before a closing bracket. */
+function editHint(text: string, position: number): string {
+  if (text.startsWith("//", position) || text.startsWith("/*", position)) return COMMENT_HINT;
+  const closing = text[position] === "}" || text[position] === "]";
+  if (closing && /,\s*$/.test(text.slice(Math.max(0, position - 200), position))) return TRAILING_COMMA_HINT;
+  return "";
 }
