@@ -91,6 +91,10 @@ describe("hostile check files (test/fixtures/hostile/check-*)", () => {
     "check-strengths-as-text.check.json": { field: "material.strengths", message: /expected a list, got text/, guards: "semicolon-separated text taken for data" },
     "check-utf16le-no-bom.check.json": { field: "", message: /UTF-16 without a byte-order mark/, guards: "UTF-16 bytes read as UTF-8 garbage" },
     "check-latin1.check.json": { field: "", message: /not valid UTF-8/, guards: "Latin-1 bytes read with replacement characters" },
+    "check-duplicate-key.check.json": { field: "requirement.survival", message: /written twice \(lines 39 and 40\)/, guards: "a second key silently overriding the first (FAIL turned PASS)" },
+    "check-line-comment.check.json": { field: "", message: /^not a JSON file: line 42, column 20: .*comments are not allowed in JSON/, guards: "a comment refused without saying so" },
+    "check-block-comment.check.json": { field: "", message: /^not a JSON file: .*comments are not allowed in JSON/, guards: "a leading comment refused without a place or a reason" },
+    "check-trailing-comma.check.json": { field: "", message: /^not a JSON file: line 45, column 1: .*a comma before a closing bracket/, guards: "a trailing comma refused without saying so" },
     "check-ragged-table.check.json": { field: "part.stresses[1]", message: /needs at least 3 entries \(got 2\)/, guards: "a ragged element table shifting stresses between elements" },
   };
   const files = readdirSync(HOSTILE).filter((f) => f.startsWith("check-"));
