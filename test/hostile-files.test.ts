@@ -186,3 +186,17 @@ describe("hand-edited check files that are not JSON", () => {
     });
   }
 });
+
+describe("thousands separators of other locales", () => {
+  it("a thin space (U+2009) or a curly apostrophe (U+2019) between digit groups is refused (the cell was text and SUM gave 980.5 for 1250.5 + 980.5)", async () => {
+    for (const [name, text] of [
+      ["csv-thin-space-thousands.csv", "1\u2009250,5"],
+      ["csv-curly-apostrophe-thousands.csv", "1\u2019250.5"],
+    ]) {
+      const io = capture();
+      expect(await main(["calc", at(name), "--json"], io), name).toBe(1);
+      expect(io.stdout, name).toBe("");
+      expect(io.stderr, name).toBe(`brittle: ${at(name)}: line 2, field 1: "${text}" has thousands separators, which are not read: write the number without them\n`);
+    }
+  });
+});

@@ -11,7 +11,8 @@
  *            (not a lone 0): 1.25 with decimal commas, 1250 with thousands
  *            commas. Read only when the file's mark is settled as comma.
  *   "1.250"  the same with a point: read only when the mark is point.
- *   "1,250.5", "1.250,5", "1 250,5" (no-break space): grouped thousands.
+ *   "1,250.5", "1.250,5", "1 250,5" (no-break, narrow no-break or thin
+ *            space), "1'250.5" (apostrophe, straight or curly): grouped thousands.
  *            Never read: a thousands separator is refused, not dropped.
  *
  * Sources: the digit-grouping conventions are common practice (comma groups
@@ -36,7 +37,7 @@ export type NumberShape =
 
 const NUMBER = /^[+-]?(\d+([.,]\d*)?|[.,]\d+)([eE][+-]?\d+)?$/;
 const AMBIGUOUS = /^[+-]?[1-9]\d{0,2}[.,]\d{3}$/;
-const GROUPED = /^[+-]?\d{1,3}([,.\u00a0\u202f' ]\d{3})+([.,]\d+)?([eE][+-]?\d+)?$/;
+const GROUPED = /^[+-]?\d{1,3}([,.\u00a0\u2009\u202f'\u2019 ]\d{3})+([.,]\d+)?([eE][+-]?\d+)?$/;
 
 /**
  * Classifies trimmed text (no quotes). "-0" reads as 0 so no output ever shows a negative zero.
