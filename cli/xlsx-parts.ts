@@ -65,6 +65,9 @@ export interface ReadablePackage {
   sheetOrder: string[];
 }
 
+/** The longest sheet name the workbook reader takes (a spreadsheet's usual limit). */
+const MAX_SHEET_NAME = 31;
+
 /** Checks the package's declared sizes, then removes the parts the reader cannot take. */
 export async function readablePackage(bytes: Uint8Array, path: string, limits = { part: MAX_PART_BYTES, total: MAX_PACKAGE_BYTES }): Promise<ReadablePackage> {
   let zip: JSZip;
@@ -88,6 +91,12 @@ export async function readablePackage(bytes: Uint8Array, path: string, limits = 
   const workbookXml = (await zip.file("xl/workbook.xml")?.async("string")) ?? "";
   const names = definedNames(workbookXml);
   const sheetOrder = [...workbookXml.matchAll(/<(?:\w+:)?sheet\b[^>]*\bname="([^"]*)"/g)].map((m) => decodeXml(m[1]));
+  // Some spreadsheet programs allow longer sheet names than the usual 31 characters; the workbook reader
+  // cuts them and then stops on "Worksheet name already exists", which says nothing useful.
+  const long = sheetOrder.find((s) => s.length > MAX_SHEET_NAME);
+  if (long !== undefined) {
+    throw new WorkbookError(`${path}: the sheet name "${long}" has ${long.length} characters; brittle reads sheet names of at most ${MAX_SHEET_NAME}, as most spreadsheets allow: rename the sheet`);
+  }
   if (names.length > 0) {
     zip.file("xl/workbook.xml", workbookXml.replace(/<(?:\w+:)?definedNames\b[^>]*>[\s\S]*?<\/(?:\w+:)?definedNames>|<(?:\w+:)?definedNames\b[^>]*\/>/g, ""));
   }

@@ -154,6 +154,17 @@ describe("workbooks (built by make-hostile-workbooks.ts)", () => {
     expect(relativeError(grid[0][3] as number, data.ml.shapeFloat)).toBeLessThan(1e-12); // the same values as numbers: mpmath, weibull_fits.json
   });
 
+  it("xlsx-long-sheet-name: a sheet name over 31 characters is refused in one line naming it (the reader stopped on 'Worksheet name already exists')", async () => {
+    const io = capture();
+    expect(await main(["calc", at("xlsx-long-sheet-name.xlsx"), "--json"], io)).toBe(1);
+    expect(io.stdout).toBe("");
+    // The name as written into the package by make-hostile-workbooks.ts: 34 characters, counted in the file.
+    expect(io.stderr).toBe(
+      `brittle: ${at("xlsx-long-sheet-name.xlsx")}: the sheet name "Four-point bend, lot 7, 2026 (MPa)" has 34 characters; ` +
+        "brittle reads sheet names of at most 31, as most spreadsheets allow: rename the sheet\n",
+    );
+  });
+
   it("xlsx-1904-dates: a 1904-system workbook computes with its own serial numbers (dates were 1462 days later, and --out wrote them)", async () => {
     // 2024-03-01 in the 1904 system: 120 years of 365 days, 30 leap days (1904-2020), 31 + 29 days of 2024 = 43890
     // (ECMA-376 Part 1, 18.17.4.1); A1+1 is the next day.
