@@ -9,6 +9,7 @@
  */
 import JSZip from "jszip";
 import { WorkbookError } from "./workbook-errors";
+import { dateSystemEpoch, isoDateCellsToSerials } from "./xlsx-iso-dates";
 
 /** What was taken out, by kind, for the message "not carried over: ...". */
 export type DroppedParts = Record<DroppedKind, number>;
@@ -100,7 +101,19 @@ export async function readablePackage(bytes: Uint8Array, path: string, limits = 
   if (names.length > 0) {
     zip.file("xl/workbook.xml", workbookXml.replace(/<(?:\w+:)?definedNames\b[^>]*>[\s\S]*?<\/(?:\w+:)?definedNames>|<(?:\w+:)?definedNames\b[^>]*\/>/g, ""));
   }
-  if (removed.size === 0 && names.length === 0) return { bytes, dropped, names, sheetOrder };
+  // Date cells written as ISO text (t="d") become serial numbers: the reader would read 2024-03-01 as 2024.
+  const epoch = dateSystemEpoch(workbookXml);
+  let datesRewritten = false;
+  for (const name of Object.keys(zip.files)) {
+    if (!/^xl\/worksheets\/[^/]*\.xml$/i.test(name)) continue;
+    const xml = await zip.file(name)!.async("string");
+    const serials = isoDateCellsToSerials(xml, epoch, `${path}: ${name}`);
+    if (serials !== xml) {
+      zip.file(name, serials);
+      datesRewritten = true;
+    }
+  }
+  if (removed.size === 0 && names.length === 0 && !datesRewritten) return { bytes, dropped, names, sheetOrder };
   // A chart sheet is a sheet of the workbook: the sheet list must lose it too, or the reader looks for it.
   const chartSheetIds = await relationshipIds(zip, "xl/_rels/workbook.xml.rels", /\/chartsheet"/);
   for (const name of removed) zip.remove(name);

@@ -165,6 +165,27 @@ describe("workbooks (built by make-hostile-workbooks.ts)", () => {
     );
   });
 
+  it("xlsx-iso-date-cells: a date stored as ISO text (cell type d) is its serial number (2024-03-01 was read as 2024)", async () => {
+    const io = capture();
+    expect(await main(["calc", at("xlsx-iso-date-cells.xlsx"), "--json"], io)).toBe(0);
+    // 1900 system (ECMA-376 Part 1, 18.17.4.1): from 1 March 1900 on, the days since 1899-12-30, here by ECMAScript Date.UTC;
+    // 28 February 1900 is day 31 + 28 = 59 counted from 1 January 1900 as day 1.
+    const day = (Date.UTC(2024, 2, 1) - Date.UTC(1899, 11, 30)) / 86400000;
+    expect(JSON.parse(io.stdout).Dates).toEqual([
+      [day, day + 1],
+      [59, 59],
+    ]);
+  });
+
+  it("a date cell whose text is not an ISO date is refused with its cell; an empty date cell leaves the next cells alone", async () => {
+    const { isoDateCellsToSerials } = await import("../cli/xlsx-iso-dates");
+    expect(() => isoDateCellsToSerials('<c r="C3" t="d"><v>01/03/2024</v></c>', 25569, "book.xlsx: xl/worksheets/sheet1.xml")).toThrow(
+      'book.xlsx: xl/worksheets/sheet1.xml, cell C3: the date "01/03/2024" is not an ISO 8601 date (YYYY-MM-DD or YYYY-MM-DDThh:mm:ss)',
+    );
+    const xml = '<c r="A1" t="d"/><c r="B1"><v>5</v></c><c r="C1" t="d"><v>1904-01-02</v></c>';
+    expect(isoDateCellsToSerials(xml, 24107, "p")).toBe('<c r="A1" t="d"/><c r="B1"><v>5</v></c><c r="C1"><v>1</v></c>'); // day 1 of the 1904 system
+  });
+
   it("xlsx-1904-dates: a 1904-system workbook computes with its own serial numbers (dates were 1462 days later, and --out wrote them)", async () => {
     // 2024-03-01 in the 1904 system: 120 years of 365 days, 30 leap days (1904-2020), 31 + 29 days of 2024 = 43890
     // (ECMA-376 Part 1, 18.17.4.1); A1+1 is the next day.
