@@ -95,6 +95,11 @@ describe("hostile check files (test/fixtures/hostile/check-*)", () => {
     "check-line-comment.check.json": { field: "", message: /^not a JSON file: line 42, column 20: .*comments are not allowed in JSON/, guards: "a comment refused without saying so" },
     "check-block-comment.check.json": { field: "", message: /^not a JSON file: .*comments are not allowed in JSON/, guards: "a leading comment refused without a place or a reason" },
     "check-trailing-comma.check.json": { field: "", message: /^not a JSON file: line 45, column 1: .*a comma before a closing bracket/, guards: "a trailing comma refused without saying so" },
+    "check-decimal-commas-in-list.check.json": { field: "material.strengths", message: /separates numbers by "," in some places and ", " in others: decimal commas\?/, guards: "decimal commas in a list read as twice as many strengths" },
+    "check-nan-literal.check.json": { field: "", message: /^not a JSON file: line 41, column 20: .*a word where a number belongs/, guards: "a refusal spread over two lines without a place" },
+    "check-plus-sign.check.json": { field: "", message: /^not a JSON file: line 41, column 20: .*no plus sign/, guards: "a refusal spread over two lines without a place" },
+    "check-single-quotes.check.json": { field: "", message: /^not a JSON file: line 21, column 3: .*double quotes/, guards: "single quotes refused without saying so" },
+    "check-decimal-comma-number.check.json": { field: "", message: /^not a JSON file: line 41, column 24: .*decimal comma\?/, guards: "a decimal comma refused as a missing property name" },
     "check-ragged-table.check.json": { field: "part.stresses[1]", message: /needs at least 3 entries \(got 2\)/, guards: "a ragged element table shifting stresses between elements" },
   };
   const files = readdirSync(HOSTILE).filter((f) => f.startsWith("check-"));

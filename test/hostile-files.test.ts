@@ -49,6 +49,20 @@ describe("design-check files", () => {
     expect([lines[38].trim(), lines[39].trim()]).toEqual(['"survival": 0.9999,', '"survival": 0.9']);
   });
 
+  it("check-decimal-commas-in-list: [412,5, 398,1, ...] is refused, not read as twenty strengths (the verdict came from 412, 5, 398, 1, ...)", async () => {
+    const io = capture();
+    expect(await main(["check", at("check-decimal-commas-in-list.check.json"), "--json"], io)).toBe(2);
+    // Line 7 of the file holds the list, typed with decimal commas (read off the file).
+    expect(JSON.parse(io.stdout).error).toMatchObject({ field: "material.strengths" });
+    expect(io.stderr).toMatch(/: material\.strengths: line 7: \[412,5, 398,1, .*\.\.\. separates numbers by "," in some places and ", " in others: decimal commas\?/);
+    // A list written one way throughout is read as written, nested lists are named by their place.
+    const { mixedListSeparators } = await import("../src/design/json-decimal-commas");
+    const { pathAt } = await import("../src/design/json-duplicate-keys");
+    expect(mixedListSeparators('{"s": [412.5,398.1,455], "t": [1, 2, 3]}')).toBeNull();
+    const nested = '{"part": {"stresses": [[1, 2, 3], [100,5, 0, 0]]}}';
+    expect(pathAt(nested, mixedListSeparators(nested)!.position + 1)).toBe("part.stresses[1]");
+  });
+
   it("the duplicate-key scan follows nesting, arrays and escaped quotes, and passes distinct keys", () => {
     expect(firstDuplicateKey('{"a": {"b": 1}, "c": {"b": 2}, "d": [{"x": 1}, {"x": 2}]}')).toBeNull();
     expect(firstDuplicateKey('{"k\\"": "a\\"b", "k": 1, "k\\"": 2}')).toEqual({ path: "", key: 'k"', firstLine: 1, line: 1 });
@@ -207,6 +221,11 @@ describe("hand-edited check files that are not JSON", () => {
     ["check-line-comment.check.json", /: not a JSON file: line 42, column 20: .* \(comments are not allowed in JSON: remove them\)\n$/],
     ["check-block-comment.check.json", /: not a JSON file: .*\(comments are not allowed in JSON: remove them\)\n$/],
     ["check-trailing-comma.check.json", /: not a JSON file: line 45, column 1: .* \(a comma before a closing bracket is not allowed in JSON: remove it\)\n$/],
+    // Line 41 holds `"appliedStress": NaN,` (or +150, or 150,5), the value from column 20; line 21 holds `'stressUnit': 'MPa',`.
+    ["check-nan-literal.check.json", /: not a JSON file: line 41, column 20: Unexpected token 'N' \(a word where a number belongs: JSON numbers are digits\)\n$/],
+    ["check-plus-sign.check.json", /: not a JSON file: line 41, column 20: Unexpected token '\+' \(a JSON number has no plus sign: remove it\)\n$/],
+    ["check-single-quotes.check.json", /: not a JSON file: line 21, column 3: .* \(JSON takes double quotes around names and text\)\n$/],
+    ["check-decimal-comma-number.check.json", /: not a JSON file: line 41, column 24: .* \(a decimal comma\? JSON numbers take a point: 150\.5, not 150,5\)\n$/],
   ];
   for (const [name, message] of cases) {
     it(`${name}: refused in one line that says what to remove (the reader's own words only, before)`, async () => {

@@ -14,7 +14,8 @@
  */
 import { CHECK_FORMAT, CHECK_FORMAT_VERSION, type CheckDescription } from "./check-description";
 import { CheckFieldError, validateCheckDescription } from "./check-validate";
-import { firstDuplicateKey } from "./json-duplicate-keys";
+import { mixedListSeparators } from "./json-decimal-commas";
+import { firstDuplicateKey, pathAt } from "./json-duplicate-keys";
 
 export { CheckFieldError } from "./check-validate";
 
@@ -65,6 +66,13 @@ export function parseCheckFile(text: string): CheckDescription {
     throw new CheckFieldError(
       twice.path === "" ? twice.key : `${twice.path}.${twice.key}`,
       `written twice (lines ${twice.firstLine} and ${twice.line}); a JSON reader would keep only the last one: remove the one you do not mean`,
+    );
+  }
+  const mixed = mixedListSeparators(body);
+  if (mixed) {
+    throw new CheckFieldError(
+      pathAt(body, mixed.position + 1),
+      `line ${mixed.line}: ${mixed.text} separates numbers by "," in some places and ", " in others: decimal commas? JSON numbers take a point (412.5, not 412,5)`,
     );
   }
   if (typeof value !== "object" || value === null || Array.isArray(value)) {
@@ -138,26 +146,45 @@ function pretty(value: unknown, indent: string): string {
 function syntaxWhere(text: string, error: unknown): string {
   const message = error instanceof Error ? error.message : String(error);
   const at = /position (\d+)/.exec(message);
-  if (!at) {
-    // Some syntax errors come without a position: the token still says what it was.
-    if (/^Unexpected token '\/'/.test(message)) return message + COMMENT_HINT;
-    if (/^Unexpected token '[\]}]'/.test(message) && /,\s*[\]}]/.test(text)) return message + TRAILING_COMMA_HINT;
-    return message;
-  }
-  const position = Number(at[1]);
+  const token = TOKEN_IN_CONTEXT.exec(message);
+  const position = at ? Number(at[1]) : token ? tokenPosition(text, token) : null;
+  if (position === null) return message;
   const before = text.slice(0, position);
   const line = before.split("\n").length;
   const column = position - before.lastIndexOf("\n");
-  return `line ${line}, column ${column}: ${message.replace(/\s*in JSON at position \d+.*$/, "").replace(/\s*\(line \d+ column \d+\)$/, "")}${editHint(text, position)}`;
+  const what = token ? `Unexpected token '${token[1]}'` : message.replace(/\s*in JSON at position \d+.*$/, "").replace(/\s*\(line \d+ column \d+\)$/, "");
+  return `line ${line}, column ${column}: ${what}${editHint(text, position)}`;
+}
+
+/**
+ * The reader's message for some errors gives no position, only the text around the token (which may
+ * span lines): `Unexpected token 'N', ..."Stress": NaN, "l"... is not valid JSON`. The context runs
+ * from 10 characters before the token (V8's JSON parser; "..." when cut) to 10 after it.
+ */
+const TOKEN_IN_CONTEXT = /^Unexpected token '(.)', (\.\.\.)?"([\s\S]*?)"(\.\.\.)? is not valid JSON$/;
+
+function tokenPosition(text: string, m: RegExpExecArray): number | null {
+  const [, token, cutBefore, context, cutAfter] = m;
+  if (cutBefore) {
+    const at = text.indexOf(context);
+    return at < 0 ? null : at + 10;
+  }
+  if (cutAfter) return context.length - 10;
+  const at = text.indexOf(token);
+  return at < 0 ? null : at;
 }
 
 const COMMENT_HINT = " (comments are not allowed in JSON: remove them)";
-const TRAILING_COMMA_HINT = " (a comma before a closing bracket is not allowed in JSON: remove it)";
 
-/** What a hand-edited file most often holds at a syntax error: a comment, or a comma before a closing bracket. */
+/** What a hand-edited file most often holds at a syntax error, and what to do about it. */
 function editHint(text: string, position: number): string {
-  if (text.startsWith("//", position) || text.startsWith("/*", position)) return COMMENT_HINT;
-  const closing = text[position] === "}" || text[position] === "]";
-  if (closing && /,\s*$/.test(text.slice(Math.max(0, position - 200), position))) return TRAILING_COMMA_HINT;
+  const rest = text.slice(position, position + 10);
+  const before = text.slice(Math.max(0, position - 200), position);
+  if (rest.startsWith("//") || rest.startsWith("/*")) return COMMENT_HINT;
+  if (/^[\]}]/.test(rest) && /,\s*$/.test(before)) return " (a comma before a closing bracket is not allowed in JSON: remove it)";
+  if (/^-?(NaN|Infinity)/.test(rest)) return " (a word where a number belongs: JSON numbers are digits)";
+  if (rest.startsWith("+")) return " (a JSON number has no plus sign: remove it)";
+  if (rest.startsWith("'")) return " (JSON takes double quotes around names and text)";
+  if (/^\d/.test(rest) && /\d,\s*$/.test(before)) return " (a decimal comma? JSON numbers take a point: 150.5, not 150,5)";
   return "";
 }

@@ -30,9 +30,25 @@ interface Frame {
  * @example firstDuplicateKey('{"a": 1,\n "a": 2}') // { path: "", key: "a", firstLine: 1, line: 2 }
  */
 export function firstDuplicateKey(text: string): DuplicateKey | null {
+  return walk(text, text.length).duplicate;
+}
+
+/**
+ * The dotted path of the value that holds the character at `position` of a valid JSON text
+ * ("material.strengths" for a number inside that list; "part.stresses[1]" inside a nested list).
+ * @example pathAt('{"m": {"s": [1, 2]}}', 13) // "m.s"
+ */
+export function pathAt(text: string, position: number): string {
+  const stack = walk(text, position).stack;
+  const top = stack[stack.length - 1];
+  return top ? top.path : "";
+}
+
+/** Scans valid JSON up to `end`, tracking the open objects and lists, and stops at a duplicate key. */
+function walk(text: string, end: number): { duplicate: DuplicateKey | null; stack: Frame[] } {
   const stack: Frame[] = [];
   let line = 1;
-  const n = text.length;
+  const n = Math.min(end, text.length);
   for (let i = 0; i < n; i++) {
     const c = text.charCodeAt(i);
     if (c === 10) line++;
@@ -40,12 +56,12 @@ export function firstDuplicateKey(text: string): DuplicateKey | null {
       // A string: find its end (a backslash escapes the next character).
       const start = i + 1;
       let j = start;
-      while (j < n && text.charCodeAt(j) !== 34) j += text.charCodeAt(j) === 92 ? 2 : 1;
+      while (j < text.length && text.charCodeAt(j) !== 34) j += text.charCodeAt(j) === 92 ? 2 : 1;
       const top = stack[stack.length - 1];
       if (top && top.keys && top.expectKey) {
         const key = JSON.parse(text.slice(start - 1, j + 1)) as string;
         const seen = top.keys.get(key);
-        if (seen !== undefined) return { path: top.path, key, firstLine: seen, line };
+        if (seen !== undefined) return { duplicate: { path: top.path, key, firstLine: seen, line }, stack };
         top.keys.set(key, line);
         top.key = key;
         top.expectKey = false;
@@ -62,7 +78,7 @@ export function firstDuplicateKey(text: string): DuplicateKey | null {
       else top.index++;
     }
   }
-  return null;
+  return { duplicate: null, stack };
 }
 
 function join(path: string, key: string): string {
