@@ -200,6 +200,15 @@ describe("workbooks (built by make-hostile-workbooks.ts)", () => {
     expect(isoDateCellsToSerials(xml, 24107, "p")).toBe('<c r="A1" t="d"/><c r="B1"><v>5</v></c><c r="C1"><v>1</v></c>'); // day 1 of the 1904 system
   });
 
+  it("xlsx-hidden-sheet-and-dimension: a hidden sheet, a percent cell, formulas without cached values and a lying dimension tag read as they are", async () => {
+    const io = capture();
+    expect(await main(["calc", at("xlsx-hidden-sheet-and-dimension.xlsx"), "--json"], io)).toBe(0);
+    const grids = JSON.parse(io.stdout);
+    expect(grids.Data.map((r: number[]) => r[0])).toEqual(data.strengths); // all ten rows, though the dimension says A1
+    expect(relativeError(grids.Summary[0][0], data.ml.shapeFloat)).toBeLessThan(1e-12); // mpmath, weibull_fits.json
+    expect(grids.Summary[0].slice(1)).toEqual([0.9, 0.9 * 2]); // 90 % is the number 0.9; B1*2 by ECMAScript arithmetic
+  });
+
   it("xlsx-1904-dates: a 1904-system workbook computes with its own serial numbers (dates were 1462 days later, and --out wrote them)", async () => {
     // 2024-03-01 in the 1904 system: 120 years of 365 days, 30 leap days (1904-2020), 31 + 29 days of 2024 = 43890
     // (ECMA-376 Part 1, 18.17.4.1); A1+1 is the next day.
