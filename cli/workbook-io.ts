@@ -40,8 +40,9 @@ export async function loadWorkbook(path: string, csv: DialectChoice = {}): Promi
   const lower = path.toLowerCase();
   if (lower.endsWith(".csv")) {
     try {
-      const { rows, dialect, encoding } = readCsvBytes(await readBytes(path), csv);
-      return { kind: "csv", sheets: { [sheetNameFor(path)]: rows }, readAs: describeReading(encoding, dialect) };
+      const { rows, dialect, encoding, endOfFileMark } = readCsvBytes(await readBytes(path), csv);
+      const readAs = describeReading(encoding, dialect) + (endOfFileMark ? "; the end-of-file mark (Ctrl-Z) after the last line is no row" : "");
+      return { kind: "csv", sheets: { [sheetNameFor(path)]: rows }, readAs };
     } catch (error) {
       if (error instanceof InputError) throw new WorkbookError(`${path}: ${error.message}`);
       throw error;
@@ -76,10 +77,12 @@ function sheetNameFor(path: string): string {
  * src/input settles them; one row per record, as a spreadsheet opens it
  * (a blank line is an empty row; a quoted line end stays inside its row).
  */
-export function readCsvBytes(bytes: Uint8Array, choice: DialectChoice = {}): { rows: Contents[][]; dialect: Dialect; encoding: TextEncodingName } {
+export function readCsvBytes(
+  bytes: Uint8Array,
+  choice: DialectChoice = {},
+): { rows: Contents[][]; dialect: Dialect; encoding: TextEncodingName; endOfFileMark: boolean } {
   const { text, encoding } = decodeText(bytes);
-  const { rows, dialect } = readCsvText(text, choice);
-  return { rows, dialect, encoding };
+  return { ...readCsvText(text, choice), encoding };
 }
 
 /** CSV text (RFC 4180 quoting; see src/input/delimited-text.ts). Numbers and TRUE/FALSE become values. */
@@ -87,8 +90,11 @@ export function parseCsv(text: string, choice: DialectChoice = {}): Contents[][]
   return readCsvText(text, choice).rows;
 }
 
-function readCsvText(text: string, choice: DialectChoice): { rows: Contents[][]; dialect: Dialect } {
-  const full = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+function readCsvText(text: string, choice: DialectChoice): { rows: Contents[][]; dialect: Dialect; endOfFileMark: boolean } {
+  const withMark = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
+  // A Ctrl-Z after the last line is the end-of-file mark of older DOS and Windows programs, not a row.
+  const endOfFileMark = withMark.endsWith("\x1a");
+  const full = endOfFileMark ? withMark.slice(0, -1) : withMark;
   // A first line "sep=;" states the delimiter and is no row, as a spreadsheet opens the file. It is
   // blanked rather than cut, so messages keep naming the lines of the file.
   const hint = separatorHint(full);
@@ -102,7 +108,7 @@ function readCsvText(text: string, choice: DialectChoice): { rows: Contents[][];
   for (const record of records) {
     rows.push(record.fields.map((f, k) => (f.quoted ? quotedValue(f.text, dialect, record.line, k + 1) : csvValue(f.text, dialect, record.line, k + 1))));
   }
-  return { rows, dialect };
+  return { rows, dialect, endOfFileMark };
 }
 
 function hintedDelimiter(hint: SeparatorHint): Delimiter {

@@ -260,3 +260,22 @@ describe("thousands separators of other locales", () => {
     }
   });
 });
+
+describe("the end-of-file mark (Ctrl-Z) of older DOS and Windows programs", () => {
+  it("csv-ctrl-z-end: no row, and the read line says so (it was 'line 2 has 1 field, but line 1 has 2 (delimiter: semicolon)')", async () => {
+    const { code, grid, stderr } = await calcGrid("csv-ctrl-z-end.csv");
+    expect(code).toBe(0);
+    expect(relativeError(grid[1][1] as number, data.ml.shapeFloat)).toBeLessThan(1e-12); // mpmath, weibull_fits.json
+    expect(grid).toHaveLength(11); // the header and ten strengths, as in csv-crlf.csv without the mark
+    expect(stderr).toMatch(/; the end-of-file mark \(Ctrl-Z\) after the last line is no row\n/);
+  });
+
+  it("part-ctrl-z-end: the mark's line is skipped and named (it was 'line 7: expected at least 3 fields as on line 2, found 1')", async () => {
+    const io = capture();
+    expect(await runPartCommand([at("part-ctrl-z-end.csv"), "--modulus", "8", "--scale", "400", "--json"], io), io.stderr).toBe(0);
+    const r = JSON.parse(io.stdout);
+    expect(relativeError(r.effectiveSize, S)).toBeLessThan(1e-14);
+    expect(relativeError(r.failureProbability, Pf)).toBeLessThan(1e-13);
+    expect(io.stderr).toBe("brittle part: skipped line 1 (comment), line 4 (blank), line 7 (end-of-file mark)\n");
+  });
+});

@@ -114,7 +114,7 @@ export interface HotSpot {
 export interface SkippedLines {
   from: number;
   to: number;
-  reason: "header" | "blank" | "comment" | "delimiter line";
+  reason: "header" | "blank" | "comment" | "delimiter line" | "end-of-file mark";
 }
 
 export interface PartStreamResult {
@@ -644,6 +644,11 @@ export class PartTableReader {
     }
     if (this.isBlank(buf, start, end)) {
       this.skip("blank");
+      return;
+    }
+    // A lone Ctrl-Z: the end-of-file mark older DOS and Windows programs write after the last line.
+    if (end === start + 1 && buf[start] === 0x1a) {
+      this.skip("end-of-file mark");
       return;
     }
     let extra = false;
