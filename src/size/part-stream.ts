@@ -370,9 +370,9 @@ export class PartTableReader {
     // A first line "sep=;" states the delimiter (spreadsheet exports write it): skipped, not a header.
     const hint = separatorHint(decodeAscii(text, 0, Math.min(text.length, 16)));
     if (hint) {
-      const named = delimiterByte(hint.delimiter);
+      const named = delimiterByte(hint.delimiter) as number; // one character: never "auto"
       if (this.delimiter !== null && this.delimiter !== named) {
-        throw new InputError("input", `line 1 ("${hint.text}") states the delimiter "${delimiterName(named!)}", but --delimiter says "${delimiterName(this.delimiter)}": remove one`);
+        throw new InputError("input", `line 1 ("${hint.text}") states the delimiter "${delimiterName(named)}", but --delimiter says "${delimiterName(this.delimiter)}": remove one`);
       }
       this.delimiter = named;
       this.hintLine = true;
