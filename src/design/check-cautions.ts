@@ -12,6 +12,7 @@
  * beyond anything the data show (common practice, no source).
  */
 import type { Caution, DesignCheckResult } from "./check-result";
+import { digitsApart, formatNumber } from "./probability-text";
 
 export type { Caution, CautionLevel } from "./check-result";
 
@@ -144,6 +145,22 @@ export function cautionsFor(result: DesignCheckResult): Caution[] {
         "No lower confidence bound is given (" +
         (result.allowableLowerMissing ?? "not available") +
         "). The verdict uses the point estimate, which makes no allowance for the scatter of a finite sample of specimens.",
+    });
+  }
+
+  // A "lower" bound above the point estimate (a low confidence, or the unbiased modulus of a small sample
+  // lowering the estimate): the verdict rests on the bound as asked, but it is the less cautious number.
+  const lower = result.allowableLower;
+  if (lower && lower.value > result.allowablePoint.value) {
+    const unit = result.input.stressUnit;
+    const digits = digitsApart(lower.value, result.allowablePoint.value);
+    out.push({
+      id: "bound-above-estimate",
+      level: "warning",
+      text:
+        `The ${result.confidence.boundLabel} on the inert allowable stress, ${formatNumber(lower.value, digits)} ${unit}, lies above its ` +
+        `point estimate, ${formatNumber(result.allowablePoint.value, digits)} ${unit}: at this confidence the bound is less cautious than ` +
+        "the estimate. The verdict rests on the bound as the check asks; a 95 % one-sided bound is usual for design.",
     });
   }
 
