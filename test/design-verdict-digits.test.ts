@@ -104,3 +104,17 @@ describe("a fail within the last printed figure", () => {
     expect(Number(formatReserveFactor(1 - 2 ** -53))).toBe(1 - 2 ** -53);
   });
 });
+
+describe("a proof stress a hair below the applied stress", () => {
+  it("reads below it in the verdict and in the proof test's line", () => {
+    const d = parseCheckFile(readFileSync(FILE, "utf8"));
+    // The proof stress one double below 200 MPa, above the inert allowable (159.2 MPa, closed form above): it sets the allowable.
+    const proofStress = 200 - 2 ** -45; // 2^-45 is the spacing of doubles in [128, 256) (IEEE 754 binary64)
+    expect(nextUp(proofStress)).toBe(200);
+    const r = runDesignCheck({ ...d, appliedStress: 200, proof: { proofStress } });
+    expectFailReadsAsFail(r);
+    expect(Number(/from the proof stress (\S+) MPa/.exec(r.verdict.text)![1])).toBeLessThan(200);
+    const m = /^Not credited: the applied stress (\S+) MPa exceeds the proof stress (\S+) MPa/.exec(r.proof!.text)!;
+    expect(Number(m[1])).toBeGreaterThan(Number(m[2]));
+  });
+});

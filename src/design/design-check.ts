@@ -349,8 +349,10 @@ function proofCredit(
   const raises = proofStress > inertBasis;
   let text: string;
   if (applied > proofStress) {
+    // Written apart, so a proof stress a hair below the applied stress never reads "200 MPa exceeds 200 MPa".
+    const apart = (x: number) => `${formatNumber(x, digitsApart(applied, proofStress))} ${input.stressUnit}`;
     text =
-      `Not credited: the applied stress ${stress(applied)} exceeds the proof stress ${stress(proofStress)}, so the proof test guarantees nothing at this load` +
+      `Not credited: the applied stress ${apart(applied)} exceeds the proof stress ${apart(proofStress)}, so the proof test guarantees nothing at this load` +
       (raises ? "" : `; the verdict rests on the ${c.basisWord} allowable`) +
       ".";
   } else if (!raises) {
@@ -392,7 +394,7 @@ function verdictText(input: CheckDescription, c: CheckNumbers, confidence: Confi
   const point = c.governing.check === "lifetime" ? c.lifetime!.pointEstimate : Math.max(c.allowablePoint.value, input.proof?.proofStress ?? 0);
   const proofRaised = input.proof !== null && input.proof.proofStress > (c.allowableLower ?? c.allowablePoint).value;
   const basis =
-    (proofRaised ? `from the proof stress ${formatNumber(input.proof!.proofStress)} ${unit}, credited above the ${c.onBound ? confidence.boundLabel : "point estimate"}; ` : "") +
+    (proofRaised ? `from the proof stress ${formatNumber(input.proof!.proofStress, stressDigits(c))} ${unit}, credited above the ${c.onBound ? confidence.boundLabel : "point estimate"}; ` : "") +
     (c.onBound
       ? proofRaised
         ? `point estimate ${formatNumber(point)} ${unit} shown beside, not used`
