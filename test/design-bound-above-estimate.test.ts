@@ -50,7 +50,7 @@ describe("a lower bound above the point estimate", () => {
     const r = runDesignCheck(typedCheck(0.5, (POINT + bound) / 2));
     expect(r.verdict.pass).toBe(true);
     expect(r.verdict.onLowerBound).toBe(true);
-    expect(r.verdict.text).toMatch(/\(50 % one-sided lower bound; point estimate \S+ MPa shown beside, not used\)/);
+    expect(r.verdict.text).toMatch(/\(50 % one-sided lower bound; point estimate \S+ MPa shown beside, not used; /);
     const caution = r.cautions.find((c) => c.id === "bound-above-estimate");
     expect(caution?.level).toBe("warning");
     expect(caution!.text).toMatch(/^The 50 % one-sided lower bound on the inert allowable stress, \S+ MPa, lies above its point estimate, \S+ MPa/);

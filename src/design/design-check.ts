@@ -400,10 +400,17 @@ function verdictText(input: CheckDescription, c: CheckNumbers, confidence: Confi
         ? `point estimate ${formatNumber(point)} ${unit} shown beside, not used`
         : `${confidence.boundLabel}; point estimate ${formatNumber(point)} ${unit} shown beside, not used`
       : "point estimate: no confidence bound, not a design verdict on its own");
+  // The survival target and the size scaling the allowable was computed for, so the sentence quoted alone still says them.
+  const r = input.requirement;
+  const requirement =
+    r.kind === "survival"
+      ? `required survival ${formatProbability(r.survival)} per part`
+      : `allowed failure probability ${formatProbability(c.target.value)} per part, for ${r.allowedFailures} expected failure(s) in a lot of ${input.lotSize}`;
+  const scaling = `part / specimen ${input.flaws === "volume" ? "effective volume" : "effective area"} ${formatNumber(c.sizeRatio.value)}`;
   const numbers = `reserve factor ${formatReserveFactor(c.reserveFactor)}, margin of safety ${formatNumber(c.reserveFactor - 1, 3)}`;
   return c.pass
-    ? `PASS: the applied stress ${applied} is at or below the ${c.governing.name}, ${allowable} (${basis}); ${numbers}.`
-    : `FAIL: the applied stress ${applied} exceeds the ${c.governing.name}, ${allowable} (${basis}); ${numbers}.`;
+    ? `PASS: the applied stress ${applied} is at or below the ${c.governing.name}, ${allowable} (${basis}; ${requirement}, ${scaling}); ${numbers}.`
+    : `FAIL: the applied stress ${applied} exceeds the ${c.governing.name}, ${allowable} (${basis}; ${requirement}, ${scaling}); ${numbers}.`;
 }
 
 /**
