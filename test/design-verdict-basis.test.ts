@@ -3,7 +3,8 @@
  * quoted alone in a design review: which estimate or bound and at what
  * confidence, the survival target, and the size scaling; and the cautions
  * (deferring to local codes and licensed engineers) go with it in every
- * output form: `brittle check` text and --json, and the printed report.
+ * output form: `brittle check` text and --json, the printed report and the
+ * report sheet.
  *
  * References: the expected words are the inputs written out by arithmetic
  * (survival 0.9999 is 99.99 %; part 850 mm^3 over specimen 10 mm^3 is a
@@ -14,7 +15,9 @@ import { describe, expect, it } from "vitest";
 import { checkJson, checkText } from "../cli/check-command";
 import type { CheckDescription } from "../src/design/check-description";
 import { runDesignCheck } from "../src/design/design-check";
+import { adapters } from "../functions/registry";
 import { reportContent } from "../taskpane/export/report-content";
+import { planReportSheet } from "../taskpane/report/sheet-plan";
 
 const STRENGTHS = [445.3, 369.7, 282.1, 390.3, 419.1, 362.8, 365.5, 388.8, 360.5, 407.7, 420.1, 404.1, 412.8, 336, 358.1];
 
@@ -69,6 +72,10 @@ describe("the verdict sentence names its basis in every outcome", () => {
       const printed = reportContent(r, new Date(0));
       expect(printed.verdict.text).toBe(r.verdict.text);
       expect(printed.cautions.some((c) => /licensed engineer/.test(c.text))).toBe(true);
+      const sheet = planReportSheet(r, { functions: new Set(Object.keys(adapters)), cautions: r.cautions, written: new Date(0) });
+      const cells = sheet.blocks.flatMap((block) => block.cells.flat()).filter((c): c is string => typeof c === "string");
+      expect(cells.some((c) => /licensed engineer/.test(c))).toBe(true);
+      expect(cells).toContain(r.basis.find((b) => b.topic === "result")!.text);
     });
   }
 
