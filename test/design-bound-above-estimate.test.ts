@@ -10,9 +10,11 @@
  * s = sigma_theta (-ln S / k)^(1/m) (ASTM C1239 sec. 3; docs/methods.md
  * section 1), written out below. All values are invented.
  */
+import { readFileSync } from "node:fs";
 import { describe, expect, it } from "vitest";
 import { checkJson, checkText } from "../cli/check-command";
 import type { CheckDescription } from "../src/design/check-description";
+import { parseCheckFile } from "../src/design/check-file";
 import { runDesignCheck } from "../src/design/design-check";
 
 function typedCheck(level: number, appliedStress: number): CheckDescription {
@@ -56,6 +58,15 @@ describe("a lower bound above the point estimate", () => {
     expect(caution!.text).toMatch(/^The 50 % one-sided lower bound on the inert allowable stress, \S+ MPa, lies above its point estimate, \S+ MPa/);
     expect(checkText(r)).toContain(`Warning: ${caution!.text}`);
     expect((checkJson(r) as { cautions: { id: string }[] }).cautions.map((c) => c.id)).toContain("bound-above-estimate");
+  });
+
+  it("the hostile file: applied 180 MPa, above the point estimate and below the 50 % bound, passes with the warning", () => {
+    const r = runDesignCheck(parseCheckFile(readFileSync("test/fixtures/hostile/check-bound-above-estimate.check.json", "utf8")));
+    expect(POINT).toBeLessThan(180);
+    expect(r.allowablePoint.value).toBeCloseTo(POINT, 10);
+    expect(r.allowableLower!.value).toBeGreaterThan(180);
+    expect(r.verdict.pass).toBe(true);
+    expect(r.cautions.find((c) => c.id === "bound-above-estimate")?.level).toBe("warning");
   });
 
   it("at 95 % one-sided the bound lies below the point estimate and no such warning is given", () => {

@@ -91,13 +91,21 @@ describe("hostile check files (test/fixtures/hostile/check-*)", () => {
     "check-strengths-as-text.check.json": { field: "material.strengths", message: /expected a list, got text/, guards: "semicolon-separated text taken for data" },
     "check-utf16le-no-bom.check.json": { field: "", message: /UTF-16 without a byte-order mark/, guards: "UTF-16 bytes read as UTF-8 garbage" },
     "check-latin1.check.json": { field: "", message: /not valid UTF-8/, guards: "Latin-1 bytes read with replacement characters" },
+    "check-survival-rounds-to-one.check.json": { field: "requirement.survival", message: /strictly between 0 and 1 \(got 1\)/, guards: "a survival with more nines than a double holds, read as certain survival" },
     "check-ragged-table.check.json": { field: "part.stresses[1]", message: /needs at least 3 entries \(got 2\)/, guards: "a ragged element table shifting stresses between elements" },
   };
   const files = readdirSync(HOSTILE).filter((f) => f.startsWith("check-"));
 
   it("covers every check file in the corpus", () => {
-    // Read and checked: check-fail-within-last-figure in test/design-verdict-digits.test.ts.
-    const accepted = ["check-utf8-bom.check.json", "check-utf16le-bom.check.json", "check-formula-title.check.json", "check-fail-within-last-figure.check.json"];
+    // Read and checked: check-fail-within-last-figure in test/design-verdict-digits.test.ts,
+    // check-bound-above-estimate in test/design-bound-above-estimate.test.ts.
+    const accepted = [
+      "check-utf8-bom.check.json",
+      "check-utf16le-bom.check.json",
+      "check-formula-title.check.json",
+      "check-fail-within-last-figure.check.json",
+      "check-bound-above-estimate.check.json",
+    ];
     expect(files.sort()).toEqual([...Object.keys(expected), ...accepted].sort());
   });
 
