@@ -91,6 +91,7 @@ describe("hostile check files (test/fixtures/hostile/check-*)", () => {
     "check-strengths-as-text.check.json": { field: "material.strengths", message: /expected a list, got text/, guards: "semicolon-separated text taken for data" },
     "check-utf16le-no-bom.check.json": { field: "", message: /UTF-16 without a byte-order mark/, guards: "UTF-16 bytes read as UTF-8 garbage" },
     "check-latin1.check.json": { field: "", message: /not valid UTF-8/, guards: "Latin-1 bytes read with replacement characters" },
+    "check-two-sided-zero.check.json": { field: "confidence.level", message: /must lie above 0 and at most 0\.99 \(got 0\)/, guards: "a refusal whose stated range includes the refused value" },
     "check-survival-rounds-to-one.check.json": { field: "requirement.survival", message: /strictly between 0 and 1 \(got 1\)/, guards: "a survival with more nines than a double holds, read as certain survival" },
     "check-ragged-table.check.json": { field: "part.stresses[1]", message: /needs at least 3 entries \(got 2\)/, guards: "a ragged element table shifting stresses between elements" },
   };
