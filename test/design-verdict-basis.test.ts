@@ -87,3 +87,18 @@ describe("the verdict sentence names its basis in every outcome", () => {
     expect(r.verdict.text).toContain("part / specimen effective area 250)"); // 1000 / 4
   });
 });
+
+describe("the size-scaling caution writes the factor readably at any size", () => {
+  // Factors by arithmetic: 12,500 / 10 = 1,250; 1e10 / 10 = 1e9; 1e301 / 10 = 1e300; 10 / 1e-5 = 1e6.
+  const factor = (partSize: number) => {
+    const r = runDesignCheck(check({ part: { kind: "typed", effectiveSize: partSize }, appliedStress: 1 }));
+    const text = r.cautions.map((c) => c.text).join(" ");
+    return /by a factor of ([^:]+):/.exec(text)?.[1];
+  };
+  it("with digit groups below a million, a power of ten above (never a 300-digit number)", () => {
+    expect(factor(12500)).toBe("1,250");
+    expect(factor(1e10)).toBe("1.00e9");
+    expect(factor(1e301)).toBe("1.00e300");
+    expect(factor(1e-5)).toBe("1.00e6");
+  });
+});

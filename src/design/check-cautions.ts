@@ -233,9 +233,11 @@ export function cautionsFor(result: DesignCheckResult): Caution[] {
   return out;
 }
 
+/** The factor between part and specimen sizes: "1,250" with digit groups, a power of ten beyond a million. */
 function formatRatio(k: number): string {
   const r = k >= 1 ? k : 1 / k;
-  return Number(r.toPrecision(3)).toLocaleString("en-US");
+  const rounded = Number(r.toPrecision(3));
+  return rounded < 1e6 ? rounded.toLocaleString("en-US") : rounded.toExponential(2).replace("e+", "e");
 }
 
 /** The notes that hold for any result, shown before the form is complete. */
