@@ -102,3 +102,15 @@ describe("the size-scaling caution writes the factor readably at any size", () =
     expect(factor(1e-5)).toBe("1.00e6");
   });
 });
+
+describe("a proof stress below the applied stress", () => {
+  it("is not called credited in the verdict sentence, as the proof line says it is not credited", () => {
+    // Invented values: the proof stress 150 MPa lies above the lower-bound allowable at this size (the
+    // basis says the inert allowable is raised to it) but below the applied stress 200 MPa.
+    const r = runDesignCheck(check({ appliedStress: 200, proof: { proofStress: 150 } }));
+    expect(r.verdict.pass).toBe(false);
+    expect(r.proof?.text).toMatch(/^Not credited: the applied stress 200 MPa exceeds the proof stress 150 MPa/);
+    expect(r.verdict.text).toMatch(/^FAIL: .*\(from the proof stress 150 MPa, which the applied stress exceeds; it lies above the 95 % one-sided lower bound; /);
+    expect(r.verdict.text).not.toMatch(/credited/);
+  });
+});

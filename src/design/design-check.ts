@@ -394,7 +394,11 @@ function verdictText(input: CheckDescription, c: CheckNumbers, confidence: Confi
   const point = c.governing.check === "lifetime" ? c.lifetime!.pointEstimate : Math.max(c.allowablePoint.value, input.proof?.proofStress ?? 0);
   const proofRaised = input.proof !== null && input.proof.proofStress > (c.allowableLower ?? c.allowablePoint).value;
   const basis =
-    (proofRaised ? `from the proof stress ${formatNumber(input.proof!.proofStress, stressDigits(c))} ${unit}, credited above the ${c.onBound ? confidence.boundLabel : "point estimate"}; ` : "") +
+    (proofRaised
+      ? `from the proof stress ${formatNumber(input.proof!.proofStress, stressDigits(c))} ${unit}, ` +
+        // Above the proof stress the proof test guarantees nothing (the proof line says "Not credited"): the sentence must not say "credited".
+        `${c.applied <= input.proof!.proofStress ? "credited" : "which the applied stress exceeds; it lies"} above the ${c.onBound ? confidence.boundLabel : "point estimate"}; `
+      : "") +
     (c.onBound
       ? proofRaised
         ? `point estimate ${formatNumber(point)} ${unit} shown beside, not used`
