@@ -4,8 +4,11 @@
  * its basis, every result row and the cautions.
  *
  * Exit status: 0 PASS, 1 FAIL, 2 when no verdict can be given (a bad or
- * unreadable file, a bad option, or inputs the core cannot compute), so a
- * script can never read an error as a failed check or a pass.
+ * unreadable file, a bad option, or inputs the core cannot compute), 3 for a
+ * PASS on the point estimate alone (datasheet values without the number of
+ * specimens: no confidence bound, so not a design verdict on its own). A
+ * script can never read an error as a failed check, nor a provisional pass
+ * as a pass.
  *
  * --json prints one object: {"format": "brittle-design-check-result",
  * "version": 1, "verdict": "PASS" | "FAIL", ...} (docs/check-file.md), or,
@@ -23,6 +26,8 @@ export const CHECK_USAGE = "brittle check FILE.check.json [--json]";
 export const EXIT_PASS = 0;
 export const EXIT_FAIL = 1;
 export const EXIT_BAD_INPUT = 2;
+/** PASS on the point estimate alone: the verdict says it is provisional, and so does the status. */
+export const EXIT_PROVISIONAL_PASS = 3;
 
 interface Io {
   out: (text: string) => void;
@@ -54,7 +59,13 @@ export async function runCheckCommand(args: string[], io: Io): Promise<number> {
     return EXIT_BAD_INPUT;
   }
   io.out(json ? JSON.stringify(checkJson(result)) + "\n" : checkText(result));
-  return result.verdict.pass ? EXIT_PASS : EXIT_FAIL;
+  return exitStatus(result);
+}
+
+/** A FAIL on the point estimate is a FAIL (the bound would only be lower); a PASS needs the bound to count as one. */
+export function exitStatus(result: DesignCheckResult): number {
+  if (!result.verdict.pass) return EXIT_FAIL;
+  return result.verdict.onLowerBound ? EXIT_PASS : EXIT_PROVISIONAL_PASS;
 }
 
 function usage(io: Io, message: string): number {

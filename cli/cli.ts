@@ -15,7 +15,7 @@
  * through a symbolic or hard link either), and an existing output only with
  * --force. --strict exits with EXIT_FORMULA_ERRORS when any formula evaluates
  * to an error, listing the cells on stderr.
- * check reruns a saved design check (exit 0 PASS, 1 FAIL, 2 bad input).
+ * check reruns a saved design check (exit 0 PASS, 1 FAIL, 2 bad input, 3 PASS on the point estimate alone).
  */
 import { existsSync } from "node:fs";
 import { mkdir } from "node:fs/promises";
@@ -40,7 +40,8 @@ calc: FILE is an .xlsx workbook or a .csv sheet whose cells may hold BRITTLE.* f
   mark when the file leaves it ambiguous (docs/files-and-formats.md). --strict: exit code 3 when any
   formula evaluates to an error (the cells are listed on stderr).
 part: FILE is a table of element stresses and sizes (effective size, failure probability, risk shares).
-check: reruns a saved design check and prints the verdict with its basis: exit 0 PASS, 1 FAIL, 2 bad input.
+check: reruns a saved design check and prints the verdict with its basis: exit 0 PASS, 1 FAIL, 2 bad input,
+  3 PASS on the point estimate alone (no confidence bound: provisional).
 demo: evaluates the invented supplier datasheet shipped with the package.`;
 
 export interface Io {

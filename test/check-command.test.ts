@@ -5,7 +5,9 @@
  * reference is the core, run on the parsed file).
  */
 import { execFileSync } from "node:child_process";
-import { readFileSync } from "node:fs";
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { main } from "../cli/cli";
 import { parseCheckFile } from "../src/design/check-file";
@@ -101,4 +103,61 @@ describe("the command's exit status in a real process", () => {
     expect(stdout).toMatch(/^Design check: INVENTED EXAMPLE/);
     expect(stdout).toMatch(/\nFAIL: the applied stress 100 MPa exceeds/);
   }, 60_000);
+});
+
+describe("exit status of a verdict on the point estimate alone", () => {
+  // Datasheet values without the number of specimens give no confidence bound. The inert allowable
+  // point estimate, closed form (ASTM C1239, two-parameter Weibull; k = 1): 400 (-ln 0.9999)^(1/10)
+  // = 159.24 MPa, so 100 MPa passes and 200 MPa fails.
+  const description = (appliedStress: number, specimens?: number) => ({
+    format: "brittle-design-check",
+    version: 1,
+    title: "INVENTED EXAMPLE (made-up values, not for design)",
+    material: { kind: "typed", shape: 10, scale: 400, ...(specimens ? { specimens } : {}) },
+    stressUnit: "MPa",
+    confidence: { level: 0.95, sides: "one-sided" },
+    flaws: "volume",
+    sizeUnit: "mm^3",
+    criterion: "PIA",
+    specimen: { kind: "typed", effectiveSize: 10 },
+    part: { kind: "typed", effectiveSize: 10 },
+    requirement: { kind: "survival", survival: 0.9999 },
+    appliedStress,
+    lotSize: 1000,
+    lifetime: null,
+    proof: null,
+  });
+  const allowable = 400 * (-Math.log(0.9999)) ** (1 / 10);
+  const runOn = async (d: object) => {
+    const dir = mkdtempSync(join(tmpdir(), "brittle-check-"));
+    const file = join(dir, "typed.check.json");
+    writeFileSync(file, JSON.stringify(d));
+    try {
+      return { text: await run(["check", file]), json: await run(["check", file, "--json"]) };
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  };
+
+  it("a PASS on the point estimate exits 3, not 0, and says it is provisional", async () => {
+    expect(100).toBeLessThan(allowable);
+    const { text, json } = await runOn(description(100));
+    expect(text.code).toBe(3);
+    expect(json.code).toBe(3);
+    expect(text.out).toMatch(/PASS: .*point estimate: no confidence bound, not a design verdict on its own/);
+    expect(JSON.parse(json.out)).toMatchObject({ verdict: "PASS", onLowerBound: false });
+  });
+  it("a FAIL on the point estimate exits 1 (a bound could only be lower)", async () => {
+    expect(200).toBeGreaterThan(allowable);
+    const { text } = await runOn(description(200));
+    expect(text.code).toBe(1);
+  });
+  it("with the number of specimens the same PASS rests on the bound and exits 0", async () => {
+    const { json } = await runOn(description(100, 30));
+    expect(JSON.parse(json.out)).toMatchObject({ verdict: "PASS", onLowerBound: true });
+    expect(json.code).toBe(0);
+  });
+  it("is listed in --help", async () => {
+    expect((await run(["--help"])).out).toMatch(/3 PASS on the point estimate alone/);
+  });
 });

@@ -100,12 +100,22 @@ describe("hostile check files (test/fixtures/hostile/check-*)", () => {
     "check-plus-sign.check.json": { field: "", message: /^not a JSON file: line 41, column 20: .*no plus sign/, guards: "a refusal spread over two lines without a place" },
     "check-single-quotes.check.json": { field: "", message: /^not a JSON file: line 21, column 3: .*double quotes/, guards: "single quotes refused without saying so" },
     "check-decimal-comma-number.check.json": { field: "", message: /^not a JSON file: line 41, column 24: .*decimal comma\?/, guards: "a decimal comma refused as a missing property name" },
+    "check-two-sided-zero.check.json": { field: "confidence.level", message: /must lie above 0 and at most 0\.99 \(got 0\)/, guards: "a refusal whose stated range includes the refused value" },
+    "check-survival-rounds-to-one.check.json": { field: "requirement.survival", message: /strictly between 0 and 1 \(got 1\)/, guards: "a survival with more nines than a double holds, read as certain survival" },
     "check-ragged-table.check.json": { field: "part.stresses[1]", message: /needs at least 3 entries \(got 2\)/, guards: "a ragged element table shifting stresses between elements" },
   };
   const files = readdirSync(HOSTILE).filter((f) => f.startsWith("check-"));
 
   it("covers every check file in the corpus", () => {
-    const accepted = ["check-utf8-bom.check.json", "check-utf16le-bom.check.json", "check-formula-title.check.json"];
+    // Read and checked: check-fail-within-last-figure in test/design-verdict-digits.test.ts,
+    // check-bound-above-estimate in test/design-bound-above-estimate.test.ts.
+    const accepted = [
+      "check-utf8-bom.check.json",
+      "check-utf16le-bom.check.json",
+      "check-formula-title.check.json",
+      "check-fail-within-last-figure.check.json",
+      "check-bound-above-estimate.check.json",
+    ];
     expect(files.sort()).toEqual([...Object.keys(expected), ...accepted].sort());
   });
 

@@ -18,6 +18,7 @@ import type { DesignCheckResult } from "../src/design/check-result";
 import { runDesignCheck } from "../src/design/design-check";
 import { planReportSheet, type SheetPlan } from "../taskpane/report/sheet-plan";
 import { freshSheetName, SheetNotEmptyError, writeReportSheet } from "../taskpane/report/sheet-writer";
+import { format as numfmt } from "numfmt";
 import { relativeError } from "./helpers";
 import { input, STRENGTHS } from "./taskpane-inputs";
 
@@ -490,5 +491,44 @@ describe("the functions the sheet calls", () => {
     expect(() => planReportSheet(result, { functions: without, cautions: result.cautions, written: new Date("2026-01-02T03:04:00Z") })).toThrow(
       /calls BRITTLE\.PLOTPOINTS, which this build does not register/,
     );
+  });
+});
+
+describe("the reserve factor and margin beside the verdict, as the spreadsheet shows them", () => {
+  // Rendering reference: numfmt 4.0.1 (npm registry), an implementation of the spreadsheet number
+  // format codes, conditions included. A value on the FAIL side must never be shown as a pass.
+  const result = runDesignCheck(input());
+  const p = plan(result);
+  const formatAt = (key: string) => {
+    const address = p.refs[key].replace(/\$/g, "");
+    const block = p.blocks.find((b) => b.address === address);
+    expect(block?.numberFormat, key).toBeDefined();
+    return block!.numberFormat!;
+  };
+  const reserve = formatAt("reserveFactor");
+  const margin = formatAt("marginOfSafety");
+
+  it("never shows a reserve factor below 1 as 1 or above, and keeps three decimals elsewhere", () => {
+    for (const rf of [0.9995, 0.9996, 0.99999, 0.99999999, 1 - 1e-12, 0.999, 0.5, 0.0123]) {
+      const shown = numfmt(reserve, rf);
+      expect(Number(shown), `${rf} shown as ${shown}`).toBeLessThan(1);
+    }
+    expect(numfmt(reserve, 1)).toBe("1.000");
+    expect(numfmt(reserve, 1.23456)).toBe("1.235");
+    expect(numfmt(reserve, 0.9994)).toBe("0.999");
+    expect(numfmt(reserve, 0.9996)).toBe("0.9996");
+    // The plain three-decimal format this replaces shows the FAIL as a pass:
+    expect(numfmt("0.000", 0.9996)).toBe("1.000");
+  });
+
+  it("never shows a negative margin as zero or positive", () => {
+    for (const m of [-0.0004, -0.0005, -1e-5, -1e-8, -1e-12, -0.001, -0.5, -3]) {
+      const shown = numfmt(margin, m);
+      expect(Number(shown), `${m} shown as ${shown}`).toBeLessThan(0);
+    }
+    expect(numfmt(margin, 0)).toBe("0.000");
+    expect(numfmt(margin, 0.23456)).toBe("0.235");
+    expect(numfmt(margin, -0.5)).toBe("-0.500");
+    expect(numfmt("0.000", -0.0004)).toBe("0.000");
   });
 });

@@ -12,6 +12,7 @@
  * beyond anything the data show (common practice, no source).
  */
 import type { Caution, DesignCheckResult } from "./check-result";
+import { digitsApart, formatNumber } from "./probability-text";
 
 export type { Caution, CautionLevel } from "./check-result";
 
@@ -147,6 +148,22 @@ export function cautionsFor(result: DesignCheckResult): Caution[] {
     });
   }
 
+  // A "lower" bound above the point estimate (a low confidence, or the unbiased modulus of a small sample
+  // lowering the estimate): the verdict rests on the bound as asked, but it is the less cautious number.
+  const lower = result.allowableLower;
+  if (lower && lower.value > result.allowablePoint.value) {
+    const unit = result.input.stressUnit;
+    const digits = digitsApart(lower.value, result.allowablePoint.value);
+    out.push({
+      id: "bound-above-estimate",
+      level: "warning",
+      text:
+        `The ${result.confidence.boundLabel} on the inert allowable stress, ${formatNumber(lower.value, digits)} ${unit}, lies above its ` +
+        `point estimate, ${formatNumber(result.allowablePoint.value, digits)} ${unit}: at this confidence the bound is less cautious than ` +
+        "the estimate. The verdict rests on the bound as the check asks; a 95 % one-sided bound is usual for design.",
+    });
+  }
+
   // Size scaling.
   const k = result.sizeRatio.value;
   out.push({
@@ -216,9 +233,11 @@ export function cautionsFor(result: DesignCheckResult): Caution[] {
   return out;
 }
 
+/** The factor between part and specimen sizes: "1,250" with digit groups, a power of ten beyond a million. */
 function formatRatio(k: number): string {
   const r = k >= 1 ? k : 1 / k;
-  return Number(r.toPrecision(3)).toLocaleString("en-US");
+  const rounded = Number(r.toPrecision(3));
+  return rounded < 1e6 ? rounded.toLocaleString("en-US") : rounded.toExponential(2).replace("e+", "e");
 }
 
 /** The notes that hold for any result, shown before the form is complete. */

@@ -6,7 +6,7 @@
  * probability reads without rounding to 0 % or 100 % (probability-text.ts).
  */
 import type { DesignCheckResult } from "./check-result";
-import { formatNumber, formatProbability, oneIn } from "./probability-text";
+import { digitsApart, formatNumber, formatProbability, formatReserveFactor, oneIn } from "./probability-text";
 
 export interface ResultRow {
   id: string;
@@ -26,7 +26,9 @@ export function probabilityDisplay(p: number): string {
 /** @example resultRows(runDesignCheck(description)).find((row) => row.id === "reserve-factor") */
 export function resultRows(r: DesignCheckResult): ResultRow[] {
   const u = r.input.stressUnit;
-  const stress = (x: number) => `${formatNumber(x)} ${u}`;
+  const stress = (x: number, digits?: number) => `${formatNumber(x, digits)} ${u}`;
+  // The applied stress and the highest that passes, written apart when they differ (design-check.ts).
+  const apart = digitsApart(r.appliedStress.value, r.highestPassingStress.value);
   const p = r.parameters;
   const bound = r.confidence.boundLabel;
   const upper = bound.replace("lower", "upper");
@@ -101,7 +103,7 @@ export function resultRows(r: DesignCheckResult): ResultRow[] {
     }
     rows.push({ id: "proof-credit", label: "Proof-test credit", value: null, display: r.proof.credited ? "credited" : "not credited", basis: r.proof.text });
   }
-  rows.push({ id: "applied", label: "Applied peak stress", value: r.appliedStress.value, display: stress(r.appliedStress.value), basis: r.appliedStress.basis });
+  rows.push({ id: "applied", label: "Applied peak stress", value: r.appliedStress.value, display: stress(r.appliedStress.value, apart), basis: r.appliedStress.basis });
   rows.push({
     id: "pf-applied",
     label: "Failure probability in service, point estimate",
@@ -123,8 +125,8 @@ export function resultRows(r: DesignCheckResult): ResultRow[] {
     { id: "expected-failures", label: `Expected failures per lot, ${lotWord}`, value: r.expectedFailures.value, display: formatNumber(r.expectedFailures.value, 3), basis: r.expectedFailures.basis },
     { id: "failures-bound", label: `Failures per lot not exceeded with ${bound.split(" one-sided")[0]} probability, ${lotWord}`, value: r.failuresUpperBound.value, display: String(r.failuresUpperBound.value), basis: r.failuresUpperBound.basis },
     { id: "governing", label: "Governing check", value: null, display: r.governing.name, basis: r.governing.basis },
-    { id: "highest-passing", label: "Highest applied stress that passes", value: r.highestPassingStress.value, display: stress(r.highestPassingStress.value), basis: r.highestPassingStress.basis },
-    { id: "reserve-factor", label: "Reserve factor (allowable / applied)", value: r.reserveFactor.value, display: formatNumber(r.reserveFactor.value, 3), basis: r.reserveFactor.basis },
+    { id: "highest-passing", label: "Highest applied stress that passes", value: r.highestPassingStress.value, display: stress(r.highestPassingStress.value, apart), basis: r.highestPassingStress.basis },
+    { id: "reserve-factor", label: "Reserve factor (allowable / applied)", value: r.reserveFactor.value, display: formatReserveFactor(r.reserveFactor.value), basis: r.reserveFactor.basis },
     { id: "margin-of-safety", label: "Margin of safety (reserve factor - 1)", value: r.marginOfSafety.value, display: formatNumber(r.marginOfSafety.value, 3), basis: r.marginOfSafety.basis },
   );
   return rows;

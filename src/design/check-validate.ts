@@ -246,7 +246,7 @@ function confidenceOf(value: unknown): ConfidenceDescription {
       "confidence.level",
       sides === "one-sided"
         ? `a one-sided lower bound needs a level from 0.5 to 0.995 (got ${level})`
-        : `a two-sided level must lie from 0 to 0.99 (got ${level})`,
+        : `a two-sided level must lie above 0 and at most 0.99 (got ${level})`,
     );
   }
   return { level, sides };

@@ -39,7 +39,7 @@ import { lifetimeStressFromInert, proofGuaranteedLife } from "./check-time";
 import { convertTime, parseBUnit } from "./check-units";
 import { validateCheckDescription } from "./check-validate";
 import { confidenceConvention } from "./confidence-convention";
-import { formatLevel, formatNumber, formatProbability } from "./probability-text";
+import { digitsApart, formatLevel, formatNumber, formatProbability, formatReserveFactor } from "./probability-text";
 
 /**
  * Runs a design check. Throws CheckFieldError (an InputError) naming the
@@ -104,7 +104,7 @@ export function runDesignCheck(description: CheckDescription): DesignCheckResult
     },
     reserveFactor: {
       value: core.reserveFactor,
-      basis: `reserve factor = governing allowable stress / applied stress (${formatNumber(core.governing.allowable)} / ${formatNumber(core.applied)})`,
+      basis: `reserve factor = governing allowable stress / applied stress (${formatNumber(core.governing.allowable, stressDigits(core))} / ${formatNumber(core.applied, stressDigits(core))})`,
     },
     marginOfSafety: {
       value: core.reserveFactor - 1,
@@ -349,8 +349,10 @@ function proofCredit(
   const raises = proofStress > inertBasis;
   let text: string;
   if (applied > proofStress) {
+    // Written apart, so a proof stress a hair below the applied stress never reads "200 MPa exceeds 200 MPa".
+    const apart = (x: number) => `${formatNumber(x, digitsApart(applied, proofStress))} ${input.stressUnit}`;
     text =
-      `Not credited: the applied stress ${stress(applied)} exceeds the proof stress ${stress(proofStress)}, so the proof test guarantees nothing at this load` +
+      `Not credited: the applied stress ${apart(applied)} exceeds the proof stress ${apart(proofStress)}, so the proof test guarantees nothing at this load` +
       (raises ? "" : `; the verdict rests on the ${c.basisWord} allowable`) +
       ".";
   } else if (!raises) {
@@ -387,21 +389,40 @@ function targetProbability(input: CheckDescription): ResultLine {
 
 function verdictText(input: CheckDescription, c: CheckNumbers, confidence: ConfidenceConvention): string {
   const unit = input.stressUnit;
-  const applied = `${formatNumber(c.applied)} ${unit}`;
-  const allowable = `${formatNumber(c.governing.allowable)} ${unit}`;
+  const applied = `${formatNumber(c.applied, stressDigits(c))} ${unit}`;
+  const allowable = `${formatNumber(c.governing.allowable, stressDigits(c))} ${unit}`;
   const point = c.governing.check === "lifetime" ? c.lifetime!.pointEstimate : Math.max(c.allowablePoint.value, input.proof?.proofStress ?? 0);
   const proofRaised = input.proof !== null && input.proof.proofStress > (c.allowableLower ?? c.allowablePoint).value;
   const basis =
-    (proofRaised ? `from the proof stress ${formatNumber(input.proof!.proofStress)} ${unit}, credited above the ${c.onBound ? confidence.boundLabel : "point estimate"}; ` : "") +
+    (proofRaised
+      ? `from the proof stress ${formatNumber(input.proof!.proofStress, stressDigits(c))} ${unit}, ` +
+        // Above the proof stress the proof test guarantees nothing (the proof line says "Not credited"): the sentence must not say "credited".
+        `${c.applied <= input.proof!.proofStress ? "credited" : "which the applied stress exceeds; it lies"} above the ${c.onBound ? confidence.boundLabel : "point estimate"}; `
+      : "") +
     (c.onBound
       ? proofRaised
         ? `point estimate ${formatNumber(point)} ${unit} shown beside, not used`
         : `${confidence.boundLabel}; point estimate ${formatNumber(point)} ${unit} shown beside, not used`
       : "point estimate: no confidence bound, not a design verdict on its own");
-  const numbers = `reserve factor ${formatNumber(c.reserveFactor, 3)}, margin of safety ${formatNumber(c.reserveFactor - 1, 3)}`;
+  // The survival target and the size scaling the allowable was computed for, so the sentence quoted alone still says them.
+  const r = input.requirement;
+  const requirement =
+    r.kind === "survival"
+      ? `required survival ${formatProbability(r.survival)} per part`
+      : `allowed failure probability ${formatProbability(c.target.value)} per part, for ${r.allowedFailures} expected failure(s) in a lot of ${input.lotSize}`;
+  const scaling = `part / specimen ${input.flaws === "volume" ? "effective volume" : "effective area"} ${formatNumber(c.sizeRatio.value)}`;
+  const numbers = `reserve factor ${formatReserveFactor(c.reserveFactor)}, margin of safety ${formatNumber(c.reserveFactor - 1, 3)}`;
   return c.pass
-    ? `PASS: the applied stress ${applied} is at or below the ${c.governing.name}, ${allowable} (${basis}); ${numbers}.`
-    : `FAIL: the applied stress ${applied} exceeds the ${c.governing.name}, ${allowable} (${basis}); ${numbers}.`;
+    ? `PASS: the applied stress ${applied} is at or below the ${c.governing.name}, ${allowable} (${basis}; ${requirement}, ${scaling}); ${numbers}.`
+    : `FAIL: the applied stress ${applied} exceeds the ${c.governing.name}, ${allowable} (${basis}; ${requirement}, ${scaling}); ${numbers}.`;
+}
+
+/**
+ * The applied stress and the governing allowable are written with the figures that tell them
+ * apart, so a FAIL by less than the last shown figure never reads "100 MPa exceeds 100 MPa".
+ */
+function stressDigits(c: Pick<CheckNumbers, "applied" | "governing">): number {
+  return digitsApart(c.applied, c.governing.allowable);
 }
 
 function basisLines(r: DesignCheckResult, model: StrengthModel): BasisLine[] {
@@ -428,7 +449,7 @@ function basisLines(r: DesignCheckResult, model: StrengthModel): BasisLine[] {
   if (r.proof) lines.push({ topic: "proof test", text: r.proof.text });
   lines.push({ topic: "lot", text: `${r.failuresUpperBound.basis}` });
   if (r.censoring) lines.push({ topic: "censoring", text: r.censoring.text });
-  lines.push({ topic: "result", text: `${r.verdict.pass ? "PASS" : "FAIL"}: highest applied stress that passes ${formatNumber(r.highestPassingStress.value)} ${r.input.stressUnit}; reserve factor ${formatNumber(r.reserveFactor.value, 3)}; margin of safety ${formatNumber(r.marginOfSafety.value, 3)}` });
+  lines.push({ topic: "result", text: `${r.verdict.pass ? "PASS" : "FAIL"}: highest applied stress that passes ${formatNumber(r.highestPassingStress.value, digitsApart(r.highestPassingStress.value, r.appliedStress.value))} ${r.input.stressUnit}; reserve factor ${formatReserveFactor(r.reserveFactor.value)}; margin of safety ${formatNumber(r.marginOfSafety.value, 3)}` });
   return lines;
 }
 

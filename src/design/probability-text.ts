@@ -50,6 +50,30 @@ export function formatNumber(x: number, digits = 4): string {
   return exponential(x, digits - 1);
 }
 
+/**
+ * Significant figures enough to write `x` and `other` as different numbers when they differ
+ * (at least `digits`, at most 17, which tells any two doubles apart). Rounding keeps order, so
+ * two numbers written apart keep their order too: an applied stress above the allowable never
+ * reads as equal to it, and a reserve factor below 1 never reads as 1 beside a FAIL.
+ *
+ * @example formatNumber(0.9996, digitsApart(0.9996, 1, 3)) // "0.9996", where 3 figures give "1"
+ */
+export function digitsApart(x: number, other: number, digits = 4): number {
+  let d = digits;
+  while (d < 17 && x !== other && Number(formatNumber(x, d)) === Number(formatNumber(other, d))) d++;
+  return d;
+}
+
+/**
+ * A reserve factor (allowable / applied) to three figures, more where three would round one
+ * below 1 (a FAIL) up to "1".
+ *
+ * @example formatReserveFactor(0.9996) // "0.9996"
+ */
+export function formatReserveFactor(reserveFactor: number): string {
+  return formatNumber(reserveFactor, reserveFactor < 1 ? digitsApart(reserveFactor, 1, 3) : 3);
+}
+
 function exponential(x: number, decimals = 1): string {
   return x.toExponential(decimals).replace("e+", "e");
 }

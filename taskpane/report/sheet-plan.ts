@@ -68,6 +68,15 @@ const AG = 32;
 const STRESS = "0.0";
 const PROBABILITY = "0.00E+00";
 const RATIO = "0.000";
+/**
+ * The reserve factor and the margin beside the verdict: three decimals, but more where three would
+ * round a FAIL up to look like a pass (0.9996 shown "1.000", -0.0004 shown "0.000"). Spreadsheet
+ * number-format conditions (ECMA-376 Part 1, number format codes) pick the longer form only near the
+ * edge; the sheet's formulas stay live, so the format must follow whatever value they give.
+ * Checked with numfmt, an implementation of the spreadsheet format codes (test/taskpane-report-sheet.test.ts).
+ */
+const RESERVE_FACTOR = "[>=1]0.000;[>=0.9995]0.000###########;0.000";
+const MARGIN = "[>=0]0.000;[>-0.0005]0.000###########;0.000";
 
 export interface PlanOptions {
   /** BRITTLE functions registered in this build. */
@@ -305,8 +314,8 @@ export function planReportSheet(result: DesignCheckResult, options: PlanOptions)
     result1("governing", "Governing allowable stress", `=${inertBasis}`, stressUnit, "the inert allowable, at least the proof stress", STRESS);
     governing = refs.governing;
   }
-  result1("reserveFactor", "Reserve factor (allowable / applied)", `=${governing}/${refs.applied}`, "", refs.allowableLower ? "on the lower-bound allowable" : "on the point estimate: no confidence bound", RATIO);
-  result1("marginOfSafety", "Margin of safety (reserve factor - 1)", `=${refs.reserveFactor}-1`, "", "negative when the applied stress exceeds the allowable", RATIO);
+  result1("reserveFactor", "Reserve factor (allowable / applied)", `=${governing}/${refs.applied}`, "", refs.allowableLower ? "on the lower-bound allowable" : "on the point estimate: no confidence bound", RESERVE_FACTOR);
+  result1("marginOfSafety", "Margin of safety (reserve factor - 1)", `=${refs.reserveFactor}-1`, "", "negative when the applied stress exceeds the allowable", MARGIN);
   result1(
     "verdict",
     "Verdict",
