@@ -279,3 +279,21 @@ describe("the end-of-file mark (Ctrl-Z) of older DOS and Windows programs", () =
     expect(io.stderr).toBe("brittle part: skipped line 1 (comment), line 4 (blank), line 7 (end-of-file mark)\n");
   });
 });
+
+describe("numbers as Fortran programs print them", () => {
+  it("part-fortran-exponent: 1.005D+02 is 1.005E+02 (the D exponent of Fortran's double precision; it was 'is not a number')", async () => {
+    const io = capture();
+    expect(await runPartCommand([at("part-fortran-exponent.txt"), "--modulus", "8", "--scale", "400", "--top", "3", "--json"], io), io.stderr).toBe(0);
+    const r = JSON.parse(io.stdout);
+    // Each value is Number() of the field with D written as E (ECMAScript StringToNumber; D = E from memory, Fortran's D edit descriptor).
+    const rows = readFileSync(at("part-fortran-exponent.txt"), "latin1").trim().split("\n").slice(1).map((l) => l.trim().split(/\s+/));
+    for (const h of r.hotSpots) {
+      const fields = rows[h.line - 2];
+      expect(h.principal, `line ${h.line}`).toEqual([Number(fields[1].replace(/d/i, "E"))]);
+      expect(h.size, `line ${h.line}`).toBe(Number(fields[2].replace(/d/i, "E")));
+    }
+    expect(r.hotSpots).toHaveLength(2); // the two elements in tension
+    expect(relativeError(r.effectiveSize, S)).toBeLessThan(1e-14); // the table of part-european.csv, as above
+    expect(relativeError(r.failureProbability, Pf)).toBeLessThan(1e-13);
+  });
+});
