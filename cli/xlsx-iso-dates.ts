@@ -7,7 +7,13 @@
  */
 import { WorkbookError } from "./workbook-errors";
 
-/** Days from 1970-01-01 back to day 0 of the date system: 1899-12-30 (1900 system) or 1904-01-01. */
+/**
+ * Days from 1970-01-01 back to day 0 of the workbook's date system: 1899-12-30 in the 1900 system
+ * (25569 days), 1904-01-01 in the 1904 system (24107 days: 66 years, 17 of them leap). ECMA-376
+ * Part 1, 18.17.4. The reader turns date cells into Dates with the workbook's system, so the serial
+ * goes back with the same one and a formula computes with the number stored in the file (a 1904
+ * workbook's dates were 1462 days later).
+ */
 export function dateSystemEpoch(workbookXml: string): number {
   return /<(?:\w+:)?workbookPr\b[^>]*\bdate1904="(?:1|true)"/.test(workbookXml) ? 24107 : 25569;
 }

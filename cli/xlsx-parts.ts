@@ -64,6 +64,8 @@ export interface ReadablePackage {
   names: DefinedName[];
   /** The names of the workbook's sheets in order, chart sheets included, for localSheet. */
   sheetOrder: string[];
+  /** Days from 1970-01-01 back to day 0 of the workbook's date system (dateSystemEpoch). */
+  dateEpoch: number;
 }
 
 /** The longest sheet name the workbook reader takes (a spreadsheet's usual limit). */
@@ -113,7 +115,7 @@ export async function readablePackage(bytes: Uint8Array, path: string, limits = 
       datesRewritten = true;
     }
   }
-  if (removed.size === 0 && names.length === 0 && !datesRewritten) return { bytes, dropped, names, sheetOrder };
+  if (removed.size === 0 && names.length === 0 && !datesRewritten) return { bytes, dropped, names, sheetOrder, dateEpoch: epoch };
   // A chart sheet is a sheet of the workbook: the sheet list must lose it too, or the reader looks for it.
   const chartSheetIds = await relationshipIds(zip, "xl/_rels/workbook.xml.rels", /\/chartsheet"/);
   for (const name of removed) zip.remove(name);
@@ -134,7 +136,7 @@ export async function readablePackage(bytes: Uint8Array, path: string, limits = 
       );
     }
   }
-  return { bytes: await zip.generateAsync({ type: "uint8array" }), dropped, names, sheetOrder };
+  return { bytes: await zip.generateAsync({ type: "uint8array" }), dropped, names, sheetOrder, dateEpoch: epoch };
 }
 
 function definedNames(workbookXml: string): DefinedName[] {

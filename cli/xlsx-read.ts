@@ -35,7 +35,7 @@ export async function loadXlsx(path: string, options: XlsxOptions = {}): Promise
     throw new WorkbookError(`cannot read ${path} as an .xlsx workbook: ${String(reason).split("\n")[0]}`);
   }
   const sheets: Record<string, Contents[][]> = {};
-  const epoch = dateEpoch(workbook);
+  const epoch = pkg.dateEpoch;
   let cells = 0;
   workbook.eachSheet((ws) => {
     const grid: Contents[][] = [];
@@ -109,7 +109,8 @@ function textCell(text: string): string {
 }
 
 function plainResult(result: unknown, epoch: number): Contents {
-  if (typeof result === "number" || typeof result === "boolean" || typeof result === "string") return result;
+  if (typeof result === "number" || typeof result === "boolean") return result;
+  if (typeof result === "string") return textCell(result);
   if (result instanceof Date) return excelSerial(result, epoch);
   if (result && typeof result === "object" && "error" in result) return String((result as { error: unknown }).error);
   return null;
@@ -129,18 +130,7 @@ function decodeRange(ref: string): { top: number; left: number; bottom: number; 
   return { top: Math.min(p.row, q.row), left: Math.min(p.col, q.col), bottom: Math.max(p.row, q.row), right: Math.max(p.col, q.col) };
 }
 
-/**
- * Days since 1970-01-01 of a date system's day 0: 1899-12-30 in the 1900 system (25569 days before
- * 1970), 1904-01-01 in the 1904 system (24107 days before; 66 years of which 17 leap). ECMA-376
- * Part 1, 18.17.4 (date systems). The reader turns a date cell into a Date with the workbook's
- * system; the serial goes back with the same one, so a formula computes with the number stored
- * in the file (a 1904 workbook's dates were 1462 days later).
- */
-function dateEpoch(workbook: ExcelJS.Workbook): number {
-  return (workbook.properties as { date1904?: boolean }).date1904 ? 24107 : 25569;
-}
-
-/** The serial number of a date in the workbook's date system. */
+/** The serial number of a date in the workbook's date system (its epoch: xlsx-iso-dates.ts). */
 function excelSerial(d: Date, epoch: number): number {
   return d.getTime() / 86400000 + epoch;
 }
