@@ -36,7 +36,8 @@ function isSpace(b: number): boolean {
 export function decodeAscii(buf: Uint8Array, start: number, end: number): string {
   let s = "";
   for (let i = start; i < end; i += 4096) {
-    s += String.fromCharCode.apply(null, Array.from(buf.subarray(i, Math.min(end, i + 4096))));
+    // apply takes the typed array itself as its argument list (ECMA-262 CreateListFromArrayLike): no copy into an Array.
+    s += String.fromCharCode.apply(null, buf.subarray(i, Math.min(end, i + 4096)) as unknown as number[]);
   }
   return s;
 }
