@@ -162,7 +162,7 @@ describe("workbooks (built by make-hostile-workbooks.ts)", () => {
     // SUM and COUNT skip text in a reference (ECMA-376 Part 1, 18.17.7, SUM and COUNT; from memory).
     expect(grid[0][1]).toBe(0);
     expect(grid[1][1]).toBe(0);
-    // Text in a range of strengths is #VALUE! naming its row (the cell policy, ../shared/DESIGN.md).
+    // Text in a range of strengths is #VALUE! naming its row (the error policy, README "Errors in cells" and docs/functions.md).
     expect(grid[2][1]).toBe("#VALUE!");
     expect(io.stderr).toMatch(/^Data!B3: #VALUE!: strengths, row 1 is not a number$/m);
     expect(relativeError(grid[0][3] as number, data.ml.shapeFloat)).toBeLessThan(1e-12); // the same values as numbers: mpmath, weibull_fits.json
