@@ -13,6 +13,7 @@ import { main } from "../cli/cli";
 import { parseCheckFile } from "../src/design/check-file";
 import { resultRows } from "../src/design/check-rows";
 import { runDesignCheck } from "../src/design/design-check";
+import { input } from "./taskpane-inputs";
 
 async function run(args: string[]): Promise<{ code: number; out: string; err: string }> {
   let out = "";
@@ -113,19 +114,12 @@ describe("exit status of a verdict on the point estimate alone", () => {
     format: "brittle-design-check",
     version: 1,
     title: "INVENTED EXAMPLE (made-up values, not for design)",
-    material: { kind: "typed", shape: 10, scale: 400, ...(specimens ? { specimens } : {}) },
-    stressUnit: "MPa",
-    confidence: { level: 0.95, sides: "one-sided" },
-    flaws: "volume",
-    sizeUnit: "mm^3",
-    criterion: "PIA",
-    specimen: { kind: "typed", effectiveSize: 10 },
-    part: { kind: "typed", effectiveSize: 10 },
-    requirement: { kind: "survival", survival: 0.9999 },
-    appliedStress,
-    lotSize: 1000,
-    lifetime: null,
-    proof: null,
+    ...input({
+      material: { kind: "typed", shape: 10, scale: 400, ...(specimens ? { specimens } : {}) },
+      specimen: { kind: "typed", effectiveSize: 10 },
+      part: { kind: "typed", effectiveSize: 10 },
+      appliedStress,
+    }),
   });
   const allowable = 400 * (-Math.log(0.9999)) ** (1 / 10);
   const runOn = async (d: object) => {

@@ -16,26 +16,16 @@ import { checkJson, checkText } from "../cli/check-command";
 import type { CheckDescription } from "../src/design/check-description";
 import { parseCheckFile } from "../src/design/check-file";
 import { runDesignCheck } from "../src/design/design-check";
+import { input } from "./taskpane-inputs";
 
 function typedCheck(level: number, appliedStress: number): CheckDescription {
-  return {
-    format: "brittle-design-check",
-    version: 1,
-    title: "INVENTED EXAMPLE (made-up values, not for design)",
+  return input({
     material: { kind: "typed", shape: 10, scale: 400, specimens: 3, unbiased: true },
-    stressUnit: "MPa",
     confidence: { level, sides: "one-sided" },
-    flaws: "volume",
-    sizeUnit: "mm^3",
-    criterion: "PIA",
     specimen: { kind: "typed", effectiveSize: 10 },
     part: { kind: "typed", effectiveSize: 10 },
-    requirement: { kind: "survival", survival: 0.9999 },
     appliedStress,
-    lotSize: 10000,
-    lifetime: null,
-    proof: null,
-  } as CheckDescription;
+  });
 }
 
 // Weibull quantile at S = 0.9999, m = 10, sigma_theta = 400 MPa, k = 1 (ASTM C1239 sec. 3).
