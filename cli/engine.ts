@@ -172,7 +172,14 @@ export interface NamedRange {
  */
 const DENSE_FILL_THRESHOLD = 0.25;
 
-export function createEngine(sheets: Record<string, unknown[][]>, metadata: FunctionMetadata[]): HyperFormula {
+/** Day 0 of the 1904 date system (ECMA-376 Part 1, 18.17.4.1), as the engine's option takes it. */
+const NULL_DATE_1904 = { year: 1904, month: 1, day: 1 };
+
+/**
+ * options.date1904: the workbook counts dates from 1904-01-01, so DATE, YEAR and the like must too
+ * (with the engine's default day 0, 1899-12-30, DATE(2024,3,1) gave a number 1462 days too large).
+ */
+export function createEngine(sheets: Record<string, unknown[][]>, metadata: FunctionMetadata[], options: { date1904?: boolean } = {}): HyperFormula {
   registerFunctions(metadata);
   const normalised = Object.fromEntries(
     Object.entries(sheets).map(([name, rows]) => [
@@ -192,6 +199,7 @@ export function createEngine(sheets: Record<string, unknown[][]>, metadata: Func
       useArrayArithmetic: false,
       smartRounding: false,
       precisionRounding: 0,
+      ...(options.date1904 ? { nullDate: NULL_DATE_1904 } : {}),
     },
     LOGICAL_CONSTANTS,
   );

@@ -41,7 +41,7 @@ export interface ShownCell {
 }
 
 export function evaluateWorkbook(workbook: LoadedWorkbook, metadata: FunctionMetadata[]): Evaluation {
-  const engine = createEngine(workbook.sheets, metadata);
+  const engine = createEngine(workbook.sheets, metadata, { date1904: workbook.date1904 === true });
   const { names, tooLarge } = namedRanges(workbook, engine);
   const refusedNames = [...tooLarge, ...addNamedRanges(engine, names)];
   const grids: Record<string, Shown[][]> = {};

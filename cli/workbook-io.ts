@@ -33,6 +33,8 @@ export interface LoadedWorkbook {
   names?: DefinedName[];
   /** An .xlsx's sheet names in file order (chart sheets included), to place sheet-scoped names. */
   sheetOrder?: string[];
+  /** An .xlsx in the 1904 date system: the engine's date functions must count from 1904-01-01 too. */
+  date1904?: boolean;
 }
 
 /** `csv`: how to read a .csv when detection is not wanted (--decimal-comma, --decimal-point). */

@@ -15,8 +15,12 @@ import { WorkbookError } from "./workbook-errors";
  * workbook's dates were 1462 days later).
  */
 export function dateSystemEpoch(workbookXml: string): number {
-  return /<(?:\w+:)?workbookPr\b[^>]*\bdate1904="(?:1|true)"/.test(workbookXml) ? 24107 : 25569;
+  return /<(?:\w+:)?workbookPr\b[^>]*\bdate1904="(?:1|true)"/.test(workbookXml) ? EPOCH_1904 : EPOCH_1900;
 }
+
+/** dateSystemEpoch's two answers: the 1900 system (day 0 = 1899-12-30) and the 1904 system (day 0 = 1904-01-01). */
+export const EPOCH_1900 = 25569;
+export const EPOCH_1904 = 24107;
 
 /** A cell of type "d" with content: its prefix, the attributes around the type, and what it holds. */
 const CELL = /<((?:\w+:)?)c\b([^>]*?)\st="d"((?:[^>/]|\/(?!>))*)>([\s\S]*?)<\/\1c>/g;

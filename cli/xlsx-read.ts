@@ -10,6 +10,7 @@ import { loadExcelJs, type ExcelJS } from "./exceljs-loader";
 import { checkCellCount, EMPTY_ROW, MAX_CONTENT_CELLS } from "./workbook-limits";
 import { WorkbookError } from "./workbook-errors";
 import { readablePackage } from "./xlsx-parts";
+import { EPOCH_1904 } from "./xlsx-iso-dates";
 import type { Contents, LoadedWorkbook } from "./workbook-io";
 
 export interface XlsxOptions {
@@ -75,7 +76,7 @@ export async function loadXlsx(path: string, options: XlsxOptions = {}): Promise
     sheets[ws.name] = grid;
   });
   if (Object.keys(sheets).length === 0) throw new WorkbookError(`${path} has no worksheets`);
-  return { kind: "xlsx", sheets, source: workbook, dropped: pkg.dropped, names: pkg.names, sheetOrder: pkg.sheetOrder };
+  return { kind: "xlsx", sheets, source: workbook, dropped: pkg.dropped, names: pkg.names, sheetOrder: pkg.sheetOrder, date1904: epoch === EPOCH_1904 };
 }
 
 function cellContents(cell: ExcelJS.Cell, epoch: number): Contents {
