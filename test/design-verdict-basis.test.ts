@@ -18,6 +18,7 @@ import { runDesignCheck } from "../src/design/design-check";
 import { adapters } from "../functions/registry";
 import { reportContent } from "../taskpane/export/report-content";
 import { planReportSheet } from "../taskpane/report/sheet-plan";
+import { input } from "./taskpane-inputs";
 
 const STRENGTHS = [445.3, 369.7, 282.1, 390.3, 419.1, 362.8, 365.5, 388.8, 360.5, 407.7, 420.1, 404.1, 412.8, 336, 358.1];
 
@@ -26,20 +27,15 @@ function check(over: Partial<CheckDescription>): CheckDescription {
     format: "brittle-design-check",
     version: 1,
     title: "INVENTED EXAMPLE (made-up data, not for design)",
-    material: { kind: "data", strengths: STRENGTHS, method: "MLE" },
-    stressUnit: "MPa",
-    confidence: { level: 0.95, sides: "one-sided" },
-    flaws: "volume",
-    sizeUnit: "mm^3",
-    criterion: "PIA",
-    specimen: { kind: "typed", effectiveSize: 10 },
-    part: { kind: "typed", effectiveSize: 850 },
-    requirement: { kind: "survival", survival: 0.9999 },
-    appliedStress: 60,
-    lotSize: 10000,
-    lifetime: null,
-    proof: null,
-    ...over,
+    ...input({
+      material: { kind: "data", strengths: STRENGTHS, method: "MLE" },
+      confidence: { level: 0.95, sides: "one-sided" },
+      specimen: { kind: "typed", effectiveSize: 10 },
+      part: { kind: "typed", effectiveSize: 850 },
+      appliedStress: 60,
+      lotSize: 10000,
+      ...over,
+    }),
   } as CheckDescription;
 }
 
