@@ -108,13 +108,15 @@ describe("hostile check files (test/fixtures/hostile/check-*)", () => {
 
   it("covers every check file in the corpus", () => {
     // Read and checked: check-fail-within-last-figure in test/design-verdict-digits.test.ts,
-    // check-bound-above-estimate in test/design-bound-above-estimate.test.ts.
+    // check-bound-above-estimate in test/design-bound-above-estimate.test.ts,
+    // check-fail-probability-prints-as-allowed in test/design-verdict-digits.test.ts.
     const accepted = [
       "check-utf8-bom.check.json",
       "check-utf16le-bom.check.json",
       "check-formula-title.check.json",
       "check-fail-within-last-figure.check.json",
       "check-bound-above-estimate.check.json",
+      "check-fail-probability-prints-as-allowed.check.json",
     ];
     expect(files.sort()).toEqual([...Object.keys(expected), ...accepted].sort());
   });

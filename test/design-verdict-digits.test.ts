@@ -18,7 +18,7 @@ import { parseCheckFile } from "../src/design/check-file";
 import { resultRows } from "../src/design/check-rows";
 import { runDesignCheck } from "../src/design/design-check";
 import type { DesignCheckResult } from "../src/design/check-result";
-import { formatReserveFactor } from "../src/design/probability-text";
+import { formatProbability, formatProbabilityApart, formatReserveFactor } from "../src/design/probability-text";
 
 const FILE = "test/fixtures/hostile/check-fail-within-last-figure.check.json";
 
@@ -116,5 +116,59 @@ describe("a proof stress a hair below the applied stress", () => {
     expect(Number(/from the proof stress (\S+) MPa/.exec(r.verdict.text)![1])).toBeLessThan(200);
     const m = /^Not credited: the applied stress (\S+) MPa exceeds the proof stress (\S+) MPa/.exec(r.proof!.text)!;
     expect(Number(m[1])).toBeGreaterThan(Number(m[2]));
+  });
+});
+
+describe("a failure probability in service that two figures print like the allowed one", () => {
+  const PF_FILE = "test/fixtures/hostile/check-fail-probability-prints-as-allowed.check.json";
+  /** The leading number of a probability display ("1.03e-4 (1 in 9,718)"), as Number() reads it. */
+  const shown = (display: string) => {
+    const text = display.split(" (")[0].split(",")[0];
+    return text.endsWith(" %") ? Number(text.slice(0, -2)) / 100 : Number(text);
+  };
+  const row = (r: DesignCheckResult, id: string) => resultRows(r).find((x) => x.id === id)!.display;
+
+  it("the hostile file: 159.7 MPa fails, and its failure probability 1.029e-4 reads above the allowed 1.0e-4", async () => {
+    // Two-parameter Weibull failure probability P = 1 - exp(-k (s / sigma_theta)^m) (ASTM C1239 sec. 3), k = 1.
+    const expected = -Math.expm1(-((159.7 / 400) ** 10));
+    expect(expected / 1e-4).toBeGreaterThan(1.02);
+    expect(formatProbability(expected)).toBe(formatProbability(1e-4)); // what two figures alone would print: "1.0e-4" twice
+    const r = runDesignCheck(parseCheckFile(readFileSync(PF_FILE, "utf8")));
+    expect(r.verdict.pass).toBe(false);
+    expect(r.failureProbabilityAtApplied.value).toBeCloseTo(expected, 15);
+    expect(shown(row(r, "pf-applied"))).toBeGreaterThan(shown(row(r, "target-pf")));
+    expect(row(r, "pf-applied")).toMatch(/^1\.03e-4 \(1 in 9,7\d\d\)$/);
+
+    let out = "";
+    expect(await main(["check", PF_FILE], { out: (t) => void (out += t), err: () => {} })).toBe(1);
+    expect(out).toContain("1.03e-4");
+  });
+
+  it("on a lower-bound verdict the upper bound reads on the verdict's side of the allowed probability, or says it equals it", () => {
+    const d = parseCheckFile(readFileSync(PF_FILE, "utf8"));
+    const bounded = { ...d, material: { kind: "typed" as const, shape: 10, scale: 400, specimens: 30, unbiased: true } };
+    const lower = runDesignCheck(bounded).governing.allowable;
+    for (const factor of [1.003, 1.0003, 0.997, 0.9997]) {
+      const r = runDesignCheck({ ...bounded, appliedStress: lower * factor });
+      expect(r.verdict.pass).toBe(factor < 1);
+      const upper = shown(row(r, "pf-upper"));
+      const allowed = shown(row(r, "target-pf"));
+      if (factor > 1) expect(upper).toBeGreaterThan(allowed);
+      else expect(upper).toBeLessThan(allowed);
+    }
+    // One double above the allowable: the two probabilities differ only by the solvers' error, and the row says so.
+    const tie = runDesignCheck({ ...bounded, appliedStress: nextUp(lower) });
+    expect(tie.verdict.pass).toBe(false);
+    expect(row(tie, "pf-upper")).toMatch(/^1\.0e-4 \(1 in 10,000\), equal to the allowed failure probability to within the solvers' accuracy/);
+  });
+
+  it("formatProbabilityApart adds figures only where the two would read as one value", () => {
+    // Number() of the text is the reference (ECMAScript StringToNumber); "1.0e-3" and "0.1 %" are the same value.
+    expect(formatProbabilityApart(1.04e-4, 1e-4)).toBe("1.04e-4");
+    expect(formatProbabilityApart(2e-4, 1e-4)).toBe("2.0e-4");
+    expect(formatProbabilityApart(1e-4, 1e-4)).toBe("1.0e-4");
+    expect(Number(formatProbabilityApart(0.00099999, 0.001))).toBeLessThan(0.001);
+    expect(formatProbabilityApart(0.01234, 0.0123)).toBe("1.234 %");
+    expect(formatProbabilityApart(1 - 1.04e-9, 1 - 1e-9)).toBe("1 - 1.04e-9");
   });
 });

@@ -6,7 +6,7 @@
  * probability reads without rounding to 0 % or 100 % (probability-text.ts).
  */
 import type { DesignCheckResult } from "./check-result";
-import { digitsApart, formatNumber, formatProbability, formatReserveFactor, oneIn } from "./probability-text";
+import { digitsApart, formatNumber, formatProbability, formatProbabilityApart, formatReserveFactor, oneIn } from "./probability-text";
 
 export interface ResultRow {
   id: string;
@@ -17,10 +17,31 @@ export interface ResultRow {
   basis: string;
 }
 
-/** A probability with "1 in N" beside it when small. */
-export function probabilityDisplay(p: number): string {
+/**
+ * A probability with "1 in N" beside it when small; with `allowed` (the allowed failure
+ * probability) written apart from it, as a failure probability in service must be.
+ */
+export function probabilityDisplay(p: number, allowed?: number): string {
   const n = oneIn(p);
-  return n ? `${formatProbability(p)} (${n})` : formatProbability(p);
+  const text = allowed === undefined ? formatProbability(p) : formatProbabilityApart(p, allowed);
+  return n ? `${text} (${n})` : text;
+}
+
+/**
+ * Relative difference within which a failure probability in service and the allowed one are the
+ * same number: the allowable stress and the bound's failure probability come from separate
+ * solves, each to about 1e-12 in stress, which the modulus (up to about 100) magnifies in
+ * probability. Closer than this, more figures would show solver noise, possibly in the opposite
+ * direction to the verdict, which the stresses decide.
+ */
+const SAME_PROBABILITY = 1e-9;
+
+/** A failure probability in service beside the allowed one: written apart, or said to be equal to it. */
+function serviceProbability(p: number, allowed: number): string {
+  if (p !== allowed && Math.abs(p - allowed) <= SAME_PROBABILITY * allowed) {
+    return `${probabilityDisplay(p)}, equal to the allowed failure probability to within the solvers' accuracy (the stresses decide the verdict)`;
+  }
+  return probabilityDisplay(p, allowed);
 }
 
 /** @example resultRows(runDesignCheck(description)).find((row) => row.id === "reserve-factor") */
@@ -108,7 +129,7 @@ export function resultRows(r: DesignCheckResult): ResultRow[] {
     id: "pf-applied",
     label: "Failure probability in service, point estimate",
     value: r.failureProbabilityAtApplied.value,
-    display: probabilityDisplay(r.failureProbabilityAtApplied.value),
+    display: serviceProbability(r.failureProbabilityAtApplied.value, r.targetFailureProbability.value),
     basis: r.failureProbabilityAtApplied.basis,
   });
   if (r.failureProbabilityUpper) {
@@ -116,7 +137,7 @@ export function resultRows(r: DesignCheckResult): ResultRow[] {
       id: "pf-upper",
       label: `Failure probability in service, ${upper}`,
       value: r.failureProbabilityUpper.value,
-      display: probabilityDisplay(r.failureProbabilityUpper.value),
+      display: serviceProbability(r.failureProbabilityUpper.value, r.targetFailureProbability.value),
       basis: r.failureProbabilityUpper.basis,
     });
   }

@@ -13,20 +13,42 @@
  * @example formatProbability(1e-4)   // "1.0e-4"
  * @example formatProbability(0.0123) // "1.23 %"
  */
-export function formatProbability(p: number): string {
+export function formatProbability(p: number, extraFigures = 0): string {
   if (!Number.isFinite(p)) return "not a number";
   if (p <= 0) return "0";
   if (p >= 1) return "1";
-  if (p < 1e-3) return exponential(p);
-  if (p < 0.5) return `${trimmed(p * 100, 3)} %`;
+  if (p < 1e-3) return exponential(p, 1 + extraFigures);
+  if (p < 0.5) return `${trimmed(p * 100, 3 + extraFigures)} %`;
   const q = 1 - p;
-  if (q < 1e-6) return `1 - ${exponential(q)}`;
+  if (q < 1e-6) return `1 - ${exponential(q, 1 + extraFigures)}`;
   // Decimals of the percentage that show the first significant digit of 1 - p; where rounding
   // would still reach 100, one more decimal until it does not.
-  let decimals = Math.max(1, Math.ceil(-Math.log10(q * 100)));
+  let decimals = Math.max(1, Math.ceil(-Math.log10(q * 100))) + extraFigures;
   let text = (p * 100).toFixed(decimals);
   while (Number(text) >= 100 && decimals < 12) text = (p * 100).toFixed(++decimals);
   return `${stripZeros(text)} %`;
+}
+
+/**
+ * `p` written with the figures that tell it apart from `other` when they differ (at most 15 more
+ * than formatProbability's): a failure probability a few per cent above the allowed one must not
+ * read "1.0e-4" beside an allowed "1.0e-4" and a FAIL. Compared by the value the text stands for,
+ * so "1.0e-3" and "0.1 %" count as the same.
+ *
+ * @example formatProbability(1.04e-4)               // "1.0e-4"
+ * @example formatProbabilityApart(1.04e-4, 1e-4)    // "1.04e-4"
+ */
+export function formatProbabilityApart(p: number, other: number): string {
+  let extra = 0;
+  while (extra < 15 && p !== other && shownValue(formatProbability(p, extra)) === shownValue(formatProbability(other, extra))) extra++;
+  return formatProbability(p, extra);
+}
+
+/** The probability a text of formatProbability stands for. */
+function shownValue(text: string): number {
+  if (text.startsWith("1 - ")) return 1 - Number(text.slice(4));
+  if (text.endsWith(" %")) return Number(text.slice(0, -2)) / 100;
+  return Number(text);
 }
 
 /** "1 in 10,000" for a small probability; null when p is 0.5 or more, or 0. */
