@@ -65,3 +65,42 @@ describe("a lower bound above the point estimate", () => {
     expect(r.cautions.map((c) => c.id)).not.toContain("bound-above-estimate");
   });
 });
+
+describe("a low confidence level", () => {
+  // 90-95 % one-sided is the usual level for a design allowable (common practice); below 90 % a warning says so.
+  const level = (oneSided: number, specimens = 30) =>
+    runDesignCheck(
+      input({
+        material: { kind: "typed", shape: 10, scale: 400, specimens, unbiased: true },
+        confidence: { level: oneSided, sides: "one-sided" },
+        specimen: { kind: "typed", effectiveSize: 10 },
+        part: { kind: "typed", effectiveSize: 10 },
+        appliedStress: 100,
+      }),
+    );
+
+  it("at 80 % one-sided on 30 specimens (a bound below the estimate) warns that one sample in five falls below it", () => {
+    const r = level(0.8);
+    expect(r.allowableLower!.value).toBeLessThan(r.allowablePoint.value);
+    const c = r.cautions.find((x) => x.id === "low-confidence");
+    expect(c?.level).toBe("warning");
+    expect(c!.text).toMatch(/^The verdict rests on the 80 % one-sided lower bound: the true allowable lies below a bound at this level in 20 % of samples/);
+    expect(c!.text).not.toMatch(/no width/);
+    expect(checkText(r)).toContain(`Warning: ${c!.text}`);
+  });
+
+  it("at 50 % one-sided it adds that the plot's band has no width (2 x 0.5 - 1 = 0 two-sided)", () => {
+    const r = level(0.5);
+    expect(r.confidence.twoSided).toBe(0);
+    expect(r.cautions.find((x) => x.id === "low-confidence")!.text).toMatch(/\(the plot's two-sided band has no width\)/);
+  });
+
+  it("at 90 % and 95 % one-sided, and with no bound at all, there is no such warning", () => {
+    for (const oneSided of [0.9, 0.95]) expect(level(oneSided).cautions.map((x) => x.id)).not.toContain("low-confidence");
+    const unbounded = runDesignCheck(
+      input({ material: { kind: "typed", shape: 10, scale: 400 }, confidence: { level: 0.5, sides: "one-sided" }, appliedStress: 100 }),
+    );
+    expect(unbounded.allowableLower).toBeNull();
+    expect(unbounded.cautions.map((x) => x.id)).not.toContain("low-confidence");
+  });
+});

@@ -60,6 +60,18 @@ describe("a failure probability typed where the survival was meant", () => {
     expect(confirmed.targetFailureProbability.value).toBeCloseTo(0.9999, 15);
   });
 
+  it("guards a survival and a lot requirement at the same failure probability per part, 0.1 (common practice: design targets are far smaller)", () => {
+    // Survival 0.6 (failure probability 0.4) used to pass unasked while 0.12 from a lot was refused.
+    for (const survival of [0.6, 0.5, 0.899]) {
+      const e = fieldError(input({ requirement: { kind: "survival", survival } }));
+      expect(e.field).toBe("requirement.survival");
+      expect(e.message).toMatch(new RegExp(`lets ${Number(((1 - survival) * 100).toPrecision(6))} % of parts fail`));
+    }
+    expect(() => runDesignCheck(input({ requirement: { kind: "survival", survival: 0.9 } }))).not.toThrow();
+    expect(() => runDesignCheck(input({ requirement: { kind: "lot", allowedFailures: 500 }, lotSize: 5000 }))).not.toThrow();
+    expect(() => runDesignCheck(input({ requirement: { kind: "survival", survival: 0.6 }, confirmLowSurvival: true }))).not.toThrow();
+  });
+
   it("refuses an allowed failure probability above 0.1 from a lot requirement unless confirmed", () => {
     const e = fieldError(input({ requirement: { kind: "lot", allowedFailures: 600 }, lotSize: 5000 }));
     expect(e.field).toBe("requirement.allowedFailures");

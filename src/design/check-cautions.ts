@@ -12,7 +12,7 @@
  * beyond anything the data show (common practice, no source).
  */
 import type { Caution, DesignCheckResult } from "./check-result";
-import { digitsApart, formatNumber } from "./probability-text";
+import { digitsApart, formatLevel, formatNumber } from "./probability-text";
 
 export type { Caution, CautionLevel } from "./check-result";
 
@@ -21,6 +21,8 @@ export const RECOMMENDED_SAMPLE = 30;
 export const POOR_FIT_SIGNIFICANCE = 0.05;
 export const FAR_EXTRAPOLATION_DECADES = 3;
 export const LARGE_SIZE_RATIO = 1000;
+/** One-sided confidence below which a bound is hardly a bound (90-95 % is usual for design allowables: common practice). */
+export const LOW_CONFIDENCE = 0.9;
 
 /**
  * The cautions for a result (its own `cautions` field excepted, which this fills).
@@ -136,8 +138,9 @@ export function cautionsFor(result: DesignCheckResult): Caution[] {
     out.push({ id: "converged", level: "warning", text: "The fit did not converge: do not use these numbers." });
   }
 
+  const lower = result.allowableLower;
   // No bound to design on.
-  if (!result.allowableLower) {
+  if (!lower) {
     out.push({
       id: "bound",
       level: "warning",
@@ -148,9 +151,21 @@ export function cautionsFor(result: DesignCheckResult): Caution[] {
     });
   }
 
+  // A low confidence: the bound sits near the middle of the fit's uncertainty (at 50 % one-sided the plot's band has no width).
+  if (lower && result.confidence.oneSided < LOW_CONFIDENCE) {
+    out.push({
+      id: "low-confidence",
+      level: "warning",
+      text:
+        `The verdict rests on the ${result.confidence.boundLabel}: the true allowable lies below a bound at this level in ` +
+        `${formatLevel(1 - result.confidence.oneSided)} of samples, so it allows little for the scatter of a finite sample` +
+        (result.confidence.twoSided <= 0 ? " (the plot's two-sided band has no width)" : "") +
+        ". A 90 % or 95 % one-sided bound is usual for design allowables.",
+    });
+  }
+
   // A "lower" bound above the point estimate (a low confidence, or the unbiased modulus of a small sample
   // lowering the estimate): the verdict rests on the bound as asked, but it is the less cautious number.
-  const lower = result.allowableLower;
   if (lower && lower.value > result.allowablePoint.value) {
     const unit = result.input.stressUnit;
     const digits = digitsApart(lower.value, result.allowablePoint.value);

@@ -133,8 +133,12 @@ export interface CheckDescription {
 /** The confidence every surface uses unless told otherwise: the number to design on. */
 export const DEFAULT_CONFIDENCE: ConfidenceDescription = { level: 0.95, sides: "one-sided" };
 
-/** A required survival per part below this needs confirmLowSurvival. */
-export const LOW_SURVIVAL = 0.5;
+/**
+ * A required survival per part below this needs confirmLowSurvival: a failure probability above
+ * 0.1, the same limit as the lot form's (a survival of 0.6 was accepted unasked while 0.2 allowed
+ * failures a part was refused).
+ */
+export const LOW_SURVIVAL = 0.9;
 /** An allowed failure probability per part above this needs confirmLowSurvival. */
 export const HIGH_FAILURE_PROBABILITY = 0.1;
 

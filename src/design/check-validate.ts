@@ -334,7 +334,8 @@ function guardLowSurvival(requirement: RequirementDescription, lotSize: number, 
   if (requirement.kind === "survival" && requirement.survival < LOW_SURVIVAL) {
     fail(
       "requirement.survival",
-      `a required survival of ${requirement.survival} per part means most parts may fail; a failure probability may have been typed ` +
+      `a required survival of ${requirement.survival} per part lets ${Number(((1 - requirement.survival) * 100).toPrecision(6))} % of parts fail, ` +
+        `far above the usual design targets; a failure probability may have been typed ` +
         `where the survival was meant (survival = 1 - failure probability, so a failure probability of ${requirement.survival} is a survival of ` +
         `${1 - requirement.survival}). Set confirmLowSurvival to true if a survival below ${LOW_SURVIVAL} is intended`,
     );
