@@ -703,7 +703,7 @@ describe("explaining a BRITTLE formula in the pane", () => {
 });
 
 describe("the design check's guards, basis and saved file in the pane", () => {
-  it("asks before checking against a survival below 50 %, and never shows a probability as 100 % or 0 %", async () => {
+  it("asks before checking against a survival below 90 %, and never shows a probability as 100 % or 0 %", async () => {
     const { page, problems } = await open();
     await page.fill("#strengths", STRENGTHS.join("\n"));
     // 0.0001 typed where the survival 0.9999 was meant (the case reported in the issue).
@@ -718,6 +718,12 @@ describe("the design check's guards, basis and saved file in the pane", () => {
     await waitForVerdict(page);
     // The allowed failure probability 1 - 0.0001 keeps its digits (it read "100 %" before).
     expect(await page.textContent('dd[data-row="target-pf"] .value')).toBe("99.99 %");
+
+    // 0.8 as well: a failure probability of 0.2 per part, above the 0.1 the lot form's guard allows.
+    await page.uncheck("#confirm-low-survival");
+    await page.fill("#survival", "0.8");
+    await page.waitForFunction(() => /survival of 0\.8 means 20 % of parts may fail/.test(document.querySelector("#requirement-error")?.textContent ?? ""));
+    expect(await page.isVisible("#low-survival")).toBe(true);
 
     await page.fill("#survival", "0.9999");
     await page.waitForFunction(() => document.querySelector('dd[data-row="target-pf"] .value')?.textContent?.startsWith("1.0e-4"));

@@ -5,7 +5,7 @@
  * years, with B in the stress unit squared times that time unit) and a
  * proof test of every part.
  *
- * A survival below 0.5, or an allowed failure probability above 0.1, is far
+ * A survival below 0.9 (a failure probability above 0.1), or an allowed failure probability above 0.1, is far
  * more often a failure probability typed where the survival was meant than
  * a real target: the form asks for confirmation before it checks against it.
  */
