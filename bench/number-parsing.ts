@@ -73,3 +73,42 @@ export function differencesFromNumber(chunks: readonly Uint8Array[], values: Flo
   if (n !== count) throw new Error(`number parsing bench: ${count} values parsed, ${n} fields in the text`);
   return differ;
 }
+
+/**
+ * A yardstick for the parser's speed on this machine and runtime: the same bytes through the
+ * simplest loop that still looks at every byte and keeps the digits it sees (one load, one
+ * compare, one multiply-add a byte; no validation, no decimal point, no conversion to a double,
+ * so it is not a parser). One call per line, like parseTableNumbers. Returns a checksum, so the
+ * loop cannot be dropped as dead code.
+ */
+export function digitLoopFloor(chunks: readonly Uint8Array[]): number {
+  let check = 0;
+  for (const chunk of chunks) {
+    const end = chunk.length;
+    let i = headerEnd(chunk);
+    while (i < end) {
+      check ^= digitsOfLine(chunk, i, end);
+      i = lineEnd;
+    }
+  }
+  return check;
+}
+
+/** The digits of the line at `start` summed as whole numbers; sets lineEnd to just after its LF. */
+function digitsOfLine(buf: Uint8Array, start: number, end: number): number {
+  let value = 0;
+  let sum = 0;
+  let i = start;
+  for (; i < end; i++) {
+    const b = buf[i];
+    const d = b - 0x30;
+    if (d >>> 0 < 10) value = (value * 10 + d) | 0;
+    else if (b === LF) break;
+    else {
+      sum = (sum + value) | 0;
+      value = 0;
+    }
+  }
+  lineEnd = i + 1;
+  return (sum + value) | 0;
+}

@@ -13,7 +13,7 @@ import { guarded } from "../functions/registry";
 import { readPartTable } from "../src/size/part-stream";
 import { parameterBounds } from "../src/weibull/confidence-bounds";
 import { elementCsv, elementTable, weibullSample } from "./datasets";
-import { differencesFromNumber, parseTableNumbers } from "./number-parsing";
+import { differencesFromNumber, digitLoopFloor, parseTableNumbers } from "./number-parsing";
 import { median, type Spread } from "./measure";
 import type { SoloRow } from "./report";
 
@@ -79,6 +79,14 @@ async function streaming(): Promise<SoloRow[]> {
       ours: figures(p),
       note: `${rate.toFixed(0)} MB/s (goal >= ${PARSING_GOAL_MB_S}: ${rate >= PARSING_GOAL_MB_S ? "met" : "not met"}), ${count(p.result)} numbers; ${differ === 0 ? "every value equals Number() of its text" : `${count(differ)} values DIFFER from Number() of their text`}`,
       goal: { text: `>= ${PARSING_GOAL_MB_S} MB/s`, figure: `${rate.toFixed(0)} MB/s`, met: rate >= PARSING_GOAL_MB_S && differ === 0 },
+    });
+    // A yardstick for the parser: the simplest byte loop over the same bytes (not a parser; see digitLoopFloor).
+    const floor = await median(5, () => digitLoopFloor(chunks));
+    const floorRate = bytes / 1e6 / floor.seconds;
+    rows.push({
+      task: `simplest byte loop over the same bytes, ${digits ? `${digits} digits` : "full doubles"} (not a parser)`,
+      ours: figures(floor),
+      note: `${floorRate.toFixed(0)} MB/s: one load, compare and multiply-add a byte; the parser above runs at ${((100 * rate) / floorRate).toFixed(0)} % of its speed`,
     });
   }
   return rows;

@@ -3,7 +3,7 @@
 // No timing is measured or asserted: the contenders report made-up durations.
 import { describe, expect, it } from "vitest";
 import { alternate, lasting, roundRatios, summarize, type Contender } from "../bench/measure";
-import { differencesFromNumber, parseTableNumbers } from "../bench/number-parsing";
+import { differencesFromNumber, digitLoopFloor, parseTableNumbers } from "../bench/number-parsing";
 import { agreement, describeAgreement, markdownTable, type BenchRecord, type SoloRow } from "../bench/report";
 
 /** A contender that logs its turns and reports the durations it is given, one per turn. */
@@ -134,6 +134,11 @@ describe("number parsing alone (bench/number-parsing.ts)", () => {
     expect(() => parseTableNumbers(text('1,"2.5"\n'), new Float64Array(2))).toThrow(/field 2 left to the general path/);
     expect(() => parseTableNumbers(text("1,1234567890123456789012\n"), new Float64Array(2))).toThrow(/general path/);
     expect(() => parseTableNumbers(text("1,1e-300\n"), new Float64Array(2))).toThrow(/general path/);
+  });
+  it("the yardstick loop reads every byte of every line after the header (its checksum depends on each digit)", () => {
+    // Hand-worked: line 1's digit runs 12 | 5 | 25 sum to 42, line 2's 7 | 0 | 5 to 12; 42 xor 12 = 38.
+    expect(digitLoopFloor(text("a,b\n12,5.25\n7,0.5\n"))).toBe(38);
+    expect(digitLoopFloor(text("12,5.25\n7,0.6\n"))).not.toBe(38);
   });
 });
 
