@@ -8,6 +8,8 @@
  * A survival below 0.9 (a failure probability above 0.1), or an allowed failure probability above 0.1, is far
  * more often a failure probability typed where the survival was meant than
  * a real target: the form asks for confirmation before it checks against it.
+ * A confirmation holds for the target it was given for: typing another value
+ * (0.0001 after a confirmed 0.8) asks again.
  */
 import type { CheckDescription, LifetimeDescription, RequirementDescription, TimeUnit } from "../../src/design/check-description";
 import { HIGH_FAILURE_PROBABILITY, LOW_SURVIVAL } from "../../src/design/check-description";
@@ -17,7 +19,13 @@ import { setCheckbox, setRadio, setSelect } from "./fill";
 
 export const REQUIREMENT_FIELDS = ["survival", "allowed-failures", "applied-stress", "lot-size", "lifetime", "time-unit", "scg-n", "scg-b", "proof-stress"];
 
+/** The low target the box was ticked for (its guard text names the value and the lot), or null. */
+let confirmedFor: string | null = null;
+
 export function setupRequirement(onChange: () => void): void {
+  byId<HTMLInputElement>("confirm-low-survival").addEventListener("change", (e) => {
+    confirmedFor = (e.target as HTMLInputElement).checked ? impliedFailureProbability().text : null;
+  });
   for (const [box, fields] of [["use-lifetime", "lifetime-fields"], ["use-proof", "proof-fields"]]) {
     byId<HTMLInputElement>(box).addEventListener("change", () => {
       byId(fields).hidden = !byId<HTMLInputElement>(box).checked;
@@ -75,6 +83,8 @@ export function readRequirement(): {
   proof: { proofStress: number } | null;
 } {
   const guard = impliedFailureProbability();
+  const box = byId<HTMLInputElement>("confirm-low-survival");
+  if (box.checked && guard.low && guard.text !== confirmedFor) box.checked = false;
   byId("low-survival").hidden = !guard.low;
   byId("low-survival-text").textContent = guard.text;
   const lotSize = requiredNumber("lot-size", "number of parts per lot", { positive: true, integer: true });
@@ -88,7 +98,7 @@ export function readRequirement(): {
   } else {
     requirement = { kind: "survival", survival: requiredNumber("survival", "required survival probability", { probability: true }) };
   }
-  const confirmLowSurvival = guard.low && byId<HTMLInputElement>("confirm-low-survival").checked;
+  const confirmLowSurvival = guard.low && box.checked;
   if (guard.low && !confirmLowSurvival) {
     throw new FieldError(lot ? "allowed-failures" : "survival", `${guard.text} Confirm below to check against this target.`);
   }
@@ -134,4 +144,6 @@ export function fillRequirement(
   }
   setCheckbox("use-proof", d.proof !== null);
   byId<HTMLInputElement>("proof-stress").value = d.proof ? String(d.proof.proofStress) : "";
+  // A saved check's confirmation holds for the target it was saved with.
+  confirmedFor = d.confirmLowSurvival === true ? impliedFailureProbability().text : null;
 }
