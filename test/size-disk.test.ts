@@ -145,6 +145,25 @@ describe("disk effective sizes", () => {
     const st = fieldAt(fld, 12.5).hoop / diskPeakStress(fld);
     expect(relativeError(diskRimArea({ field: fld, shape: 10, thickness: 1 }), ((2 * Math.PI * 12.5) / 22) * st ** 10)).toBeLessThan(1e-14);
   });
+
+  it("the overhang's share of the presets' effective area is the one docs/methods.md section 5 states", () => {
+    // docs/methods.md section 5 (PIA, nu = 0.25): ISO6872-P3B 0.10 % at m = 5 and 2e-7 at m = 10;
+    // C1499-20/10 0.68 % and 8e-5. The integrals themselves are checked against scipy above.
+    const share = (fld: DiskField, m: number) => {
+      const b = diskEffectiveAreaBreakdown({ field: fld, shape: m, criterion: "PIA" });
+      return b.regions[b.regions.length - 1] / b.total;
+    };
+    const iso = findSpecimen("ISO6872-P3B") as { pistonDiameter: { value: number }; supportDiameter: { value: number }; diskDiameter: { value: number } };
+    const piston = pistonOnRingField({ pistonDiameter: iso.pistonDiameter.value, supportDiameter: iso.supportDiameter.value, diskDiameter: iso.diskDiameter.value, poisson: 0.25 });
+    const ring = ringOnRingField({ loadDiameter: 10, supportDiameter: 20, diskDiameter: 25, poisson: 0.25 });
+    const stated: [DiskField, number, number][] = [
+      [piston, 5, 1.0e-3],
+      [piston, 10, 2e-7],
+      [ring, 5, 6.8e-3],
+      [ring, 10, 8e-5],
+    ];
+    for (const [fld, m, value] of stated) expect(relativeError(share(fld, m), value), `m = ${m}`).toBeLessThan(0.1);
+  });
 });
 
 describe("disk bad input", () => {

@@ -30,8 +30,8 @@
  * each ball the true field is not axisymmetric, and the overhang between the
  * balls is stiffer than a ring-supported one. We keep the ring model there
  * because it is the one the standard's formula rests on, and because at the
- * usual moduli the overhang adds little to the effective size (the README
- * gives the share).
+ * usual moduli the overhang adds little to the effective size
+ * (docs/methods.md section 5 gives the share).
  *
  * Every region's components have the form c + L ln(r/ref) + G/r^2 + S r^2,
  * so peaks and sign changes can be found exactly.
