@@ -117,8 +117,9 @@ export function RINGSTRENGTH(
 }
 
 /**
- * Biaxial strength of disks on three balls loaded by a piston, from the breaking load (ISO 6872 formula). Load in N and
- * lengths in mm give MPa. Example: =BRITTLE.PISTONSTRENGTH(100, 1.4, 10, 14, 1.2, 0.25) is about 108.49.
+ * Biaxial strength of disks on three balls loaded by a piston, from the breaking load (ISO 6872 formula, with 3/(4 pi)
+ * where the standard prints 0.2387: 0.0136 % higher). Load in N and lengths in mm give MPa.
+ * Example: =BRITTLE.PISTONSTRENGTH(100, 1.4, 10, 14, 1.2, 0.25) is about 108.49.
  * @customfunction
  * @param load Breaking load of each specimen (N, or any force unit): one value or a column; the result has its rows.
  * @param pistonDiameter Diameter of the loading piston's flat face (mm, or any length unit): one value or a column.

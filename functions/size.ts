@@ -298,7 +298,7 @@ export function PISTONVOLUME(
 /**
  * Effective volume (mm^3) or area (mm^2) of a standard specimen configuration: "C1161-A-3PT" ... "C1161-C-4PT"
  * (ASTM C1161 bars), "C1499-20/10", "C1499-40/20" (ring-on-ring), "ISO6872-P3B", "F394-P3B" (piston-on-three-balls).
- * The README lists every dimension and its source. Example: =BRITTLE.SPECIMEN("C1161-B-4PT", 10) is about 11.90.
+ * docs/methods.md section 5 lists every dimension and its source. Example: =BRITTLE.SPECIMEN("C1161-B-4PT", 10) is about 11.90.
  * @customfunction
  * @param configuration Configuration name (case, spaces and hyphens ignored), e.g. "C1161-B-4PT".
  * @param modulus Weibull modulus m (dimensionless, > 0).

@@ -24,8 +24,9 @@ function fitCells(strengths: unknown, censored: unknown, method: unknown) {
 
 /**
  * Weibull modulus m of a set of fracture strengths. Default: maximum likelihood with the unbiasing factor of
- * ASTM C1239 / ISO 20501 (see README for its definition), tabulated for N = 3 to 500 and fitted beyond; with two
- * failures no factor exists (#N/A: use "MLE-RAW"). Blank cells and zeros are skipped.
+ * ASTM C1239 / ISO 20501 practice, defined as UF(N) = 1/E[m_hat/m] (docs/methods.md section 2), tabulated for N = 3 to
+ * 500 and fitted beyond (censored samples: from a seeded bootstrap of competing flaw populations); with two failures no
+ * factor exists (#N/A: use "MLE-RAW"). Blank cells and zeros are skipped.
  * Example: =BRITTLE.MODULUS(B2:B31) gives the modulus of the bend strengths in B2:B31.
  * @customfunction
  * @cancelable

@@ -182,7 +182,7 @@ export function TIMETOFAILURE(stress: number, strength: number, stressRate: numb
  * @param n Slow-crack-growth exponent (dimensionless, > 2).
  * @param velocity Crack velocity at K = toughness, the coefficient of the power law (length per time unit, > 0).
  * @param toughness Fracture toughness K_IC (stress unit x length^0.5, > 0).
- * @param geometryFactor Crack geometry factor Y in K = Y stress sqrt(a) (dimensionless, > 0), about 1.99 for a shallow surface crack.
+ * @param geometryFactor Crack geometry factor Y in K = Y stress sqrt(a) (dimensionless, > 0): 1.12 sqrt(pi), about 1.99, for a long shallow edge crack; about 1.2 to 1.3 for a small semicircular surface crack (from memory).
  * @returns B, in stress unit^2 x time unit.
  */
 export function SCGBFROMVELOCITY(n: number, velocity: number, toughness: number, geometryFactor: number): number {
