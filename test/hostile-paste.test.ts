@@ -13,8 +13,8 @@ import { runPartCommand } from "../cli/part-command";
 import { readPositiveNumbers } from "../functions/cells";
 import { materialFitAnswer } from "../src/design/material-fit-answer";
 import { importAnswer, readRecordTable } from "../src/design/record-import-answer";
-import { explainNotANumber } from "../src/input/number-text";
-import { parsePasted } from "../taskpane/app/parse-pasted";
+import { classifyNumber, explainNotANumber } from "../src/input/number-text";
+import { parsePasted, PasteError } from "../taskpane/app/parse-pasted";
 import { parseElementTable } from "../taskpane/app/parse-table";
 
 const at = (name: string) => join("test/fixtures/hostile", name);
@@ -76,9 +76,131 @@ describe("the shared reader, in files, cells and records", () => {
   });
 });
 
+describe("the strengths box", () => {
+  it("paste-unit-gpa: '0.41 GPa' among MPa values is refused naming the factor (it was taken for a censoring flag 'GPa')", () => {
+    expect(() => paste("paste-unit-gpa.txt")).toThrow(
+      new PasteError('Line 2: "0.41 GPa" carries a unit ("GPa"): type the number alone, every value in one unit (1 GPa = 1000 MPa).'),
+    );
+  });
+  it("paste-unit-each-line: '412 MPa' on every line is refused at line 1, with the unit named", () => {
+    expect(() => paste("paste-unit-each-line.txt")).toThrow(/^Line 1: "412 MPa" carries a unit \("MPa"\)/);
+  });
+  it("paste-times-ten: 4.12×10^2, 3.98 x 10², 4.30·10² are powers of ten as people type them (refused, or split into three values)", () => {
+    expect(paste("paste-times-ten.txt").strengths).toEqual([412, 398, 455, 430]);
+    // "4.12 x 10" has no power: a size (4.12 by 10), never read as a number.
+    expect(classifyNumber("4.12 x 10").kind).toBe("not-a-number");
+  });
+  it("paste-zero-width: zero-width spaces and direction marks around a value are blanks (the line was 'not a number')", () => {
+    const r = paste("paste-zero-width.txt");
+    expect(r.strengths).toEqual([412, 398, 455, 430]);
+    expect(r.notes).toEqual(["Blank line 4 skipped."]);
+  });
+  it("paste-zero-width-inside: one inside a number is refused and shown, not printed as an invisible '412'", () => {
+    expect(() => paste("paste-zero-width-inside.txt")).toThrow(
+      new PasteError('Line 2: "4<U+200B>12" holds an invisible character inside (shown as <U+...>), copied from a web page or a document: retype the number.'),
+    );
+  });
+  it("paste-quoted-values: a value in double quotes is the value (refused as '\"412.5\" is not a number')", () => {
+    expect(paste("paste-quoted-values.txt").strengths).toEqual([412.5, 398.1, 455]);
+  });
+  it("paste-trailing-commas: '412,' on every line reads the same as strength-and-blank-flag or decimal comma, so it is read (it was refused as ambiguous)", () => {
+    const r = paste("paste-trailing-commas.txt");
+    expect(r.strengths).toEqual([412, 398, 455]);
+    expect(r.censored ?? [false, false, false]).toEqual([false, false, false]);
+  });
+  it("paste-missing-first-line: 'n/a' on line 1 is a missing value, not a header to skip (it was skipped as a header)", () => {
+    expect(() => paste("paste-missing-first-line.txt")).toThrow(new PasteError('Line 1: "n/a" marks a missing value: leave the value (or its line) out, or type the number.'));
+  });
+  it("paste-nbsp-thousands: '1 250' with a no-break space is thousands, refused (it was 'strength 1 with the flag 250')", () => {
+    expect(() => paste("paste-nbsp-thousands.txt")).toThrow(
+      new PasteError('Line 1: "1\u00a0250" has thousands separators, which are not read: write the number without them.'),
+    );
+  });
+  it("paste-zero-line: a typed 0 is no specimen, as in a cell range, and the note says so (it vanished without a word)", () => {
+    const r = paste("paste-zero-line.txt");
+    expect(r.strengths).toEqual([412, 398, 455]);
+    expect(r.notes).toEqual(["Line 2 skipped: a zero strength is no specimen."]);
+  });
+});
+
+describe("marks, words and error values are refused with the reason", () => {
+  // One hostile value per line of paste-marks-and-words.txt; each is pasted between two good strengths. Before, every
+  // one was 'is not a number (use a point as the decimal separator)' or a complaint about a censoring flag.
+  const reasons: Record<string, string> = {
+    "412*": 'ends in a footnote mark ("*")',
+    "412a": 'ends in a footnote mark ("a")',
+    "412¹": 'ends in a footnote mark ("¹")',
+    "(412)": "is in parentheses (a negative number in accounting notation, or a remark?): type -412 or 412",
+    "412 (invalid)": 'has a remark after the number ("(invalid)")',
+    "~412": 'is marked approximate ("~")',
+    ">412": 'is a bound (">"), not a measured value: type the measured number alone; a specimen that did not break is censored',
+    "<412": 'is a bound ("<"), not a measured value: type the measured number alone',
+    "412%": "is a percentage: type it as a plain number (4.12)",
+    "#N/A": "is a spreadsheet error value, not a number",
+    "#DIV/0!": "is a spreadsheet error value, not a number",
+    "#VALUE!": "is a spreadsheet error value, not a number",
+    "—": "marks a missing value",
+    "-": "marks a missing value",
+    "n/a": "marks a missing value",
+    "412 N/mm²": 'carries a unit ("N/mm²"): type the number alone, every value in one unit (1 N/mm² = 1 MPa)',
+    "4.1 kN": 'carries a unit ("kN")',
+    "412MPa": 'carries a unit ("MPa")',
+    "–412": "begins with a dash (U+2013), not a minus sign",
+    "'412": "begins with an apostrophe",
+    "0x1A": "is written in another base",
+    inf: "is infinite, not a number",
+    "4,12E+02 MPa": 'carries a unit ("MPa")',
+    "¹²": "holds a superscript digit",
+  };
+  const lines = read("paste-marks-and-words.txt").split("\n").filter((l) => l !== "");
+
+  it("covers every line of the file", () => {
+    expect(lines.sort()).toEqual(Object.keys(reasons).sort());
+  });
+
+  for (const [text, reason] of Object.entries(reasons)) {
+    it(`${JSON.stringify(text)}: ${reason}`, () => {
+      let message = "";
+      try {
+        parsePasted(`400\n${text}\n420\n`);
+      } catch (error) {
+        expect(error).toBeInstanceOf(PasteError);
+        message = (error as Error).message;
+      }
+      expect(message.startsWith(`Line 2: "${text}" `)).toBe(true);
+      expect(message).toContain(reason);
+      // The element-table box and the cells give the same reason for the same text.
+      expect(() => parseElementTable(`400\t1\n${text}\t1\n`)).toThrow(reason);
+      expect(() => readPositiveNumbers([[400], [text]], "strengths")).toThrow(reason);
+    });
+  }
+
+
+
+});
+
+describe("the element-table box", () => {
+  it("paste-table-error-value: '#DIV/0!' where a stress was is refused (it was skipped as a '#' comment, and the element lost)", () => {
+    expect(() => parseElementTable(read("paste-table-error-value.txt"))).toThrow(
+      'Line 3: "#DIV/0!" is a spreadsheet error value, not a number: correct it in the sheet it came from, or leave the value out.',
+    );
+    expect(parseElementTable("# mesh of 2 Dec\n100.5\t2\n").stresses).toEqual([[100.5]]); // a comment is still a comment
+  });
+
+
+  it("paste-table-nbsp-thousands: '1 250 2 500' (no-break spaces) is refused, not three stresses 1, 250, 2 and a size 500", () => {
+    expect(() => parseElementTable(read("paste-table-nbsp-thousands.txt"))).toThrow('Line 1: "1\u00a0250" has thousands separators');
+  });
+
+  it("a first line the rules refuse ('1,250', '412 MPa') is refused, not skipped as a header (the element was lost, noted as a header)", () => {
+    expect(() => parseElementTable("1,250\t2\n300\t1\n")).toThrow('Line 1: "1,250" could be 1250');
+    expect(() => parseElementTable("412 MPa\t2\n300\t1\n")).toThrow('Line 1: "412 MPa" carries a unit');
+    expect(parseElementTable("s (MPa)\tV\n300\t1\n").stresses).toEqual([[300]]);
+  });
+});
+
 describe("explainNotANumber stays silent where it has nothing to add", () => {
   it("typos and headers get the generic reason", () => {
     for (const t of ["49S.3", "4x0", "abc", "1_000", "Strength (MPa)"]) expect(explainNotANumber(t), t).toBeNull();
   });
 });
-
