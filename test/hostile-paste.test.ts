@@ -13,7 +13,8 @@ import { runPartCommand } from "../cli/part-command";
 import { readPositiveNumbers } from "../functions/cells";
 import { materialFitAnswer } from "../src/design/material-fit-answer";
 import { importAnswer, readRecordTable } from "../src/design/record-import-answer";
-import { classifyNumber, explainNotANumber } from "../src/input/number-text";
+import { classifyNumber, explainNotANumber, readTypedNumber } from "../src/input/number-text";
+import { fieldNumber, FieldError } from "../taskpane/app/dom";
 import { parsePasted, PasteError } from "../taskpane/app/parse-pasted";
 import { parseElementTable } from "../taskpane/app/parse-table";
 
@@ -202,5 +203,37 @@ describe("the element-table box", () => {
 describe("explainNotANumber stays silent where it has nothing to add", () => {
   it("typos and headers get the generic reason", () => {
     for (const t of ["49S.3", "4x0", "abc", "1_000", "Strength (MPa)"]) expect(explainNotANumber(t), t).toBeNull();
+  });
+});
+
+describe("values typed into the form's fields", () => {
+  const field = (text: string, rule = {}) => fieldNumber("f", text, "applied peak stress", rule);
+
+  it("'1.250' is refused as 1250 or 1.25 (it was read as 1.25: a stress 1000 times too low passes any check)", () => {
+    expect(() => field("1.250")).toThrow(
+      new FieldError("f", 'The applied peak stress "1.250" could be 1250 (with a thousands separator) or 1.25: type 1250 for the first, 1.2500 for the second.'),
+    );
+    expect(() => fieldNumber("f", "1.000", "number of parts per lot", { integer: true })).toThrow(/could be 1000 \(with a thousands separator\) or 1/);
+    expect(field("0.250")).toBe(0.25); // a lone 0 before the point: no thousands reading
+  });
+
+  it("hexadecimal and units are refused (0x10 was read as 16; '412 MPa' was 'use a point as the decimal separator')", () => {
+    expect(() => field("0x10")).toThrow(/is written in another base/);
+    expect(() => field("412 MPa")).toThrow('The applied peak stress "412 MPa" carries a unit ("MPa")');
+    expect(() => field("412,5")).toThrow('"412,5" has a decimal comma: use a point as the decimal separator (412.5)');
+    expect(field("\u2212 5".replace(" ", ""))).toBe(-5);
+  });
+
+  it("a probability may be typed as a percentage, moved two places rather than divided (it was 'not a number')", () => {
+    expect(fieldNumber("f", "99.99 %", "required survival probability", { probability: true })).toBe(0.9999);
+    expect(fieldNumber("f", "95%", "confidence", { probability: true })).toBe(0.95);
+    expect(() => field("41 %")).toThrow("is a percentage: type it as a plain number (0.41)");
+  });
+
+  it("readTypedNumber keeps a field's decimal rule: either mark where the field took both, '1,250' refused there too", () => {
+    expect(readTypedNumber("0,22", { decimalMark: "either" })).toEqual({ ok: true, value: 0.22 });
+    expect(readTypedNumber("1,250", { decimalMark: "either" }).ok).toBe(false);
+    expect(readTypedNumber("1,250", { decimalMark: "comma" })).toEqual({ ok: true, value: 1.25 });
+    expect(readTypedNumber("40 mm", { decimalMark: "either" })).toEqual({ ok: false, reason: 'carries a unit ("mm"): type the number alone, every value in one unit' });
   });
 });

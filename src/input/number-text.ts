@@ -364,3 +364,51 @@ export function explainNotANumber(written: string): string | null {
   return null;
 }
 
+/** How a single typed value treats a decimal comma. */
+export interface TypedNumberRule {
+  /**
+   * "point-only": a point is the decimal mark and a decimal comma is refused (the form's own fields);
+   * "either": a decimal point or comma, whichever the value shows; "comma": the decimal mark is stated as a comma.
+   */
+  decimalMark: "point-only" | "either" | "comma";
+  /** Whether "99.9 %" may be typed for 0.999 (probabilities and confidence levels). */
+  percent?: boolean;
+}
+
+/**
+ * One value typed into a field of the form, read under the rules of every
+ * input (normalizeNumberText, readNumber): a value that could be read two ways
+ * ("1.250": 1250 with a thousands separator, or 1.25) is refused, as in a
+ * pasted column where no other number settles the mark; a unit, a footnote
+ * mark or a word is refused with what to change. The reason follows the
+ * quoted text in a message.
+ * @example readTypedNumber("99.99 %", { decimalMark: "point-only", percent: true }) // { ok: true, value: 0.9999 }
+ */
+export function readTypedNumber(written: string, rule: TypedNumberRule): NumberReading {
+  let text = trimInvisible(written);
+  const percent = /^(.*?)\s*%$/.exec(text);
+  if (percent && rule.percent) {
+    const fraction = percentOf(normalizeNumberText(percent[1]));
+    if (fraction === null) return { ok: false, reason: "is a percentage that cannot be read: type the fraction (0.999 for 99.9 %)" };
+    text = fraction;
+  }
+  const mark: DecimalMark | null = rule.decimalMark === "comma" ? "comma" : null;
+  const shape = classifyNumber(text);
+  if (shape.kind === "ambiguous" && mark === null) {
+    return {
+      ok: false,
+      reason: `could be ${shape.asThousands} (with a thousands separator) or ${shape.asDecimal}: type ${shape.asThousands} for the first, ${text}0 for the second`,
+    };
+  }
+  const r = readNumber(text, mark);
+  if (r.ok) {
+    if (rule.decimalMark === "point-only" && r.proves === "comma") {
+      return { ok: false, reason: `has a decimal comma: use a point as the decimal separator (${text.replace(",", ".")})` };
+    }
+    return { ok: true, value: r.value };
+  }
+  if (r.reason !== "is not a number") return r;
+  const why = explainNotANumber(written);
+  if (why) return { ok: false, reason: why };
+  return { ok: false, reason: rule.decimalMark === "point-only" ? "is not a number (use a point as the decimal separator)" : "is not a number" };
+}
