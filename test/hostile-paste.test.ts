@@ -58,6 +58,8 @@ describe("the shared reader, in files, cells and records", () => {
     // Unicode Standard sec. 4.6: each run of decimal digits (Nd) holds 0-9 in order; U+066B is the Arabic decimal separator.
     expect(paste("paste-fullwidth-digits.txt").strengths).toEqual([412.5, 398, 455]);
     expect(paste("paste-arabic-indic-digits.txt").strengths).toEqual([412.5, 398, 455]);
+    // The full-width comma separates items and digit groups in East Asian text, so it is no decimal mark.
+    expect(() => parsePasted("４１２，５\n３９８\n")).toThrow('Line 1: "４１２，５" is not a number');
   });
   it("paste-table-unicode-minus: U+2212 is a minus, so -40 is a compressive stress (refused as 'not a number')", () => {
     expect(parseElementTable(read("paste-table-unicode-minus.txt")).stresses).toEqual([[100.5], [-40], [250]]);

@@ -65,7 +65,8 @@ const TIMES_TEN = /^([+-]?(?:\d+(?:[.,]\d*)?|[.,]\d+))\s*[×xX·*]\s*10(?:\^\s*(
  * The same number in the characters the reader knows, where a convention
  * makes the meaning certain: invisible characters at either end dropped; the
  * minus sign U+2212 (and full-width plus and minus) as + and -; digits of the
- * scripts in DIGIT_ZEROS as 0-9, the full-width point and comma as . and ,,
+ * scripts in DIGIT_ZEROS as 0-9, the full-width point as a point (not the
+ * full-width comma: East Asian text uses it between items and digit groups),
  * the Arabic decimal separator U+066B as a point and the Arabic thousands
  * separator U+066C as a thin space (so a grouped number stays refused);
  * "4.12×10^2" and "4.12 x 10²" as 4.12E2. Anything else is left as written,
@@ -92,7 +93,6 @@ export function normalizeNumberText(text: string): string {
     else if (c === 0x2212 || c === 0xff0d) out += "-";
     else if (c === 0xff0b) out += "+";
     else if (c === 0xff0e || c === 0x066b) out += ".";
-    else if (c === 0xff0c) out += ",";
     else if (c === 0x066c) out += "\u2009";
     else {
       const zero = DIGIT_ZEROS.find((z) => c >= z && c <= z + 9);
