@@ -119,6 +119,12 @@ describe("the strengths box", () => {
       new PasteError('Line 1: "1\u00a0250" has thousands separators, which are not read: write the number without them.'),
     );
   });
+  it("paste-header-with-number: a header holding a number is named as such (it was 'expected a strength and at most one flag, found 4 values')", () => {
+    expect(() => paste("paste-header-with-number.txt")).toThrow(
+      new PasteError('Line 1: "Strength at 20 °C" is not a number (a header line must hold no number: remove the number from it, or the line).'),
+    );
+  });
+
   it("paste-zero-line: a typed 0 is no specimen, as in a cell range, and the note says so (it vanished without a word)", () => {
     const r = paste("paste-zero-line.txt");
     expect(r.strengths).toEqual([412, 398, 455]);

@@ -159,7 +159,12 @@ function attempt(lines: Line[], separator: RegExp, stated: DecimalMark | null): 
   for (const { line, text } of lines) {
     // A value in double quotes (a spreadsheet quotes a cell it copies with a line end or a quote in it) is read without them.
     const cells = text.split(separator).map(unquote);
-    if (cells.length > 2) return { ok: false, message: lineProblem(line, text, mark) ?? `Line ${line}: expected a strength and at most one flag, found ${cells.length} values.` };
+    if (cells.length > 2) {
+      const problem = lineProblem(line, text, mark);
+      if (problem) return { ok: false, message: problem };
+      if (line === lines[0].line && /^["']?\p{L}/u.test(text)) return { ok: false, message: `Line ${line}: ${quoteText(text)} ${notANumber(text, true)}.` };
+      return { ok: false, message: `Line ${line}: expected a strength and at most one flag, found ${cells.length} values.` };
+    }
     const r = readNumber(cells[0], mark);
     if (!r.ok) {
       const why = r.reason === "is not a number" ? notANumber(cells[0], line === lines[0].line) : switchWording(r.reason);
