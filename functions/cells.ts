@@ -26,6 +26,7 @@
  * that turns a kind into a cell code.
  */
 import { InputError, type FailureKind } from "../src/errors";
+import { classifyNumber, explainNotANumber, normalizeNumberText, quoteText } from "../src/input/number-text";
 
 export type ErrorCode = "#VALUE!" | "#NUM!" | "#N/A";
 
@@ -61,6 +62,24 @@ export type Range = CellValue[][];
 
 function isBlank(v: unknown): boolean {
   return v === null || v === undefined || v === 0 || (typeof v === "string" && v.trim() === "");
+}
+
+/**
+ * What a cell that is no number holds, and what to change, for the end of a
+ * message: a unit, a footnote mark, an error value pasted as text, a number
+ * stored as text (read by no function, as in a spreadsheet's own SUM).
+ * @example notANumber("0.41 GPa") // ': "0.41 GPa" carries a unit ("GPa"): type the number alone, ...'
+ */
+export function notANumber(v: unknown): string {
+  if (typeof v === "boolean") return `: it holds the logical value ${v ? "TRUE" : "FALSE"}`;
+  if (typeof v !== "string") return "";
+  const why = explainNotANumber(v);
+  if (why) return `: ${quoteText(v.trim())} ${why}`;
+  if (classifyNumber(v.trim()).kind !== "not-a-number") {
+    const retype = normalizeNumberText(v.trim()) !== v.trim() ? ", typed with the digits 0-9, a point and -" : "";
+    return `: it holds ${quoteText(v.trim())} as text; enter it as a number${retype} (numbers stored as text are not read)`;
+  }
+  return `: it holds the text ${quoteText(v.trim())}`;
 }
 
 function describePosition(name: string, row: number, col: number, cols: number): string {
@@ -105,7 +124,7 @@ export function readPositiveNumbers(value: unknown, name: string): RangeNumbers 
         blanks++;
         continue;
       }
-      if (typeof v !== "number") throw new CellError("#VALUE!", `${describePosition(name, r, c, cols)} is not a number`);
+      if (typeof v !== "number") throw new CellError("#VALUE!", `${describePosition(name, r, c, cols)} is not a number${notANumber(v)}`);
       if (!Number.isFinite(v)) throw new CellError("#VALUE!", `${describePosition(name, r, c, cols)} is too large to represent`);
       if (v < 0) throw new CellError("#VALUE!", `${describePosition(name, r, c, cols)} is negative`);
       values.push(v);
@@ -250,7 +269,7 @@ export function readNumber(value: unknown, name: string): number {
     return value;
   }
   if (value === null || value === undefined || value === "") throw new CellError("#VALUE!", `${name} is required`);
-  throw new CellError("#VALUE!", `${name} must be a number`);
+  throw new CellError("#VALUE!", `${name} must be a number${notANumber(value)}`);
 }
 
 /** An optional number: a missing or blank argument gives the default. */
@@ -363,7 +382,7 @@ export function perRowCount(args: readonly PerRowArgument[]): number {
 export function perRowNumber(arg: PerRowArgument, row: number): number | null {
   const v = arg.cells.length === 1 ? arg.cells[0] : arg.cells[row];
   if (v === null || v === undefined || (typeof v === "string" && v.trim() === "")) return null;
-  if (typeof v !== "number") throw new CellError("#VALUE!", `${arg.name}, row ${row + 1} is not a number`);
+  if (typeof v !== "number") throw new CellError("#VALUE!", `${arg.name}, row ${row + 1} is not a number${notANumber(v)}`);
   if (!Number.isFinite(v)) throw new CellError("#VALUE!", `${arg.name}, row ${row + 1} is not a finite number`);
   return v;
 }

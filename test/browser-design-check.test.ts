@@ -316,6 +316,22 @@ describe.skipIf(chromiumFound.executablePath === null)(`design-check form in hea
     await page.close();
   });
 
+  it("a span typed once for the record as '1,250' is refused with both readings (it was read as 1.25 mm)", async () => {
+    const { page, problems } = await open();
+    await page.click("#record-import summary");
+    await page.fill("#record-text", await readFile(join(ROOT, "examples/machine-export-bars.csv"), "utf8"));
+    await page.click("#record-read");
+    await page.fill("#record-val-innerSpan", "20");
+    await page.fill("#record-val-outerSpan", "1,250");
+    await page.waitForFunction(() => (document.querySelector("#record-error")?.textContent ?? "") !== "");
+    expect(await page.textContent("#record-error")).toMatch(/^Outer \(support\) span \(one value for all\) "1,250" could be 1250 \(with a thousands separator\) or 1\.25: type 1250 for the first, 1,2500 for the second\.$/);
+    expect(await page.isDisabled("#record-use")).toBe(true);
+    await page.fill("#record-val-outerSpan", "40,0"); // a decimal comma still works here, as before
+    await page.waitForFunction(() => !(document.querySelector("#record-use") as HTMLButtonElement).disabled);
+    expect(problems).toEqual([]);
+    await page.close();
+  });
+
   it("the record's lot lines say comparing, then show the lot check's verdicts from the worker; a superseded update never shows", async () => {
     const { page, problems } = await open();
     await page.click("#record-import summary");
@@ -735,6 +751,26 @@ describe("the design check's guards, basis and saved file in the pane", () => {
     for (const text of await page.locator("#result-list .value").allTextContents()) {
       expect(text).not.toMatch(/(^|[^.\d])(100|0) %/);
     }
+    expect(problems).toEqual([]);
+    await page.close();
+  });
+
+  it("reads a typed value as the pasted ones are: '1.250' is refused, a survival typed as '50 %' asks like 0.5", async () => {
+    const { page, problems } = await open();
+    await page.fill("#strengths", STRENGTHS.join("\n"));
+    // "1.250" could be 1250 MPa (thousands separator) or 1.25 MPa; read as 1.25 it passed any check.
+    await fillDesign(page, { specimen: "12.5", part: "800", applied: "1.250" });
+    await page.waitForFunction(() => (document.querySelector("#requirement-error")?.textContent ?? "") !== "");
+    expect(await page.textContent("#requirement-error")).toBe(
+      'The applied peak stress "1.250" could be 1250 (with a thousands separator) or 1.25: type 1250 for the first, 1.2500 for the second.',
+    );
+    expect(await page.getAttribute("#verdict", "data-verdict")).toBeNull();
+    // A percentage is read the same way by the low-survival guard as by the field: 50 % asks for confirmation.
+    await page.fill("#applied-stress", "120");
+    await page.fill("#survival", "50 %");
+    await page.waitForFunction(() => /survival of 0\.5 means 50 % of parts may fail/.test(document.querySelector("#requirement-error")?.textContent ?? ""));
+    expect(await page.isVisible("#low-survival")).toBe(true);
+    expect(await page.getAttribute("#verdict", "data-verdict")).toBeNull();
     expect(problems).toEqual([]);
     await page.close();
   });

@@ -175,7 +175,7 @@ describe.skipIf(!found.executablePath)(`simulating functions in a browser page${
     expectClose(await page.evaluate(([n, a]) => (window as any).hostCall(n, a), [name, args] as const), guarded[name](...args), 1e-12, name);
     expect(requested.slice(before)).toContain("/pane/simulation-worker.js");
     const bad = await page.evaluate(() => (window as any).hostCall("MODULUS", [[[300], ["oops"], [320]], null, null]));
-    expect(bad).toEqual({ code: "#VALUE!", message: "strengths, row 2 is not a number" });
+    expect(bad).toEqual({ code: "#VALUE!", message: 'strengths, row 2 is not a number: it holds the text "oops"' });
     expect(problems).toEqual([]);
     await page.close();
   }, 300_000);

@@ -152,7 +152,7 @@ describe("in slices (the runtime without worker threads)", () => {
     const { cancelable } = await freshModules();
     const environment = { threads: null, pause: async () => {} };
     const bad = await cancelable.runCancelable("MODULUS", [[[300], ["oops"], [320]], null, null], {}, environment);
-    expect(bad).toEqual({ cellError: "#VALUE!", message: "strengths, row 2 is not a number" });
+    expect(bad).toEqual({ cellError: "#VALUE!", message: 'strengths, row 2 is not a number: it holds the text "oops"' });
     const tooMany = Array.from({ length: 1001 }, (_, i) => [300 + i]);
     const flags = tooMany.map((_, i) => [i % 3 === 0]);
     const limit = await cancelable.runCancelable("MODULUS", [tooMany, flags, null], {}, environment);

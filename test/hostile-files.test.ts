@@ -142,10 +142,14 @@ describe("element tables with text beyond ASCII", () => {
     expect(relativeError(r.failureProbability, Pf)).toBeLessThan(1e-13);
   });
 
-  it("part-unicode-minus: a U+2212 minus is refused and quoted as written (the message showed 'â40')", async () => {
+  it("part-unicode-minus: a U+2212 minus sign is a minus (it was refused, and once printed as 'â40'), so -40 is compression", async () => {
     const io = capture();
-    expect(await runPartCommand([at("part-unicode-minus.csv"), "--modulus", "8"], io)).toBe(1);
-    expect(io.stderr).toBe('brittle part: line 3: the stress field 2 ("\u221240") is not a number\n');
+    expect(await runPartCommand([at("part-unicode-minus.csv"), "--modulus", "8", "--scale", "400", "--json"], io), io.stderr).toBe(0);
+    const r = JSON.parse(io.stdout);
+    expect(r.rows).toBe(3);
+    // The elements of part-european.csv (100.5, -40, 250; sizes 2, 1, 0.5): S_E and Pf as defined above (ASTM C1683, Annex A3).
+    expect(relativeError(r.effectiveSize, S)).toBeLessThan(1e-14);
+    expect(relativeError(r.failureProbability, Pf)).toBeLessThan(1e-13);
   });
 });
 
@@ -164,7 +168,8 @@ describe("workbooks (built by make-hostile-workbooks.ts)", () => {
     expect(grid[1][1]).toBe(0);
     // Text in a range of strengths is #VALUE! naming its row (the error policy, README "Errors in cells" and docs/functions.md).
     expect(grid[2][1]).toBe("#VALUE!");
-    expect(io.stderr).toMatch(/^Data!B3: #VALUE!: strengths, row 1 is not a number$/m);
+    // The message says what the cell holds and what to change (it said only "is not a number").
+    expect(io.stderr).toMatch(/^Data!B3: #VALUE!: strengths, row 1 is not a number: it holds "[0-9.]+" as text; enter it as a number \(numbers stored as text are not read\)$/m);
     expect(relativeError(grid[0][3] as number, data.ml.shapeFloat)).toBeLessThan(1e-12); // the same values as numbers: mpmath, weibull_fits.json
   });
 

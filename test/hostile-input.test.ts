@@ -212,16 +212,17 @@ describe("element tables for brittle part", () => {
   });
 
   it("words and malformed numbers stop the read with line and field (never a silent 0 or NaN)", async () => {
-    for (const [name, text] of [
-      ["part-inf-text.csv", "inf"],
-      ["part-nan-text.csv", "NaN"],
-      ["part-infinity-word.csv", "-Infinity"],
-      ["part-space-inside-number.csv", "1 5"],
-      ["part-hex-number.csv", "0x1A"],
+    // Each refusal says what the text is, where the reader can tell (src/input/number-text.ts, explainNotANumber).
+    for (const [name, text, reason] of [
+      ["part-inf-text.csv", "inf", "is infinite, not a number: type a finite value"],
+      ["part-nan-text.csv", "NaN", "marks a missing value: leave the value (or its line) out, or type the number"],
+      ["part-infinity-word.csv", "-Infinity", "is infinite, not a number: type a finite value"],
+      ["part-space-inside-number.csv", "1 5", "is not a number"],
+      ["part-hex-number.csv", "0x1A", "is written in another base (0x, 0b or 0o): type the decimal number"],
     ]) {
       const io = capture(); // not part(): the message quotes the field, "NaN" and "Infinity" included
       expect(await runPartCommand([at(name), "--modulus", "8"], io), name).toBe(1);
-      expect(io.stderr, name).toBe(`brittle part: line 3: the stress field 2 ("${text}") is not a number\n`);
+      expect(io.stderr, name).toBe(`brittle part: line 3: the stress field 2 ("${text}") ${reason}\n`);
       expect(io.stdout).toBe("");
     }
   });

@@ -88,6 +88,14 @@ describe("hostile records (test/fixtures/hostile/export-*)", () => {
     expect(a.specimens[1].strength).toBeGreaterThan(0);
   });
 
+  it("a record that quotes every field is read: a quoted load is a number (every specimen was left out as 'not a number')", () => {
+    const a = bar("export-quoted-fields.csv", { id: 0, load: 1, depth: 2 });
+    // Four-point-1/4 point flexure, S = 3PL/(4bd^2) at L = 40 mm, b = 4 mm, d = 3 mm (ASTM C1161, from memory).
+    expect(a.specimens.map((s) => s.id)).toEqual(["A1", "A2"]);
+    expect(relativeError(a.specimens[0].strength!, flexureStrength({ load: 400, outerSpan: 40, innerSpan: 20, width: 4, depth: 3 }).strength)).toBeLessThan(1e-15);
+    expect(relativeError(a.specimens[1].strength!, (3 * 410.5 * 40) / (4 * 4 * 3 * 3))).toBeLessThan(1e-13);
+  });
+
   it("decimal commas in a comma-delimited record split each number in two: refused, never read as extra columns", () => {
     expect(() => readRecordTable(text(`${H}/export-comma-decimals-in-comma-file.csv`), false)).toThrow(/line 2 has 4 fields, but line 1 has 3/);
   });

@@ -11,6 +11,7 @@ import { CHECK_LEVEL, materialFitCaution } from "./material-fit-caution";
 import { MATERIAL_SIMULATION, simulateMaterialFit } from "./material-fit-simulation";
 import { parseConfiguration, sizeLaw } from "./specimen-geometry";
 import { InputError } from "../errors";
+import { explainNotANumber, quoteText } from "../input/number-text";
 import { fieldNumber, readDelimited } from "../input/read-table";
 
 export interface MaterialFitRequest {
@@ -39,8 +40,11 @@ function groups(request: MaterialFitRequest): { label: string; key: string; stre
     if (record.fields.length < 2) throw new InputError("input", `line ${record.line}: give a strength and its configuration`);
     const strength = fieldNumber(record.fields[0].text, table.dialect.decimalMark, record.line, 1);
     if (strength === null) {
-      if (byKey.size === 0 && record === table.records.find((r) => r.fields.length > 0)) continue; // the header line
-      throw new InputError("input", `line ${record.line}: "${record.fields[0].text}" is not a strength`);
+      const text = record.fields[0].text;
+      const why = explainNotANumber(text);
+      // The header line: the first line, beginning with a letter. "412 MPa", "#N/A" or "n/a" there is a specimen's line, refused below.
+      if (why === null && /^\p{L}/u.test(text) && byKey.size === 0 && record === table.records.find((r) => r.fields.length > 0)) continue;
+      throw new InputError("input", `line ${record.line}: ${quoteText(text)} ${why ?? "is not a strength"}`);
     }
     if (!(strength > 0)) throw new InputError("input", `line ${record.line}: a strength must be positive`);
     const label = record.fields[1].text.trim();

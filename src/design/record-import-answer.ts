@@ -34,7 +34,9 @@ export function readRecordTable(text: string, decimalComma: boolean): RecordTabl
     r.fields.map((f, k) => {
       const t = f.text.trim();
       if (t === "") return null;
-      const n = f.quoted ? null : fieldNumber(t, mark, r.line, k + 1);
+      // A quoted number is a number, as in a .csv sheet (docs/files-and-formats.md): machines that quote every field
+      // export "400" for a load, which was text, so every specimen was left out as "not a number".
+      const n = fieldNumber(t, mark, r.line, k + 1);
       return n === null ? t : n;
     }),
   );

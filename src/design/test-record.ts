@@ -15,6 +15,7 @@
  * avoirdupois pound and standard gravity 9.80665 m/s^2; NIST SP 811).
  */
 import { InputError } from "../errors";
+import { explainNotANumber, quoteText } from "../input/number-text";
 import {
   flexureStrength,
   type LoadStrength,
@@ -232,7 +233,8 @@ export function strengthsFromRecord({ configuration, headers, rows, columns, fix
         return specimen;
       }
       if (typeof cell !== "number" || !Number.isFinite(cell)) {
-        specimen.problem = `${headers[columns[q]!]} "${String(cell)}" is not a number`;
+        const why = typeof cell === "string" ? explainNotANumber(cell) : null;
+        specimen.problem = `${headers[columns[q]!]} ${quoteText(String(cell))} ${why ?? "is not a number"}`;
         return specimen;
       }
       values[q] = cell * factor;

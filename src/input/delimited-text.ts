@@ -28,7 +28,7 @@
  * or decimal mark is stated; a quoted field that never closes.
  */
 import { InputError } from "../errors";
-import { type DecimalMark, classifyNumber } from "./number-text";
+import { type DecimalMark, classifyNumber, closeUpTimesTen, isSpreadsheetError } from "./number-text";
 
 export type Delimiter = "," | ";" | "\t" | "space";
 
@@ -148,8 +148,20 @@ function splitWhitespace(text: string): TextRecord[] {
   if (lines.length > 1 && lines[lines.length - 1] === "") lines.pop(); // the final line end closes a line, opens none
   return lines.map((l, k) => {
     const t = l.trim();
-    return { line: k + 1, fields: t === "" ? [] : t.split(/[ \t\u00a0]+/).map((s) => ({ text: s, quoted: false })) };
+    return { line: k + 1, fields: t === "" ? [] : splitBlanks(closeUpTimesTen(t)).map((s) => ({ text: s, quoted: false })) };
   });
+}
+
+/**
+ * A line split at runs of blanks. A single no-break, narrow no-break or figure
+ * space between a digit and a group of exactly three digits is no blank but a
+ * thousands separator ("1 250", as French and other locales write 1250): it
+ * stays in its field, which the number rules then refuse; splitting there read
+ * 1250 as two fields, 1 and 250.
+ * @example splitBlanks("1\u00a0250 2") // ["1\u00a0250", "2"]
+ */
+export function splitBlanks(line: string): string[] {
+  return line.split(/[ \t]+|[\u00a0\u202f\u2007]+(?!\d{3}(?!\d))|(?<!\d)[\u00a0\u202f\u2007]+/).filter((s) => s !== "");
 }
 
 /**
@@ -161,7 +173,7 @@ export function contentLines(text: string, comments: boolean, limit = 200): { li
   const lines = text.split(/\r\n|\n|\r/);
   for (let k = 0; k < lines.length && out.length < limit; k++) {
     const t = lines[k].trim();
-    if (/^[\s,;"]*$/.test(t) || (comments && t.startsWith("#"))) continue;
+    if (/^[\s,;"]*$/.test(t) || (comments && t.startsWith("#") && !isSpreadsheetError(t.split(/[\t;, ]/)[0]))) continue;
     out.push({ line: k + 1, text: lines[k] });
   }
   return out;

@@ -15,7 +15,7 @@ import {
   fieldCountMessage,
   splitRecords,
 } from "./delimited-text";
-import { type DecimalMark, plainNumberValue, readNumber } from "./number-text";
+import { type DecimalMark, isSpreadsheetError, plainNumberValue, quoteText, readNumber } from "./number-text";
 
 export interface DelimitedTable {
   dialect: Dialect;
@@ -41,8 +41,9 @@ export function readDelimited(text: string, choice: DialectChoice & { comments?:
   return { dialect, records };
 }
 
+/** A '#' comment line; a spreadsheet error value ("#N/A", "#DIV/0!") also begins with '#' but is a value, read (and refused) as one. */
 function isComment(r: TextRecord): boolean {
-  return r.fields.length > 0 && !r.fields[0].quoted && r.fields[0].text.startsWith("#");
+  return r.fields.length > 0 && !r.fields[0].quoted && r.fields[0].text.startsWith("#") && !isSpreadsheetError(r.fields[0].text);
 }
 
 /**
@@ -57,5 +58,5 @@ export function fieldNumber(text: string, mark: DecimalMark | null, line: number
   const r = readNumber(text, mark);
   if (r.ok) return r.value;
   if (r.reason === "is not a number") return null;
-  throw new InputError("input", `line ${line}, field ${field}: "${text}" ${r.reason}`);
+  throw new InputError("input", `line ${line}, field ${field}: ${quoteText(text)} ${r.reason}`);
 }

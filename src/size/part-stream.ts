@@ -28,7 +28,7 @@
 import { ensurePositive, InputError } from "../errors";
 import { contentLines, detectDelimiter, settleDecimalMark, type TextRecord } from "../input/delimited-text";
 import { type EncodingGuess, Utf16ToUtf8, detectEncoding } from "../input/encoding";
-import { type DecimalMark, looksNumeric, readNumber } from "../input/number-text";
+import { type DecimalMark, explainNotANumber, isSpreadsheetError, looksNumeric, quoteText, readNumber } from "../input/number-text";
 import { separatorHint } from "../input/separator-hint";
 import { type Criterion, NsaEvaluator } from "./criteria";
 import {
@@ -559,6 +559,17 @@ export class PartTableReader {
     else if (runs.length < MAX_SKIPPED_RUNS) runs.push({ from: line, to: line, reason });
   }
 
+  /**
+   * A line starting with a spreadsheet error value ("#DIV/0!,2.5", a sheet exported with an error in a
+   * stress cell) is an element whose value is missing, not a '#' comment: skipping it would drop the element.
+   */
+  private refuseErrorValue(buf: Uint8Array, i: number, end: number): void {
+    const text = decodeField(buf, i, Math.min(end, i + 24)).split(/[\s,;"]/)[0];
+    if (isSpreadsheetError(text)) {
+      throw new InputError("input", `line ${this.lineNumber}: ${quoteText(text)} ${explainNotANumber(text)} (a line that begins with a spreadsheet error value is no comment)`);
+    }
+  }
+
   private isBlank(buf: Uint8Array, start: number, end: number): boolean {
     const d = this.delimiter;
     for (let i = start; i < end; i++) {
@@ -576,6 +587,7 @@ export class PartTableReader {
     let i = start;
     while (i < end && (buf[i] === 0x20 || buf[i] === 0x09)) i++;
     if (i < end && buf[i] === 0x23) {
+      this.refuseErrorValue(buf, i, end);
       this.skip("comment");
       return;
     }
@@ -634,7 +646,8 @@ export class PartTableReader {
       if (r.proves) this.settleMark(r.proves, `detected: "${text}" on line ${this.lineNumber}`);
       return r.value;
     }
-    throw new InputError("input", `line ${this.lineNumber}: the ${what} field ${field + 1} ("${text}") ${r.reason}`);
+    const why = r.reason === "is not a number" ? explainNotANumber(text) : null;
+    throw new InputError("input", `line ${this.lineNumber}: the ${what} field ${field + 1} (${quoteText(text)}) ${why ?? r.reason}`);
   }
 
   private dataLine(buf: Uint8Array, start: number, end: number): void {
@@ -648,6 +661,7 @@ export class PartTableReader {
     let i = delimiter === WHITESPACE ? nextFieldStart(buf, start, end, WHITESPACE) : start;
     // Blank lines, lines of bare delimiters and '#' comments are not elements.
     if (i < end && buf[i] === 0x23) {
+      this.refuseErrorValue(buf, i, end);
       this.skip("comment");
       return;
     }

@@ -2,6 +2,8 @@
  * The few DOM helpers the form uses. Text only ever reaches the page through
  * textContent and attributes: nothing the user pastes is parsed as HTML.
  */
+import { quoteText, readTypedNumber, trimInvisible } from "../../src/input/number-text";
+
 export function byId<T extends HTMLElement = HTMLElement>(id: string): T {
   const node = document.getElementById(id);
   if (!node) throw new Error(`the page has no element #${id}`);
@@ -35,30 +37,44 @@ export function radioValue(name: string): string {
   return checked ? checked.value : "";
 }
 
+export interface FieldRule {
+  positive?: boolean;
+  integer?: boolean;
+  probability?: boolean;
+  optional?: boolean;
+}
+
 /**
- * A number typed in a text field. Plain text inputs (not type=number) keep
- * what the user typed visible and let us say exactly what is wrong with it.
+ * The value of a field's text, read as every input is (src/input/number-text.ts):
+ * a point is the decimal mark, "1.250" (1250 or 1.25?) is refused, and so are
+ * units, footnote marks and words, each with what to change; a probability may
+ * be typed as a percentage ("99.99 %"). Undefined for an empty optional field.
+ * No page needed, so the same reading serves the low-survival guard and the tests.
  */
-export function readNumberField(
-  id: string,
-  name: string,
-  rule: { positive?: boolean; integer?: boolean; probability?: boolean; optional?: boolean } = {},
-): number | undefined {
-  const input = byId<HTMLInputElement>(id);
-  const text = input.value.trim();
-  if (text === "") {
+export function fieldNumber(id: string, text: string, name: string, rule: FieldRule = {}): number | undefined {
+  const t = trimInvisible(text);
+  if (t === "") {
     if (rule.optional) return undefined;
     throw new FieldError(id, `Enter the ${name}.`);
   }
-  const value = Number(text);
-  if (!Number.isFinite(value)) throw new FieldError(id, `The ${name} "${text}" is not a number (use a point as the decimal separator).`);
+  const r = readTypedNumber(t, { decimalMark: "point-only", percent: rule.probability });
+  if (!r.ok) throw new FieldError(id, `The ${name} ${quoteText(t)} ${r.reason}.`);
+  const value = r.value;
   if (rule.probability && !(value > 0 && value < 1)) throw new FieldError(id, `The ${name} must lie strictly between 0 and 1.`);
   if (rule.positive && !(value > 0)) throw new FieldError(id, `The ${name} must be greater than zero.`);
   if (rule.integer && !Number.isInteger(value)) throw new FieldError(id, `The ${name} must be a whole number.`);
   return value;
 }
 
-export function requiredNumber(id: string, name: string, rule: Parameters<typeof readNumberField>[2] = {}): number {
+/**
+ * A number typed in a text field. Plain text inputs (not type=number) keep
+ * what the user typed visible and let us say exactly what is wrong with it.
+ */
+export function readNumberField(id: string, name: string, rule: FieldRule = {}): number | undefined {
+  return fieldNumber(id, byId<HTMLInputElement>(id).value, name, rule);
+}
+
+export function requiredNumber(id: string, name: string, rule: FieldRule = {}): number {
   return readNumberField(id, name, { ...rule, optional: false }) as number;
 }
 

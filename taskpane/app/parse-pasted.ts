@@ -21,7 +21,16 @@
  * 0, F or nothing a failure. Anything else is an error at its line.
  */
 import { readSample, CellError } from "../../functions/cells";
-import { type DecimalMark, classifyNumber, looksNumeric, readNumber } from "../../src/input/number-text";
+import {
+  type DecimalMark,
+  classifyNumber,
+  closeUpTimesTen,
+  explainNotANumber,
+  looksNumeric,
+  quoteText,
+  readNumber,
+  trimInvisible,
+} from "../../src/input/number-text";
 
 export interface PastedSample {
   strengths: number[];
@@ -50,7 +59,8 @@ const FAILED = new Set(["FALSE", "0", "F", ""]);
 const FLAG_RULE = "must be TRUE, 1, C or CENSORED (censored) or FALSE, 0, F or blank (failed)";
 
 export function parsePasted(text: string, options: PasteOptions = {}): PastedSample {
-  const all = text.split(/\r\n|\n|\r/).map((t, k) => ({ line: k + 1, text: t.trim() }));
+  // Invisible characters at a line's ends (zero-width spaces, direction marks) are blanks; "4.12 x 10²" is one value.
+  const all = text.split(/\r\n|\n|\r/).map((t, k) => ({ line: k + 1, text: closeUpTimesTen(trimInvisible(t)) }));
   const content = all.filter((l) => l.text !== "");
   if (content.length === 0) throw new PasteError("Paste or type the fracture strengths, one per line.");
   const notes: string[] = [];
@@ -65,6 +75,10 @@ export function parsePasted(text: string, options: PasteOptions = {}): PastedSam
   const reading = chooseReading(content, options.decimalComma ? "comma" : null);
   if (reading.mark === "comma") notes.push("Read with decimal commas.");
 
+  // A zero is no specimen, as in a cell range (where desktop hosts pass a blank cell as 0); here it was typed, so say so.
+  const zeros = reading.rows.filter((r) => r.strength === 0).map((r) => r.line);
+  if (zeros.length > 0) notes.push(`Line${zeros.length === 1 ? "" : "s"} ${zeros.join(", ")} skipped: a zero strength is no specimen.`);
+
   try {
     const sample = readSample(
       reading.rows.map((r) => [r.strength]),
@@ -77,9 +91,9 @@ export function parsePasted(text: string, options: PasteOptions = {}): PastedSam
   }
 }
 
-/** Begins with a letter and holds nothing number-like. */
+/** Begins with a letter and holds nothing number-like; "n/a" or "NaN" alone is a missing value, not a header. */
 function isHeader(text: string): boolean {
-  return /^["']?\p{L}/u.test(text) && !text.split(/[\s;,]+/).some((t) => t !== "" && looksNumeric(t));
+  return /^["']?\p{L}/u.test(text) && !text.split(/[\s;,]+/).some((t) => t !== "" && looksNumeric(t)) && explainNotANumber(text) === null;
 }
 
 interface Row {
@@ -104,6 +118,8 @@ function chooseReading(lines: Line[], stated: DecimalMark | null): Reading {
   const asSeparator = attempt(lines, /\s*,\s*|\s+/, "point");
   // Commas as decimal marks: the numbers must settle it ("412,5"); "1,250" alone stays ambiguous and is refused.
   const asDecimal = attempt(lines, /\s+/, null);
+  // "412," on every line (a spreadsheet's empty second column): both readings give the same sample, so nothing is guessed.
+  if (asSeparator.ok && asDecimal.ok && sameSample(asSeparator.reading, asDecimal.reading)) return asSeparator.reading;
   if (asSeparator.ok && asDecimal.ok && stated === null) {
     const example = lines.find((l) => l.text.includes(","))!;
     throw new PasteError(
@@ -114,6 +130,10 @@ function chooseReading(lines: Line[], stated: DecimalMark | null): Reading {
   if (asSeparator.ok) return asSeparator.reading;
   // Neither reading works: the decimal reading's complaint ("1,250" could be two numbers) says more.
   return settle(asDecimal);
+}
+
+function sameSample(a: Reading, b: Reading): boolean {
+  return a.rows.every((r, k) => r.strength === b.rows[k].strength && r.censored === b.rows[k].censored);
 }
 
 function settle(a: Attempt): Reading {
@@ -137,12 +157,18 @@ function attempt(lines: Line[], separator: RegExp, stated: DecimalMark | null): 
   const rows: Row[] = [];
   let anyFlag = false;
   for (const { line, text } of lines) {
-    const cells = text.split(separator);
-    if (cells.length > 2) return { ok: false, message: `Line ${line}: expected a strength and at most one flag, found ${cells.length} values.` };
+    // A value in double quotes (a spreadsheet quotes a cell it copies with a line end or a quote in it) is read without them.
+    const cells = text.split(separator).map(unquote);
+    if (cells.length > 2) {
+      const problem = lineProblem(line, text, mark);
+      if (problem) return { ok: false, message: problem };
+      if (line === lines[0].line && /^["']?\p{L}/u.test(text)) return { ok: false, message: `Line ${line}: ${quoteText(text)} ${notANumber(text, true)}.` };
+      return { ok: false, message: `Line ${line}: expected a strength and at most one flag, found ${cells.length} values.` };
+    }
     const r = readNumber(cells[0], mark);
     if (!r.ok) {
-      const why = r.reason === "is not a number" ? "is not a number (use a point as the decimal separator)" : r.reason.replace(/\(--decimal-comma or --decimal-point; in the form, the decimal-comma switch\)/, "(the decimal-comma switch)");
-      return { ok: false, message: `Line ${line}: "${cells[0]}" ${why}.` };
+      const why = r.reason === "is not a number" ? notANumber(cells[0], line === lines[0].line) : switchWording(r.reason);
+      return { ok: false, message: `Line ${line}: ${quoteText(cells[0])} ${why}.` };
     }
     if (r.proves) mark = r.proves;
     let censored = false;
@@ -150,11 +176,44 @@ function attempt(lines: Line[], separator: RegExp, stated: DecimalMark | null): 
       anyFlag = true;
       const word = cells[1].trim().toUpperCase();
       if (CENSORED.has(word)) censored = true;
-      else if (!FAILED.has(word)) return { ok: false, message: `Line ${line} (flag) ${FLAG_RULE}; found "${cells[1]}".` };
+      else if (!FAILED.has(word)) return { ok: false, message: lineProblem(line, text, mark) ?? `Line ${line} (flag) ${FLAG_RULE}; found ${quoteText(cells[1])}.` };
     }
     rows.push({ line, strength: r.value, censored });
   }
   return { ok: true, reading: { rows, anyFlag, mark } };
+}
+
+function unquote(cell: string): string {
+  const m = /^\s*"(.*)"\s*$/.exec(cell);
+  return m && !/(^|[^"])"([^"]|$)/.test(m[1]) ? m[1].replace(/""/g, '"').trim() : cell;
+}
+
+function switchWording(reason: string): string {
+  return reason.replace(/\(--decimal-comma or --decimal-point; in the form, the decimal-comma switch\)/, "(the decimal-comma switch)");
+}
+
+/** Why a value is no number, in the words of the box: the specific reason where there is one. */
+function notANumber(text: string, firstLine: boolean): string {
+  const why = explainNotANumber(text);
+  if (why) return why;
+  // A first line that begins with a letter but holds a number is not taken for a header (see isHeader).
+  if (firstLine && /^["']?\p{L}/u.test(text)) return "is not a number (a header line must hold no number: remove the number from it, or the line)";
+  return "is not a number (use a point as the decimal separator)";
+}
+
+/**
+ * A line that splits into a strength and something that is no flag, read as a
+ * whole: "412 MPa" carries a unit, "1 234" is grouped thousands, "412 (invalid)"
+ * has a remark. Null where the whole line says nothing more.
+ */
+function lineProblem(line: number, text: string, mark: DecimalMark | null): string | null {
+  const shape = classifyNumber(text);
+  if (shape.kind === "grouped") {
+    const r = readNumber(text, mark);
+    if (!r.ok) return `Line ${line}: ${quoteText(text)} ${r.reason}.`;
+  }
+  const why = explainNotANumber(text);
+  return why ? `Line ${line}: ${quoteText(text)} ${why}.` : null;
 }
 
 /** The cell policy names rows of a range; here they are lines of the box. */

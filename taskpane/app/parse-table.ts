@@ -3,14 +3,15 @@
  * element per line, its stresses first (1 column: maximum principal; 3:
  * principal stresses; 6: tensor sxx, syy, szz, sxy, syz, szx) and its volume
  * or area last. Delimiter and decimal mark follow the rules of every input
- * (src/input); a first line with anything that is not a number is a header;
+ * (src/input); a first line with a field of plain text (not number-shaped, no
+ * unit, mark or error value) and no value the rules refuse is a header;
  * blank lines and '#' comments are skipped, and every skipped line is named
  * in `notes`. Compressive (negative) stresses are kept, the core counts them
  * as nothing.
  */
 import { InputError } from "../../src/errors";
 import { contentLines, detectDelimiter, settleDecimalMark, splitRecords } from "../../src/input/delimited-text";
-import { readNumber } from "../../src/input/number-text";
+import { explainNotANumber, isSpreadsheetError, looksNumeric, quoteText, readNumber } from "../../src/input/number-text";
 
 export interface ElementTable {
   stresses: number[][];
@@ -44,7 +45,8 @@ function read(text: string, decimalMark: "comma" | "auto"): { table: ElementTabl
       if (r.line <= all[all.length - 1].line) skipped.push(`line ${r.line} (blank)`);
       return false;
     }
-    if (!r.fields[0].quoted && r.fields[0].text.startsWith("#")) {
+    // "#N/A", "#DIV/0!": a spreadsheet's error value where a stress was, not a comment; refused below with its line.
+    if (!r.fields[0].quoted && r.fields[0].text.startsWith("#") && !isSpreadsheetError(r.fields[0].text)) {
       skipped.push(`line ${r.line} (comment)`);
       return false;
     }
@@ -52,7 +54,10 @@ function read(text: string, decimalMark: "comma" | "auto"): { table: ElementTabl
   });
   if (records.length === 0) throw new TableError("Paste the element table: stresses, then the element's volume or area, one element per line.");
   const mark = settleDecimalMark(records, delimiter, choice).decimalMark;
-  if (records[0].fields.some((f) => !readNumber(f.text, mark).ok)) {
+  // A header holds a field that is no number, and every such field is plain text: "1,250", "1 250" or "412 MPa"
+  // on the first line is a value the rules refuse below, not a header to skip.
+  const readable = records[0].fields.map((f) => readNumber(f.text, mark).ok);
+  if (readable.includes(false) && records[0].fields.every((f, k) => readable[k] || (!looksNumeric(f.text) && explainNotANumber(f.text) === null))) {
     skipped.unshift(`line ${records[0].line} (header)`);
     records.shift();
   }
@@ -70,7 +75,7 @@ function read(text: string, decimalMark: "comma" | "auto"): { table: ElementTabl
     if (fields.length !== width) throw new TableError(`Line ${r.line}: expected ${width} values like the first row, found ${fields.length}.`);
     const values = fields.map((f) => {
       const v = readNumber(f.text, mark);
-      if (!v.ok) throw new TableError(`Line ${r.line}: "${f.text}" ${v.reason}.`);
+      if (!v.ok) throw new TableError(`Line ${r.line}: ${quoteText(f.text)} ${(v.reason === "is not a number" && explainNotANumber(f.text)) || v.reason}.`);
       return v.value;
     });
     const size = values[width - 1];

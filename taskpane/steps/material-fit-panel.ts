@@ -16,6 +16,8 @@ import { type MaterialFitRequest } from "../../src/design/material-fit-answer";
 import { MATERIAL_FIT_BUSY, MaterialFitRuns } from "../../functions/material-fit-run";
 import { CANCELED } from "../../functions/sliced-run";
 import { byId, el } from "../app/dom";
+import { InputError } from "../../src/errors";
+import { quoteText, readTypedNumber, trimInvisible } from "../../src/input/number-text";
 
 // The pure answer lives in the core; re-exported for the panel's tests.
 export { materialFitAnswer, type MaterialFitAnswer, type MaterialFitRequest } from "../../src/design/material-fit-answer";
@@ -38,11 +40,14 @@ function showRunning(running: boolean): void {
 }
 
 function request(): MaterialFitRequest {
-  const poissonText = byId<HTMLInputElement>("mfit-poisson").value.trim().replace(",", ".");
+  // A decimal point or comma, whichever the value shows; anything else is refused with the reason (it became NaN).
+  const poissonText = trimInvisible(byId<HTMLInputElement>("mfit-poisson").value);
+  const poisson = poissonText === "" ? null : readTypedNumber(poissonText, { decimalMark: "either" });
+  if (poisson && !poisson.ok) throw new InputError("input", `Poisson's ratio ${quoteText(poissonText)} ${poisson.reason}`);
   return {
     text: byId<HTMLTextAreaElement>("mfit-text").value,
     flaws: byId<HTMLSelectElement>("mfit-flaws").value === "surface" ? "surface" : "volume",
-    poisson: poissonText === "" ? undefined : Number(poissonText),
+    poisson: poisson?.ok ? poisson.value : undefined,
     decimalComma: byId<HTMLInputElement>("decimal-comma").checked,
   };
 }
@@ -55,7 +60,15 @@ async function runOrCancel(): Promise<void> {
     clear("Canceled; nothing was fitted.");
     return;
   }
-  const asked = request();
+  let asked: MaterialFitRequest;
+  try {
+    asked = request();
+  } catch (error) {
+    if (!(error instanceof InputError)) throw error;
+    clear();
+    byId("mfit-error").textContent = `${error.message}.`;
+    return;
+  }
   if (asked.text.trim() === "") {
     clear();
     return;

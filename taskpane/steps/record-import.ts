@@ -16,6 +16,7 @@ import { guessColumns, type Label, QUANTITIES, type Quantity, type TestConfigura
 import { type ImportAnswer, type LotLine, pendingLotLines, type RecordLot, type RecordTable, readRecordTable, recordSummary } from "../../src/design/record-import-answer";
 import { InputError } from "../../src/errors";
 import { decodeText } from "../../src/input/encoding";
+import { quoteText, readTypedNumber, trimInvisible } from "../../src/input/number-text";
 import { RecordLotRuns } from "../../functions/record-lots-run";
 import { CANCELED } from "../../functions/sliced-run";
 import { byId, el } from "../app/dom";
@@ -101,8 +102,12 @@ function readMapping(config: TestConfiguration): { columns: Partial<Record<Quant
   }
   for (const q of QUANTITIES[config]) {
     if (columns[q] !== undefined) continue;
-    const text = byId<HTMLInputElement>(`record-val-${q}`).value.trim().replace(",", ".");
-    if (text !== "") fixed[q] = Number(text);
+    // A decimal point or comma, whichever the value shows (or the switch states); "1,250" and "40 mm" are refused with the reason.
+    const text = trimInvisible(byId<HTMLInputElement>(`record-val-${q}`).value);
+    if (text === "") continue;
+    const r = readTypedNumber(text, { decimalMark: byId<HTMLInputElement>("decimal-comma").checked ? "comma" : "either" });
+    if (!r.ok) throw new InputError("input", `${QUANTITY_NAMES[q]} (one value for all) ${quoteText(text)} ${r.reason}`);
+    fixed[q] = r.value;
   }
   return { columns, fixed };
 }

@@ -14,7 +14,7 @@
 import type { CheckDescription, LifetimeDescription, RequirementDescription, TimeUnit } from "../../src/design/check-description";
 import { HIGH_FAILURE_PROBABILITY, LOW_SURVIVAL } from "../../src/design/check-description";
 import { bUnitText, convertTime, parseBUnit } from "../../src/design/check-units";
-import { byId, FieldError, radioValue, readNumberField, requiredNumber } from "../app/dom";
+import { byId, FieldError, fieldNumber, radioValue, readNumberField, requiredNumber } from "../app/dom";
 import { setCheckbox, setRadio, setSelect } from "./fill";
 
 export const REQUIREMENT_FIELDS = ["survival", "allowed-failures", "applied-stress", "lot-size", "lifetime", "time-unit", "scg-n", "scg-b", "proof-stress"];
@@ -55,8 +55,9 @@ export function setupRequirement(onChange: () => void): void {
  */
 function impliedFailureProbability(): { low: boolean; text: string } {
   const lot = radioValue("target") === "lot";
-  const value = Number(byId<HTMLInputElement>(lot ? "allowed-failures" : "survival").value.trim());
-  const lotSize = Number(byId<HTMLInputElement>("lot-size").value.trim());
+  // Read as the fields themselves are read (a survival typed as "50 %" is 0.5 here too); NaN where a field is refused.
+  const value = typedValue(lot ? "allowed-failures" : "survival", !lot);
+  const lotSize = typedValue("lot-size", false);
   if (!lot) {
     if (!(value > 0 && value < LOW_SURVIVAL)) return { low: false, text: "" };
     return {
@@ -72,6 +73,14 @@ function impliedFailureProbability(): { low: boolean; text: string } {
     low: true,
     text: `${value} failures allowed in a lot of ${lotSize} is ${Number((pf * 100).toPrecision(4))} % of parts: far above the usual design targets.`,
   };
+}
+
+function typedValue(id: string, probability: boolean): number {
+  try {
+    return fieldNumber(id, byId<HTMLInputElement>(id).value, id, { probability, optional: true }) ?? Number.NaN;
+  } catch {
+    return Number.NaN;
+  }
 }
 
 export function readRequirement(): {
