@@ -5,7 +5,8 @@
  *   brittle part FILE --modulus M [--scale S0] [--criterion PIA|NSA|MAXPRINCIPAL]
  *                [--stress COLS] [--size COL] [--id COL|none]
  *                [--header auto|yes|no] [--delimiter auto|,|;|tab|space]
- *                [--decimal-comma|--decimal-point] [--top N] [--json] [--quiet]
+ *                [--decimal-comma|--decimal-point] [--integration-points]
+ *                [--top N] [--json] [--quiet]
  *
  * FILE is a delimited text table (or "-" for standard input), one element per
  * line. Columns are found from the header names or, without a header, from
@@ -35,14 +36,19 @@ export interface PartCommandIo {
 export const PART_USAGE = `usage: brittle part FILE --modulus M [--scale S0] [--criterion PIA|NSA|MAXPRINCIPAL]
                    [--stress COLS] [--size COL] [--id COL|none] [--header auto|yes|no]
                    [--delimiter auto|,|;|tab|space] [--decimal-comma|--decimal-point]
-                   [--top N] [--json] [--quiet]
+                   [--integration-points] [--top N] [--json] [--quiet]
 FILE: a table of element stresses and sizes, one element per line ("-" reads standard input).
   --modulus M      Weibull modulus (required)
   --scale S0       material scale parameter for the size unit of the table: prints the failure probability
   --criterion C    multiaxial criterion, default PIA
   --stress COLS    stress columns by header name or 1-based position: 1 (max principal), 3 (principal)
-                   or 6 (sxx,syy,szz,sxy,syz,szx), comma-separated
+                   or 6 (sxx,syy,szz,sxy,syz,szx), comma-separated; components named in the header go
+                   by their names (S13 is szx), and SXX,SYY,SXY (plane stress) or SXX,SYY,SZZ,SXY
+                   (axisymmetric: SZZ the hoop stress) name a 2-D tensor
   --size COL       element volume or area column;  --id COL  element id column, or "none"
+  --integration-points  each row is an integration point (or node) and its size that point's own
+                   share of the element: rows with the same element id are expected (otherwise
+                   refused: an element volume repeated on each row would count it several times)
   --header H       auto (default: a first line with no number in it is a header), yes, no
   --delimiter D    auto (default), a character, "tab" or "space" (runs of blanks)
   --decimal-comma  the decimal mark is a comma (--decimal-point: a point); default: from the numbers,
@@ -76,6 +82,7 @@ export function parsePartArgs(args: string[]): PartArgs {
   let top = 10;
   let json = false;
   let quiet = false;
+  let integrationPoints = false;
   const value = (i: number, name: string): string => {
     const v = args[i + 1];
     if (v === undefined || (v.startsWith("--") && v.length > 2)) throw new UsageError(`${name} needs a value`);
@@ -147,6 +154,9 @@ export function parsePartArgs(args: string[]): PartArgs {
       case "--json":
         json = true;
         break;
+      case "--integration-points":
+        integrationPoints = true;
+        break;
       case "--quiet":
       case "-q":
         quiet = true;
@@ -161,7 +171,7 @@ export function parsePartArgs(args: string[]): PartArgs {
   if (modulus === undefined) throw new UsageError("part needs --modulus (the Weibull modulus m)");
   return {
     file,
-    options: { shape: modulus, materialScale: scale, criterion, columns, header, delimiter, decimalMark, top },
+    options: { shape: modulus, materialScale: scale, criterion, columns, header, delimiter, decimalMark, top, integrationPoints },
     json,
     quiet,
   };
@@ -231,6 +241,16 @@ function percent(x: number): string {
 /** The human-readable report. */
 export function formatPartReport(file: string, r: PartFileResult): string {
   const kinds = { 1: "maximum principal", 3: "principal", 6: "tensor, principal stresses computed" } as const;
+  const tensor = r.columns.tensor;
+  const kind =
+    tensor === "plane stress"
+      ? "2-D tensor, plane stress: szz = syz = szx = 0; principal stresses computed"
+      : tensor === "axisymmetric or plane strain"
+        ? `2-D tensor, axisymmetric or plane strain: ${r.columns.labels.stress[2]} the hoop or out-of-plane stress, syz = szx = 0; principal stresses computed`
+        : kinds[r.columns.kind];
+  const shownStress = r.columns.labels.stress.filter((_, k) => r.columns.stress[k] >= 0);
+  const stressUnit = r.columns.units.stress;
+  const sizeUnit = r.columns.units.size;
   const lines: string[] = [];
   const row = (label: string, text: string) => lines.push(`${label.padEnd(16)}${text}`);
   const header = r.skipped.find((s) => s.reason === "header");
@@ -245,17 +265,28 @@ export function formatPartReport(file: string, r: PartFileResult): string {
   row("read as", `${r.encoding}, delimiter "${r.delimiter}", ${mark}${r.threads === 2 ? "; on two threads" : ""}`);
   row(
     "columns",
-    `stresses ${r.columns.labels.stress.join(", ")} (${kinds[r.columns.kind]}); size ${r.columns.labels.size}` +
+    `stresses ${shownStress.join(", ")} (${kind}); size ${r.columns.labels.size}` +
       (r.columns.labels.id ? `; id ${r.columns.labels.id}` : "; no id column (elements named by line)"),
   );
+  row(
+    "units",
+    (stressUnit === null && sizeUnit === null
+      ? "none written in the header"
+      : `stresses ${stressUnit ?? "(not written)"}, sizes ${sizeUnit ?? "(not written)"}, from the header`) +
+      ": a material scale and the strengths must be in the table's units",
+  );
+  if (r.integrationPoints) row("rows", "integration points (or nodes), each with its own share of the element's size (--integration-points)");
   row("criterion", `${r.criterion}, Weibull modulus ${fmt(r.shape)}`);
   if (r.peak === 0) {
     row("peak stress", "no element is in tension: failure probability 0, effective size undefined");
     return lines.join("\n") + "\n";
   }
   const where = r.peakId !== null ? `element ${r.peakId} (line ${r.peakLine})` : `line ${r.peakLine}`;
-  row("peak stress", `${fmt(r.peak)} at ${where}`);
-  row("effective size", `${fmt(r.effectiveSize)} (unit of the size column), referenced to uniaxial tension at the peak stress`);
+  row("peak stress", `${fmt(r.peak)}${stressUnit ? ` ${stressUnit}` : ""} at ${where}`);
+  row(
+    "effective size",
+    `${fmt(r.effectiveSize)} ${sizeUnit ?? `(unit of the size column ${r.columns.labels.size})`}, referenced to uniaxial tension at the peak stress`,
+  );
   if (r.failureProbability !== null) {
     row("failure prob.", `${fmt(r.failureProbability)} with material scale sigma_0 (risk of rupture ${fmt(r.risk as number)})`);
   }
@@ -281,7 +312,7 @@ export function formatPartReport(file: string, r: PartFileResult): string {
  * "skipped lines 4-6 (blank), line 9 (comment)".
  */
 export function formatSkipped(r: PartStreamResult): string {
-  const runs = r.skipped.filter((s) => s.reason !== "header");
+  const runs = r.skipped.filter((s) => s.reason !== "header").sort((a, b) => a.from - b.from);
   const headers = r.skipped.filter((s) => s.reason === "header").length;
   if (r.skippedLines - headers === 0) return "";
   const text = runs.map((s) => (s.from === s.to ? `line ${s.from}` : `lines ${s.from}-${s.to}`) + ` (${s.reason})`);

@@ -12,7 +12,21 @@
  *   single     S, STRESS, SMAX, MAXPRINCIPAL, S1 (when only one stress column is found)
  *   size       SIZE, VOLUME, VOL, IVOL, EVOL, AREA, IAREA, EAREA, V, A, DV, DA
  *   id         ID, ELEMENT, ELEM, ELEMENTID, ELEMID, EID, LABEL
- * A full tensor wins over principal stresses, which win over a single column.
+ * A full tensor wins over principal stresses, which win over a 2-D tensor
+ * (SXX SYY SXY: plane stress; SXX SYY SZZ SXY: axisymmetric or plane strain,
+ * SZZ the hoop or out-of-plane stress; the other components are 0), which
+ * wins over a single column. A unit written in a header name ("S11 (MPa)",
+ * "IVOL [mm^3]", "EVOL, m^3", "S1/MPa") is no part of the name: it is kept
+ * for the report, and stress columns in different units are refused.
+ * Stress components named by --stress are placed by their names (S13 is
+ * szx wherever it stands), and a component named where principal stresses
+ * are expected (--stress SXX,SYY,SZZ) is refused: it is not a principal
+ * stress.
+ *
+ * A header with a node or integration-point column (NODE, IP, INTPT, ...)
+ * marks several rows per element; such a table is refused unless the caller
+ * states that each row's size is its own share (pointSizes), and so is a
+ * header with node numbers and no size column (nodal-averaged stresses).
  *
  * Without a header, by count: 2 fields = stress, size; 3 = id, stress, size;
  * 4 = s1, s2, s3, size; 5 = id, s1, s2, s3, size; 7 = six tensor components,
@@ -22,7 +36,7 @@ import { InputError } from "../errors";
 import type { StressColumns } from "./part";
 
 export interface ColumnChoice {
-  /** Names or 1-based positions of 1, 3 or 6 stress columns. */
+  /** Names or 1-based positions of 1, 3 or 6 stress columns (3 or 4 tensor components by name: a 2-D tensor). */
   stress?: readonly (string | number)[];
   /** Name or 1-based position of the size column. */
   size?: string | number;
@@ -30,19 +44,59 @@ export interface ColumnChoice {
   id?: string | number | null;
 }
 
+/** How the stress columns are read: 1 maximum principal, 3 principal, 6 tensor (2-D tensors have absent components). */
+export type TensorForm = "3-D" | "plane stress" | "axisymmetric or plane strain";
+
 export interface ResolvedColumns {
-  /** 0-based field positions of the stress columns, in table order. */
+  /**
+   * 0-based field positions of the stress columns: table order for 1 or 3 columns; for a tensor
+   * sxx, syy, szz, sxy, syz, szx, with -1 for a component a 2-D table does not have (read as 0).
+   */
   stress: number[];
   kind: StressColumns;
+  /** For a tensor (kind 6): which one; null otherwise. */
+  tensor: TensorForm | null;
   size: number;
   /** 0-based position of the id column, or -1. */
   id: number;
-  /** Names for the report (header names, or "column k"). */
+  /** Names for the report (header names, or "column k"); an absent tensor component is "0". */
   labels: { stress: string[]; size: string; id: string | null };
+  /** Units written in the header names ("MPa", "mm^3"), null where none is written. */
+  units: { stress: string | null; size: string | null };
+  /** A node or integration-point column: several rows per element (its header name), or null. */
+  pointColumn: string | null;
 }
 
+/** A header name without punctuation, in capitals, for matching. */
 function norm(name: string): string {
-  return name.toUpperCase().replace(/[\s_.\-()[\]]+/g, "");
+  return name.toUpperCase().replace(/[\s_.\-()[\]{}/,]+/g, "");
+}
+
+const STRESS_UNIT = /^(?:[GMk]?Pa|psi|ksi|bar|MN\/m\^?2|N\/mm\^?2|N\/m\^?2|N\/mm²|N\/m²|MN\/m²)$/i;
+const SIZE_UNIT = /^(?:mm|cm|m|µm|um|in|ft|inch)(?:\^?[23]|[²³])$/i;
+
+function isUnit(text: string): boolean {
+  return STRESS_UNIT.test(text) || SIZE_UNIT.test(text);
+}
+
+/**
+ * A header name split into the name and a unit written after it: in brackets ("S11 (MPa)",
+ * "IVOL [mm^3]", "S {psi}", any text), or a known unit after a comma, a slash, a blank or an
+ * underscore ("EVOL, m^3", "S1/MPa", "S1 MPa", "S1_MPa").
+ * @example splitUnit("IVOL [mm^3]") // { name: "IVOL", unit: "mm^3" }
+ */
+export function splitUnit(header: string): { name: string; unit: string | null } {
+  const text = header.trim();
+  const bracket = /^(.*?\S)\s*[([{]\s*([^()[\]{}]*?)\s*[)\]}]$/.exec(text);
+  if (bracket) return { name: bracket[1], unit: bracket[2] === "" ? null : bracket[2] };
+  const after = /^(.*?\S)\s*(?:,|\/|\s|_)\s*(\S+)$/.exec(text);
+  if (after && isUnit(after[2])) return { name: after[1], unit: after[2] };
+  return { name: text, unit: null };
+}
+
+/** The unit in a form fit to compare ("N/mm²" and "n/mm^2" alike). */
+function unitKey(unit: string): string {
+  return unit.toLowerCase().replace(/\s+/g, "").replace("²", "^2").replace("³", "^3").replace(/([a-z])([23])$/, "$1^$2");
 }
 
 const TENSOR: string[][] = [
@@ -53,6 +107,7 @@ const TENSOR: string[][] = [
   ["SYZ", "S23", "SZY", "S32"],
   ["SZX", "S31", "SXZ", "S13"],
 ];
+const TENSOR_ROLES = ["sxx", "syy", "szz", "sxy", "syz", "szx"];
 const PRINCIPAL: string[][] = [
   ["S1", "SP1", "SMAX", "MAXPRINCIPAL", "SMAXPRINCIPAL"],
   ["S2", "SP2", "SMID", "MIDPRINCIPAL", "SMIDPRINCIPAL"],
@@ -61,6 +116,8 @@ const PRINCIPAL: string[][] = [
 const SINGLE = ["S", "STRESS", "SMAX", "MAXPRINCIPAL", "SMAXPRINCIPAL", "S1", "SP1"];
 const SIZE = ["SIZE", "VOLUME", "VOL", "IVOL", "EVOL", "AREA", "IAREA", "EAREA", "V", "A", "DV", "DA"];
 const ID = ["ID", "ELEMENT", "ELEM", "ELEMENTID", "ELEMID", "EID", "LABEL"];
+/** Columns that number nodes or integration points: several rows per element. */
+const POINT = ["NODE", "NODEID", "NODELABEL", "NID", "NODENUMBER", "IP", "INTPT", "INTEGRATIONPOINT", "GAUSSPOINT", "GP", "NP", "POINT", "SECTIONPOINT", "SECPT"];
 
 function findName(names: string[], wanted: readonly string[]): number {
   for (const w of wanted) {
@@ -70,7 +127,12 @@ function findName(names: string[], wanted: readonly string[]): number {
   return -1;
 }
 
-function pick(ref: string | number, header: string[] | null, fieldCount: number, what: string): number {
+/** The tensor component (0..5: sxx, syy, szz, sxy, syz, szx) a name stands for, or -1. */
+function tensorRole(name: string): number {
+  return TENSOR.findIndex((aliases) => aliases.includes(name));
+}
+
+function pick(ref: string | number, header: string[] | null, names: string[] | null, fieldCount: number, what: string): number {
   if (typeof ref === "number" || /^\s*\d+\s*$/.test(String(ref))) {
     const k = Number(ref);
     if (!(Number.isInteger(k) && k >= 1 && k <= fieldCount)) {
@@ -78,31 +140,90 @@ function pick(ref: string | number, header: string[] | null, fieldCount: number,
     }
     return k - 1;
   }
-  if (!header) throw new InputError("input", `${what} column "${ref}" given by name, but the table has no header`);
-  const at = header.map(norm).indexOf(norm(ref));
+  if (!header || !names) throw new InputError("input", `${what} column "${ref}" given by name, but the table has no header`);
+  let at = header.map(norm).indexOf(norm(String(ref)));
+  if (at < 0) at = names.indexOf(norm(splitUnit(String(ref)).name));
   if (at < 0) throw new InputError("input", `${what} column "${ref}" is not in the header (${header.join(", ")})`);
   return at;
 }
 
-function kindOf(count: number): StressColumns {
+/**
+ * Stress columns named by the caller: tensor components are placed by their names; a 2-D
+ * tensor (3 or 4 components) is completed with absent components; a component where principal
+ * stresses are meant is refused.
+ */
+function namedStress(
+  refs: readonly (string | number)[],
+  positions: number[],
+  names: string[] | null,
+  header: string[] | null,
+): { stress: number[]; tensor: TensorForm | null } {
+  const byName = names !== null && refs.every((r) => typeof r !== "number" && !/^\s*\d+\s*$/.test(String(r)));
+  const roles = byName ? positions.map((p) => tensorRole(names![p])) : positions.map(() => -1);
+  const components = roles.filter((r) => r >= 0).length;
+  if (components === 0) return { stress: positions, tensor: null };
+  const shown = positions.map((p) => header![p]).join(", ");
+  const form = tensorForm(roles);
+  if (components !== positions.length || form === null || new Set(roles).size !== roles.length) {
+    throw new InputError(
+      "input",
+      `--stress ${shown}: ${components === 1 ? "a stress component is" : "stress components are"} not principal stresses; ` +
+        "give the maximum principal stress, the three principal stresses, all six components, " +
+        "or a 2-D tensor (SXX,SYY,SXY for plane stress; SXX,SYY,SZZ,SXY for axisymmetric or plane strain)",
+    );
+  }
+  const stress = [-1, -1, -1, -1, -1, -1];
+  roles.forEach((role, k) => (stress[role] = positions[k]));
+  return { stress, tensor: form };
+}
+
+/** Which tensor a set of components (0..5) makes, or null. */
+function tensorForm(roles: number[]): TensorForm | null {
+  const has = (r: number) => roles.includes(r);
+  if (roles.length === 6 && [0, 1, 2, 3, 4, 5].every(has)) return "3-D";
+  if (has(0) && has(1) && has(3) && !has(4) && !has(5)) {
+    if (roles.length === 3) return "plane stress";
+    if (roles.length === 4 && has(2)) return "axisymmetric or plane strain";
+  }
+  return null;
+}
+
+function kindOf(count: number, tensor: TensorForm | null): StressColumns {
+  if (tensor !== null) return 6;
   if (count === 1 || count === 3 || count === 6) return count;
   throw new InputError("input", `give 1, 3 or 6 stress columns (got ${count})`);
 }
 
 /** Resolves the columns from the header (or null) and the number of fields per row. */
-export function resolveColumns(header: string[] | null, fieldCount: number, choice: ColumnChoice = {}): ResolvedColumns {
-  const names = header ? header.map(norm) : null;
-  let stress: number[] | null = choice.stress ? choice.stress.map((s) => pick(s, header, fieldCount, "stress")) : null;
-  let size = choice.size !== undefined ? pick(choice.size, header, fieldCount, "size") : -1;
-  let id = choice.id === null ? -1 : choice.id !== undefined ? pick(choice.id, header, fieldCount, "id") : -2;
+export function resolveColumns(header: string[] | null, fieldCount: number, choice: ColumnChoice = {}, pointSizes = false): ResolvedColumns {
+  const split = header ? header.map(splitUnit) : null;
+  const names = split ? split.map((h) => norm(h.name)) : null;
+  let stress: number[] | null = null;
+  let tensor: TensorForm | null = null;
+  if (choice.stress) {
+    const positions = choice.stress.map((s) => pick(s, header, names, fieldCount, "stress"));
+    ({ stress, tensor } = namedStress(choice.stress, positions, names, header));
+  }
+  let size = choice.size !== undefined ? pick(choice.size, header, names, fieldCount, "size") : -1;
+  let id = choice.id === null ? -1 : choice.id !== undefined ? pick(choice.id, header, names, fieldCount, "id") : -2;
+  let pointColumn: string | null = null;
 
   if (names) {
+    const point = findName(names, POINT);
+    if (point >= 0) pointColumn = header![point];
     if (!stress) {
-      const tensor = TENSOR.map((aliases) => findName(names, aliases));
+      const components = TENSOR.map((aliases) => findName(names, aliases));
       const principal = PRINCIPAL.map((aliases) => findName(names, aliases));
-      if (tensor.every((k) => k >= 0)) stress = tensor;
-      else if (principal.every((k) => k >= 0)) stress = principal;
-      else {
+      const present = components.map((k, role) => (k >= 0 ? role : -1)).filter((r) => r >= 0);
+      const form = tensorForm(present);
+      if (components.every((k) => k >= 0)) {
+        stress = components;
+        tensor = "3-D";
+      } else if (principal.every((k) => k >= 0)) stress = principal;
+      else if (form !== null) {
+        stress = components;
+        tensor = form;
+      } else {
         const single = findName(names, SINGLE);
         if (single >= 0) stress = [single];
       }
@@ -112,6 +233,13 @@ export function resolveColumns(header: string[] | null, fieldCount: number, choi
     }
     if (size < 0) {
       size = findName(names, SIZE);
+      if (size < 0 && pointColumn !== null) {
+        throw new InputError(
+          "input",
+          `the header (${header!.join(", ")}) has a column "${pointColumn}" of node or integration-point numbers and no volume or area: ` +
+            "nodal (averaged) stresses? The effective size needs each element's volume or area: export element stresses with the element volume (or area)",
+        );
+      }
       if (size < 0) throw new InputError("input", `no size column recognised in the header (${header!.join(", ")}); name it with --size`);
     }
     if (id === -2) id = findName(names, ID);
@@ -136,15 +264,32 @@ export function resolveColumns(header: string[] | null, fieldCount: number, choi
     if (id === -2) id = layout[0];
   }
   if (id === -2) id = -1;
-  const kind = kindOf(stress.length);
-  const all = [...stress, size, ...(id >= 0 ? [id] : [])];
+  const kind = kindOf(stress.length, tensor);
+  const all = [...stress.filter((k) => k >= 0), size, ...(id >= 0 ? [id] : [])];
   if (new Set(all).size !== all.length) throw new InputError("input", "the stress, size and id columns must all differ");
-  const label = (k: number) => (header ? header[k] : `column ${k + 1}`);
+  if (pointColumn !== null && !pointSizes) {
+    throw new InputError(
+      "input",
+      `the header has a column "${pointColumn}" (node or integration-point numbers): several rows per element. ` +
+        "If the size column holds each point's own share of the element's volume or area, state --integration-points; " +
+        "if it holds the element's volume on every row, the sum would count each element once per row: " +
+        "export one row per element (element-averaged or centroid stresses) with the element volume instead",
+    );
+  }
+  const label = (k: number) => (k < 0 ? "0" : header ? header[k] : `column ${k + 1}`);
+  const stressUnits = split ? [...new Set(stress.filter((k) => k >= 0).map((k) => split[k].unit).filter((u): u is string => u !== null && isUnit(u)))] : [];
+  if (new Set(stressUnits.map(unitKey)).size > 1) {
+    throw new InputError("input", `the stress columns are in different units (${stressUnits.join(", ")}): export them in one unit`);
+  }
+  const sizeUnit = split ? split[size].unit : null;
   return {
     stress,
     kind,
+    tensor,
     size,
     id,
     labels: { stress: stress.map(label), size: label(size), id: id >= 0 ? label(id) : null },
+    units: { stress: stressUnits[0] ?? null, size: sizeUnit !== null && isUnit(sizeUnit) ? sizeUnit : null },
+    pointColumn,
   };
 }

@@ -69,6 +69,11 @@ export interface PartStreamOptions {
   /** Rows per batch (default DEFAULT_BATCH_ROWS). */
   batchRows?: number;
   /**
+   * Each row is an integration point (or node) whose size is its own share of the element's
+   * volume or area: rows with the same element id one after another are expected, not refused.
+   */
+  integrationPoints?: boolean;
+  /**
    * Read a later part of a table whose beginning another reader has settled
    * (see SettledTable): no read-ahead, no header; line numbers count from the
    * start of this part.
@@ -114,7 +119,7 @@ export interface HotSpot {
 export interface SkippedLines {
   from: number;
   to: number;
-  reason: "header" | "blank" | "comment" | "delimiter line" | "end-of-file mark";
+  reason: "header" | "blank" | "comment" | "delimiter line" | "end-of-file mark" | "repeated header" | "page title" | "text after the last element";
 }
 
 export interface PartStreamResult {
@@ -140,6 +145,8 @@ export interface PartStreamResult {
   risk: number | null;
   failureProbability: number | null;
   hotSpots: HotSpot[];
+  /** Rows are integration points or nodes with their own sizes (stated by the caller). */
+  integrationPoints: boolean;
 }
 
 interface Held {
@@ -183,6 +190,8 @@ const SNIFF_LINES = 200;
 // Bytes: enough for a few lines of the longest kind, so an overlong first comment does not leave the sample empty.
 const SNIFF_BYTES = 4 * MAX_LINE_BYTES;
 const MAX_SKIPPED_RUNS = 100;
+/** Text lines held while waiting for a repeated header (or, before the first, for the header). */
+const MAX_HELD_TEXT = 20;
 
 function delimiterName(b: number): string {
   return b === WHITESPACE ? "space" : b === 0x09 ? "tab" : String.fromCharCode(b);
@@ -198,6 +207,7 @@ export class PartTableReader {
   private readonly statedMark: DecimalMark | null;
   private readonly top: number;
   private readonly batchRows: number;
+  private readonly integrationPoints: boolean;
   /** A later piece of a table (options.continueFrom). */
   private readonly continuing: boolean;
 
@@ -208,6 +218,18 @@ export class PartTableReader {
   /** Fields on the first line: every element line must have as many. */
   private fieldCount = 0;
   private firstLineNumber = 0;
+  /** The header's fields (a repeated one is a listing's page header), or null without a header. */
+  private headerFields: string[] | null = null;
+  /** Text lines met among the elements, held until a repeated header shows they were a page title. */
+  private pageText: { line: number; text: string; problem: string }[] = [];
+  /** Text lines before the header that are no header (a listing's title), held until the header comes. */
+  private titleText: { line: number; text: string; problem: string }[] = [];
+  /** The last element id of the previous batch (repeats are integration-point or nodal rows). */
+  private lastId: string | number | null = null;
+  private lastIdLine = 0;
+  private lastSize = 0;
+  /** Some row so far had a numeric id. */
+  private sawNumericId = false;
 
   /** Read-ahead until the dialect is settled. */
   private sniffed = false;
@@ -264,6 +286,7 @@ export class PartTableReader {
     this.statedMark = options.decimalMark && options.decimalMark !== "auto" ? options.decimalMark : null;
     this.top = Math.max(0, Math.floor(options.top ?? 10));
     this.batchRows = Math.max(1, Math.floor(options.batchRows ?? DEFAULT_BATCH_ROWS));
+    this.integrationPoints = options.integrationPoints ?? false;
     this.nsa = this.criterion === "NSA" ? new NsaEvaluator(this.shape) : null;
     const from = options.continueFrom;
     this.continuing = from !== undefined;
@@ -461,7 +484,7 @@ export class PartTableReader {
   private lines_(buf: Uint8Array, start: number, end: number): void {
     let s = start;
     while (s < end) {
-      if (this.columns !== null && this.delimiter !== WHITESPACE) {
+      if (this.columns !== null && this.delimiter !== WHITESPACE && this.pageText.length === 0) {
         const next = this.fastRow(buf, s, end);
         if (next >= 0) {
           s = next;
@@ -550,9 +573,8 @@ export class PartTableReader {
     this.dataLine(buf, start, end);
   }
 
-  private skip(reason: SkippedLines["reason"]): void {
+  private skip(reason: SkippedLines["reason"], line = this.lineNumber): void {
     this.skipped++;
-    const line = this.lineNumber;
     const runs = this.skippedRuns;
     const lastRun = runs[runs.length - 1];
     if (lastRun && lastRun.reason === reason && lastRun.to === line - 1) lastRun.to = line;
@@ -600,9 +622,26 @@ export class PartTableReader {
     // A data line has numbers in its stress and size fields; a header has none (ids may be text).
     const anyNumber = fields.some((f) => f !== "" && looksNumeric(withExponentE(f)));
     const isHeader = this.headerMode === "yes" || (this.headerMode === "auto" && !anyNumber);
-    this.useColumns(resolveColumns(isHeader ? fields : null, fields.length, this.choice), fields.length, this.lineNumber);
-    if (isHeader) this.skip("header");
-    else this.dataLine(buf, start, end);
+    if (!isHeader && this.titleText.length > 0) throw new InputError("input", this.titleText[0].problem);
+    let columns: ResolvedColumns;
+    try {
+      columns = resolveColumns(isHeader ? fields : null, fields.length, this.choice, this.integrationPoints);
+    } catch (error) {
+      // A line of words that names no columns: a listing's title, if a header follows.
+      const noColumns = error instanceof InputError && /^no (stress|size) column/.test(error.message);
+      if (noColumns && this.headerMode === "auto" && isHeader && this.titleText.length < MAX_HELD_TEXT) {
+        this.titleText.push({ line: this.lineNumber, text: fields.join(" "), problem: (error as InputError).message });
+        return;
+      }
+      throw error;
+    }
+    for (const t of this.titleText) this.skip("page title", t.line);
+    this.titleText = [];
+    this.useColumns(columns, fields.length, this.lineNumber);
+    if (isHeader) {
+      this.headerFields = fields;
+      this.skip("header");
+    } else this.dataLine(buf, start, end);
   }
 
   /** Column positions, field count and the batch buffers. */
@@ -613,7 +652,9 @@ export class PartTableReader {
     const k = this.columns.stress.length;
     this.lastField = Math.max(...this.columns.stress, this.columns.size, this.columns.id);
     this.slotOf = new Int32Array(this.lastField + 1).fill(-1);
-    this.columns.stress.forEach((f, slot) => (this.slotOf[f] = slot));
+    this.columns.stress.forEach((f, slot) => {
+      if (f >= 0) this.slotOf[f] = slot;
+    });
     this.slotOf[this.columns.size] = k;
     if (this.columns.id >= 0) this.slotOf[this.columns.id] = k + 1;
     const n = this.batchRows;
@@ -646,11 +687,61 @@ export class PartTableReader {
       if (r.proves) this.settleMark(r.proves, `detected: "${text}" on line ${this.lineNumber}`);
       return r.value;
     }
-    const why = r.reason === "is not a number" ? explainNotANumber(text) : null;
+    const why = r.reason === "is not a number" ? (fortranReason(text) ?? explainNotANumber(text)) : null;
     throw new InputError("input", `line ${this.lineNumber}: the ${what} field ${field + 1} (${quoteText(text)}) ${why ?? r.reason}`);
   }
 
+  /**
+   * A line after the first: an element, or (in a table with a header) a listing's page header
+   * (title lines, then the header again: skipped and listed), or text among the elements, which
+   * stops the read once an element follows it (a summary's values are no elements).
+   */
   private dataLine(buf: Uint8Array, start: number, end: number): void {
+    if (this.headerFields === null) {
+      this.row(buf, start, end);
+      return;
+    }
+    let read: boolean;
+    try {
+      read = this.row(buf, start, end);
+    } catch (error) {
+      if (error instanceof InputError && this.heldAsText(buf, start, end, error)) return;
+      throw error;
+    }
+    if (read && this.pageText.length > 0) this.textAmongElements();
+  }
+
+  /** A line that is no element: a repeated header (skipped with the text lines before it) or text, held; false for neither. */
+  private heldAsText(buf: Uint8Array, start: number, end: number, error: InputError): boolean {
+    const fields = splitFields(buf, start, end, this.delimiter as number);
+    const header = this.headerFields as string[];
+    if (fields.length >= header.length && fields.every((f, k) => (k < header.length ? f === header[k] : f === ""))) {
+      for (const t of this.pageText) this.skip("page title", t.line);
+      this.pageText = [];
+      this.skip("repeated header");
+      return true;
+    }
+    const first = fields.find((f) => f !== "") ?? "";
+    if (looksNumeric(withExponentE(first)) || this.pageText.length >= MAX_HELD_TEXT) return false;
+    this.pageText.push({ line: this.lineNumber, text: fields.join(" "), problem: error.message });
+    return true;
+  }
+
+  /** An element after text lines that no repeated header explained. */
+  private textAmongElements(): never {
+    const t = this.pageText[0];
+    const text = t.text.length > 60 ? `${t.text.slice(0, 57)}...` : t.text;
+    throw new InputError(
+      "input",
+      `line ${t.line} ("${text}") is no element, and rows follow it (line ${this.lineNumber}): a summary (maximum, minimum, total) ` +
+        `or a page title of a listing? Rows after such a line may be summary values, not elements, so the read stops ` +
+        `(line ${t.line} as an element: ${t.problem.replace(/^line \d+: /, "")}). Delete these lines or export the table alone; ` +
+        `a line repeating the header, with the title lines just before it, is skipped`,
+    );
+  }
+
+  /** Reads one line into the batch; false when it holds no element (blank, comment, end-of-file mark). */
+  private row(buf: Uint8Array, start: number, end: number): boolean {
     const delimiter = this.delimiter as number;
     const slotOf = this.slotOf;
     const last = this.lastField;
@@ -663,16 +754,16 @@ export class PartTableReader {
     if (i < end && buf[i] === 0x23) {
       this.refuseErrorValue(buf, i, end);
       this.skip("comment");
-      return;
+      return false;
     }
     if (this.isBlank(buf, start, end)) {
       this.skip("blank");
-      return;
+      return false;
     }
     // A lone Ctrl-Z: the end-of-file mark older DOS and Windows programs write after the last line.
     if (end === start + 1 && buf[start] === 0x1a) {
       this.skip("end-of-file mark");
-      return;
+      return false;
     }
     let extra = false;
     for (;;) {
@@ -685,8 +776,13 @@ export class PartTableReader {
             this.idNumbers[row] = v;
             if (this.idTexts) this.idTexts[row] = null;
           } else {
+            const text = decodeField(buf, i, e).trim().replace(/^"|"$/g, "");
+            // A word where the ids were numbers: MAX, MIN, TOTAL, VALUE... a listing's summary line.
+            if (/^[A-Za-z]+$/.test(text) && (this.sawNumericId || (row > 0 && !(this.idTexts?.[row - 1] ?? null)))) {
+              throw new InputError("input", `line ${this.lineNumber}: the id field ${field + 1} ("${text}") is a word where the ids before it were numbers`);
+            }
             this.idTexts ??= new Array<string | null>(this.batchRows).fill(null);
-            this.idTexts[row] = decodeField(buf, i, e).trim().replace(/^"|"$/g, "");
+            this.idTexts[row] = text;
           }
         } else {
           const v = this.numberField(buf, i, e, slot === k ? "size" : "stress", field);
@@ -700,7 +796,11 @@ export class PartTableReader {
       if (delimiter === WHITESPACE && i >= end) break;
     }
     if (field < this.fieldCount) {
-      throw new InputError("input", `line ${this.lineNumber}: expected at least ${this.fieldCount} fields as on line ${this.firstLineNumber}, found ${field}`);
+      throw new InputError(
+        "input",
+        `line ${this.lineNumber}: expected at least ${this.fieldCount} fields as on line ${this.firstLineNumber}, found ${field}` +
+          touchingHint(splitFields(buf, start, end, delimiter)),
+      );
     }
     if (extra) {
       throw new InputError(
@@ -715,6 +815,7 @@ export class PartTableReader {
     this.rowsRead++;
     this.inBatch++;
     if (this.inBatch === this.batchRows) this.flush();
+    return true;
   }
 
   /** "element 7 (line 9)" or "line 9". */
@@ -727,6 +828,7 @@ export class PartTableReader {
   private flush(): void {
     const n = this.inBatch;
     if (n === 0) return;
+    if (this.columns!.id >= 0) this.checkIds(n);
     const kind = this.columns!.kind;
     if (kind === 6) {
       const raw = this.raw;
@@ -763,6 +865,47 @@ export class PartTableReader {
       if (!Number.isFinite(this.total.sum + this.total.compensation)) this.sumOverflow(n);
     }
     this.inBatch = 0;
+  }
+
+  /**
+   * Rows one after another with the same element id are the rows of integration-point or nodal
+   * output: refused unless the caller stated that each row's size is its own share (a size
+   * repeated on every row would count the element once per row).
+   */
+  private checkIds(n: number): void {
+    const numbers = this.idNumbers;
+    const texts = this.idTexts;
+    let previous = this.lastId;
+    for (let r = 0; r < n; r++) {
+      const id = texts !== null && texts[r] !== null ? (texts[r] as string) : numbers[r];
+      if (id === previous && !this.integrationPoints) this.repeatedId(r, n);
+      if (typeof id === "number") this.sawNumericId = true;
+      previous = id;
+    }
+    this.lastId = previous;
+    this.lastIdLine = this.lines[n - 1];
+    this.lastSize = this.sizes[n - 1];
+  }
+
+  private repeatedId(r: number, n: number): never {
+    const id = this.idOf(r) as string;
+    const before = r > 0 ? this.lines[r - 1] : this.lastIdLine;
+    const sizeBefore = r > 0 ? this.sizes[r - 1] : this.lastSize;
+    let count = 2;
+    for (let k = r + 1; k < n && this.idOf(k) === id; k++) count++;
+    const size = this.sizes[r];
+    const label = this.columns!.labels.size;
+    const sizes =
+      size === sizeBefore
+        ? `The size column (${label}) holds ${size} on both rows: if that is the element's volume or area, the sum would count it once per row ` +
+          `(${count} rows here, ${count} times)`
+        : `The size column (${label}) holds ${sizeBefore} and ${size}`;
+    throw new InputError(
+      "input",
+      `element ${id} is on line ${before} and again on line ${this.lines[r]}: several rows per element, as integration-point or nodal output writes them? ` +
+        `${sizes}. Export one row per element (element-averaged or centroid stresses) with the element volume or area; ` +
+        `if each row's size is that point's own share of the element, state --integration-points`,
+    );
   }
 
   /** The running sum left double precision: name the largest element of the batch that overflowed it. */
@@ -840,7 +983,11 @@ export class PartTableReader {
   finish(allowNoElement = false): PartStreamResult {
     if (!this.sniffed) this.sniff();
     if (this.carryLength > 0) this.feed(new Uint8Array([LF]));
+    if (this.columns === null && this.titleText.length > 0) throw new InputError("input", this.titleText[0].problem);
     if (this.columns === null) throw new InputError("input", "the table is empty: no line holds an element");
+    // Text after the last element (a listing's footer or summary) holds no element: skipped and listed.
+    for (const t of this.pageText) this.skip("text after the last element", t.line);
+    this.pageText = [];
     if (this.rowsRead === 0 && !allowNoElement) {
       throw new InputError("input", `the table is empty: ${this.lineNumber} line${this.lineNumber === 1 ? "" : "s"} read (header, blank or comment), no element`);
     }
@@ -868,8 +1015,35 @@ export class PartTableReader {
       risk,
       failureProbability,
       hotSpots,
+      integrationPoints: this.integrationPoints,
     };
   }
+}
+
+/**
+ * Why a field Fortran-style writers produce is no number, in words; null for other text:
+ * asterisks (the number overflowed its field width) and two numbers touching, or a mantissa
+ * with a signed exponent but no exponent letter ("1.234-102"), which could be either.
+ */
+export function fortranReason(text: string): string | null {
+  if (/^\*+$/.test(text)) {
+    return "is a run of asterisks, which Fortran-style writers print when a number does not fit its field: the value is lost; export with a wider number format";
+  }
+  const m = /^([+-]?(?:\d+\.?\d*|\.\d+))([EeDd][+-]?\d+)?([+-]\d.*)$/.exec(text);
+  if (!m) return null;
+  if (!m[2] && /^[+-]\d{1,3}$/.test(m[3])) {
+    return (
+      `is a mantissa and a signed exponent with no exponent letter (${m[1]}E${m[3]}, as some Fortran formats write three-digit exponents), ` +
+      `or two numbers touching (${m[1]} and ${m[3]}): it is not read; export with an exponent letter and blanks or a delimiter between columns`
+    );
+  }
+  return `holds two numbers with nothing between them (${m[1]}${m[2] ?? ""} and ${m[3]}), as fixed-width columns print a negative number that fills its field: export with a delimiter or wider columns`;
+}
+
+/** A note for a row with too few fields: a field holding two touching numbers explains it. */
+function touchingHint(fields: string[]): string {
+  const touching = fields.find((f) => /^[+-]?(\d+\.?\d*|\.\d+)([EeDd][+-]?\d+)?[+-]\d/.test(f));
+  return touching === undefined ? "" : ` ("${touching}" ${fortranReason(touching)})`;
 }
 
 /**
