@@ -94,9 +94,19 @@ export function splitUnit(header: string): { name: string; unit: string | null }
   return { name: text, unit: null };
 }
 
-/** The unit in a form fit to compare ("N/mm²" and "n/mm^2" alike). */
+/** The unit in a form fit to compare ("N/mm²" and "n/mm^2" alike; MPa is N/mm^2). */
 function unitKey(unit: string): string {
-  return unit.toLowerCase().replace(/\s+/g, "").replace("²", "^2").replace("³", "^3").replace(/([a-z])([23])$/, "$1^$2");
+  const key = unit.replace(/\s+/g, "").replace("²", "^2").replace("³", "^3").replace(/([A-Za-z])([23])$/, "$1^$2");
+  const pascals: Record<string, string> = { pa: "Pa", kpa: "kPa", mpa: "MPa", gpa: "GPa", "n/mm^2": "MPa", "mn/m^2": "MPa", "n/m^2": "Pa" };
+  return pascals[key.toLowerCase()] ?? key.toLowerCase().replace("um", "µm");
+}
+
+/**
+ * Whether two unit texts name the same unit ("mm^3" and "mm³", "MPa" and "N/mm^2").
+ * @example sameUnit("N/mm²", "MPa") // true
+ */
+export function sameUnit(a: string, b: string): boolean {
+  return unitKey(a) === unitKey(b);
 }
 
 const TENSOR: string[][] = [
@@ -271,9 +281,9 @@ export function resolveColumns(header: string[] | null, fieldCount: number, choi
     throw new InputError(
       "input",
       `the header has a column "${pointColumn}" (node or integration-point numbers): several rows per element. ` +
-        "If the size column holds each point's own share of the element's volume or area, state --integration-points; " +
-        "if it holds the element's volume on every row, the sum would count each element once per row: " +
-        "export one row per element (element-averaged or centroid stresses) with the element volume instead",
+        "With the element's volume or area on every row the sum would count each element once per row: " +
+        "export one row per element (element-averaged or centroid stresses) with the element volume or area instead; " +
+        "if the size column holds each point's own share of the element, state --integration-points",
     );
   }
   const label = (k: number) => (k < 0 ? "0" : header ? header[k] : `column ${k + 1}`);
@@ -292,4 +302,24 @@ export function resolveColumns(header: string[] | null, fieldCount: number, choi
     units: { stress: stressUnits[0] ?? null, size: sizeUnit !== null && isUnit(sizeUnit) ? sizeUnit : null },
     pointColumn,
   };
+}
+
+/**
+ * Why a header does not fit a table read by position (1, 3 or 6 stress columns, then the size,
+ * as a selected range is read), or null when it fits or names no columns the reader knows.
+ * @example positionalHeaderProblem(["VOL", "S1"]) // "the header puts VOL before ..."
+ */
+export function positionalHeaderProblem(header: string[]): string | null {
+  let columns: ResolvedColumns;
+  try {
+    columns = resolveColumns(header, header.length);
+  } catch (error) {
+    if (error instanceof InputError && /^no (stress|size) column/.test(error.message)) return null;
+    return error instanceof InputError ? error.message : String(error);
+  }
+  const count = header.length - 1;
+  const inOrder = columns.stress.length === count && columns.stress.every((k, i) => k === i);
+  if (columns.id < 0 && columns.size === count && inOrder && columns.tensor !== "plane stress" && columns.tensor !== "axisymmetric or plane strain") return null;
+  const read = [...columns.stress.filter((k) => k >= 0).map((k) => header[k]), header[columns.size]].join(", ");
+  return `the header names the columns ${read}${columns.id >= 0 ? ` and the id ${header[columns.id]}` : ""}, but a selected range is read by position: 1, 3 or 6 stress columns (sxx, syy, szz, sxy, syz, szx), then the size`;
 }

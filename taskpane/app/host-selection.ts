@@ -6,6 +6,7 @@
  * data where they are.
  */
 import type { DataSource } from "../../src/design/check-description";
+import { positionalHeaderProblem } from "../../src/size/part-columns";
 
 export interface Selection {
   text: string;
@@ -24,6 +25,8 @@ export async function readSelection(context: Excel.RequestContext): Promise<Sele
   const first = values[0]?.[0];
   const header = typeof first === "string" && first.trim() !== "" && !Number.isFinite(Number(first));
   if (header && range.rowCount < 2) throw new Error("The selection holds only a header.");
+  const problem = header ? positionalHeaderProblem(values[0].map(cellText)) : null;
+  if (problem !== null) throw new Error(`${problem.charAt(0).toUpperCase()}${problem.slice(1)}: select the columns in that order, or paste the table with its header.`);
   const data = header ? range.getOffsetRange(1, 0).getResizedRange(-1, 0) : range;
   const strengths = data.getColumn(0);
   strengths.load("address");
@@ -65,6 +68,8 @@ export async function readTableSelection(context: Excel.RequestContext): Promise
   const values = range.values as unknown[][];
   const header = values[0].some((v) => typeof v === "string" && v.trim() !== "" && !Number.isFinite(Number(v)));
   if (header && range.rowCount < 2) throw new Error("The selection holds only a header.");
+  const problem = header ? positionalHeaderProblem(values[0].map(cellText)) : null;
+  if (problem !== null) throw new Error(`${problem.charAt(0).toUpperCase()}${problem.slice(1)}: select the columns in that order, or paste the table with its header.`);
   const data = header ? range.getOffsetRange(1, 0).getResizedRange(-1, 0) : range;
   const stresses = data.getResizedRange(0, -1);
   const sizes = data.getLastColumn();

@@ -1,17 +1,22 @@
 /**
  * An element table pasted into the form (or read from a selected range): one
- * element per line, its stresses first (1 column: maximum principal; 3:
- * principal stresses; 6: tensor sxx, syy, szz, sxy, syz, szx) and its volume
- * or area last. Delimiter and decimal mark follow the rules of every input
- * (src/input); a first line with a field of plain text (not number-shaped, no
- * unit, mark or error value) and no value the rules refuse is a header;
- * blank lines and '#' comments are skipped, and every skipped line is named
- * in `notes`. Compressive (negative) stresses are kept, the core counts them
- * as nothing.
+ * element per line. Without a header: its stresses first (1 column: maximum
+ * principal; 3: principal stresses; 6: tensor sxx, syy, szz, sxy, syz, szx)
+ * and its volume or area last. With a header, the columns are found by their
+ * names as `brittle part` finds them (src/size/part-columns.ts): any order,
+ * extra columns ignored, 2-D tensors, units written in the names (which must
+ * agree with the form's units), and an id column whose repeats (rows of
+ * integration-point or nodal output) are refused. Delimiter and decimal mark
+ * follow the rules of every input (src/input); a first line with a field of
+ * plain text (not number-shaped, no mark or error value; a name may carry a
+ * unit, "S1 (MPa)") and no value the rules refuse is a header; blank lines
+ * and '#' comments are skipped, and every skipped line is named in `notes`.
+ * Compressive (negative) stresses are kept, the core counts them as nothing.
  */
 import { InputError } from "../../src/errors";
 import { contentLines, detectDelimiter, settleDecimalMark, splitRecords } from "../../src/input/delimited-text";
 import { explainNotANumber, isSpreadsheetError, looksNumeric, quoteText, readNumber } from "../../src/input/number-text";
+import { type ResolvedColumns, resolveColumns, sameUnit, splitUnit } from "../../src/size/part-columns";
 
 export interface ElementTable {
   stresses: number[][];
@@ -21,21 +26,34 @@ export interface ElementTable {
 
 export class TableError extends Error {}
 
-export function parseElementTable(text: string, options: { decimalComma?: boolean } = {}): ElementTable {
+export interface TableOptions {
+  decimalComma?: boolean;
+  /** The form's stress and size units: a unit written in the header must be the same. */
+  stressUnit?: string;
+  sizeUnit?: string;
+}
+
+export function parseElementTable(text: string, options: TableOptions = {}): ElementTable {
   return readElementTable(text, options).table;
 }
 
-/** The table, and the notes for under the field: which lines were skipped. */
-export function readElementTable(text: string, options: { decimalComma?: boolean } = {}): { table: ElementTable; notes: string[] } {
+/** The table, and the notes for under the field: which lines were skipped, which columns were read. */
+export function readElementTable(text: string, options: TableOptions = {}): { table: ElementTable; notes: string[] } {
   try {
-    return read(text, options.decimalComma ? "comma" : "auto");
+    return read(text, options.decimalComma ? "comma" : "auto", options);
   } catch (error) {
-    if (error instanceof InputError) throw new TableError(error.message.charAt(0).toUpperCase() + error.message.slice(1) + ".");
+    if (error instanceof InputError) {
+      // The shared column rules speak of the command line's options; here a header names the columns.
+      const message = error.message
+        .replace(/; name (them|it) with --\w+/, "; name the columns in the header as docs/files-and-formats.md lists them")
+        .replace(/; if (each row's size|the size column holds each point's own share)[^;]*--integration-points/, "");
+      throw new TableError(message.charAt(0).toUpperCase() + message.slice(1) + ".");
+    }
     throw error;
   }
 }
 
-function read(text: string, decimalMark: "comma" | "auto"): { table: ElementTable; notes: string[] } {
+function read(text: string, decimalMark: "comma" | "auto", options: TableOptions): { table: ElementTable; notes: string[] } {
   const choice = { allowWhitespace: true, decimalMark };
   const delimiter = detectDelimiter(contentLines(text, true, Number.POSITIVE_INFINITY), choice);
   const all = splitRecords(text, delimiter.delimiter);
@@ -54,14 +72,19 @@ function read(text: string, decimalMark: "comma" | "auto"): { table: ElementTabl
   });
   if (records.length === 0) throw new TableError("Paste the element table: stresses, then the element's volume or area, one element per line.");
   const mark = settleDecimalMark(records, delimiter, choice).decimalMark;
-  // A header holds a field that is no number, and every such field is plain text: "1,250", "1 250" or "412 MPa"
-  // on the first line is a value the rules refuse below, not a header to skip.
+  // A header holds a field that is no number, and every such field is plain text (a name, perhaps with its unit:
+  // "S1 (MPa)"): "1,250", "1 250" or "412 MPa" on the first line is a value the rules refuse below, not a header to skip.
   const readable = records[0].fields.map((f) => readNumber(f.text, mark).ok);
-  if (readable.includes(false) && records[0].fields.every((f, k) => readable[k] || (!looksNumeric(f.text) && explainNotANumber(f.text) === null))) {
+  let byPosition: string | null = null;
+  if (readable.includes(false) && records[0].fields.every((f, k) => readable[k] || isColumnName(f.text))) {
+    const header = records[0].fields.map((f) => f.text);
     skipped.unshift(`line ${records[0].line} (header)`);
     records.shift();
+    if (records.length === 0) throw new TableError("The element table has a header but no rows.");
+    const columns = byNames(header);
+    if (columns !== null) return readByHeader(header, columns, records, mark, skipped, options);
+    byPosition = `No column names recognised in the header (${header.join(", ")}): read by position, stresses first, size last.`;
   }
-  if (records.length === 0) throw new TableError("The element table has a header but no rows.");
   const first = records[0];
   const width = first.fields.length;
   const columns = width - 1;
@@ -83,6 +106,83 @@ function read(text: string, decimalMark: "comma" | "auto"): { table: ElementTabl
     stresses.push(values.slice(0, columns));
     sizes.push(size);
   }
-  const notes = skipped.length > 0 ? [`Skipped ${skipped.join(", ")}.`] : [];
+  const notes = [...(skipped.length > 0 ? [`Skipped ${skipped.join(", ")}.`] : []), ...(byPosition ? [byPosition] : [])];
   return { table: { stresses, columns: columns as 1 | 3 | 6, sizes }, notes };
+}
+
+type Records = ReturnType<typeof splitRecords>;
+
+/** Plain text, or plain text with a unit after it ("S1 (MPa)", "IVOL [mm^3]"): a column name, not a value. */
+function isColumnName(text: string): boolean {
+  const plain = (t: string) => !looksNumeric(t) && explainNotANumber(t) === null;
+  if (plain(text)) return true;
+  const { name, unit } = splitUnit(text);
+  return unit !== null && plain(name);
+}
+
+/** The columns a header names, or null when it names no stress or no size column (then read by position, as before). */
+function byNames(header: string[]): ResolvedColumns | null {
+  try {
+    return resolveColumns(header, header.length);
+  } catch (error) {
+    if (error instanceof InputError && /^no (stress|size) column/.test(error.message)) return null;
+    throw error;
+  }
+}
+
+/** A table whose header names its columns: read by those names, as `brittle part` reads it. */
+function readByHeader(
+  header: string[],
+  columns: ResolvedColumns,
+  records: Records,
+  mark: ReturnType<typeof settleDecimalMark>["decimalMark"],
+  skipped: string[],
+  options: TableOptions,
+): { table: ElementTable; notes: string[] } {
+  const { stress: stressUnit, size: sizeUnit } = columns.units;
+  if (stressUnit !== null && options.stressUnit !== undefined && !sameUnit(stressUnit, options.stressUnit)) {
+    throw new TableError(`The header gives the stresses in ${stressUnit}, but the stress unit of this check is ${options.stressUnit}: convert the table, or set the stress unit to ${stressUnit}.`);
+  }
+  if (sizeUnit !== null && options.sizeUnit !== undefined && !sameUnit(sizeUnit, options.sizeUnit)) {
+    throw new TableError(`The header gives the sizes in ${sizeUnit}, but the size unit of this check is ${options.sizeUnit}: choose ${sizeUnit} as the size unit, or convert the table.`);
+  }
+  const width = header.length;
+  const stresses: number[][] = [];
+  const sizes: number[] = [];
+  let previousId: string | null = null;
+  let previousLine = 0;
+  const value = (r: Records[number], k: number): number => {
+    const f = r.fields[k];
+    const v = readNumber(f.text, mark);
+    if (!v.ok) throw new TableError(`Line ${r.line}: "${f.text}" ${v.reason}.`);
+    return v.value;
+  };
+  for (const r of records) {
+    const fields = r.fields.length > width && r.fields.slice(width).every((f) => f.text === "") ? r.fields.slice(0, width) : r.fields;
+    if (fields.length !== width) throw new TableError(`Line ${r.line}: expected ${width} values like the header, found ${fields.length}.`);
+    if (columns.id >= 0) {
+      const id = fields[columns.id].text;
+      if (id === previousId) {
+        throw new TableError(
+          `Element ${id} is on line ${previousLine} and again on line ${r.line}: several rows per element, as integration-point or nodal output writes them? ` +
+            "Repeated sizes would count each element once per row. Paste one row per element (element-averaged or centroid stresses) with the element volume or area.",
+        );
+      }
+      previousId = id;
+      previousLine = r.line;
+    }
+    const size = value(r, columns.size);
+    if (size < 0) throw new TableError(`Line ${r.line}: the element size is negative.`);
+    stresses.push(columns.stress.map((k) => (k < 0 ? 0 : value(r, k))));
+    sizes.push(size);
+  }
+  const used = [...columns.stress.filter((k) => k >= 0), columns.size, ...(columns.id >= 0 ? [columns.id] : [])];
+  const ignored = header.filter((_, k) => !used.includes(k));
+  const form = columns.tensor === "plane stress" ? " (plane stress)" : columns.tensor === "axisymmetric or plane strain" ? ` (axisymmetric or plane strain, ${columns.labels.stress[2]} the hoop stress)` : "";
+  const notes = [
+    ...(skipped.length > 0 ? [`Skipped ${skipped.join(", ")}.`] : []),
+    `Read stresses ${columns.stress.filter((k) => k >= 0).map((k) => header[k]).join(", ")}${form} and sizes ${columns.labels.size} by the header` +
+      (ignored.length > 0 ? `; ignored ${ignored.join(", ")}.` : "."),
+  ];
+  return { table: { stresses, columns: columns.kind, sizes }, notes };
 }

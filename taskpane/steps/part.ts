@@ -35,7 +35,11 @@ export function readPart(): PartDescription {
     const note = byId("element-table-note");
     note.textContent = "";
     try {
-      const { table, notes } = readElementTable(text, { decimalComma: byId<HTMLInputElement>("decimal-comma").checked });
+      const { table, notes } = readElementTable(text, {
+        decimalComma: byId<HTMLInputElement>("decimal-comma").checked,
+        stressUnit: byId<HTMLInputElement>("stress-unit").value.trim() || undefined,
+        sizeUnit: byId<HTMLSelectElement>("size-unit").value,
+      });
       note.textContent = notes.join(" ");
       const source: TableSource = fromRange && fromRange.text === text ? fromRange.source : { kind: "pasted" };
       return { kind: "table", ...table, source };
