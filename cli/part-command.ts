@@ -255,11 +255,13 @@ export function formatPartReport(file: string, r: PartFileResult): string {
   const row = (label: string, text: string) => lines.push(`${label.padEnd(16)}${text}`);
   const header = r.skipped.find((s) => s.reason === "header");
   const others = r.skippedLines - (header ? 1 : 0);
+  // A listing's page headers and summary lines are skipped too: not only blanks and comments then.
+  const listing = r.skipped.some((s) => s.reason === "repeated header" || s.reason === "page title" || s.reason === "text after the last element");
   row(
     "element table",
     `${file}: ${r.rows} elements` +
       (header ? `, header on line ${header.from}` : ", no header") +
-      (others > 0 ? `; ${others} blank or comment line${others === 1 ? "" : "s"} skipped (listed on stderr)` : ""),
+      (others > 0 ? `; ${others} ${listing ? "other" : "blank or comment"} line${others === 1 ? "" : "s"} skipped (listed on stderr)` : ""),
   );
   const mark = r.decimalMark === null ? "no decimal mark needed (whole numbers)" : `decimal ${r.decimalMark} (${r.decimalBasis})`;
   row("read as", `${r.encoding}, delimiter "${r.delimiter}", ${mark}${r.threads === 2 ? "; on two threads" : ""}`);

@@ -78,7 +78,8 @@ function read(text: string, decimalMark: "comma" | "auto", options: TableOptions
   let byPosition: string | null = null;
   if (readable.includes(false) && records[0].fields.every((f, k) => readable[k] || isColumnName(f.text))) {
     const header = records[0].fields.map((f) => f.text);
-    skipped.unshift(`line ${records[0].line} (header)`);
+    // In line order: comments and blank lines may come before the header.
+    skipped.splice(skipped.filter((t) => Number(/\d+/.exec(t)![0]) < records[0].line).length, 0, `line ${records[0].line} (header)`);
     records.shift();
     if (records.length === 0) throw new TableError("The element table has a header but no rows.");
     const columns = byNames(header);
