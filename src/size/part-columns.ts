@@ -117,7 +117,6 @@ const TENSOR: string[][] = [
   ["SYZ", "S23", "SZY", "S32"],
   ["SZX", "S31", "SXZ", "S13"],
 ];
-const TENSOR_ROLES = ["sxx", "syy", "szz", "sxy", "syz", "szx"];
 const PRINCIPAL: string[][] = [
   ["S1", "SP1", "SMAX", "MAXPRINCIPAL", "SMAXPRINCIPAL"],
   ["S2", "SP2", "SMID", "MIDPRINCIPAL", "SMIDPRINCIPAL"],

@@ -779,7 +779,7 @@ export class PartTableReader {
             const text = decodeField(buf, i, e).trim().replace(/^"|"$/g, "");
             // A word where the ids were numbers: MAX, MIN, TOTAL, VALUE... a listing's summary line.
             if (/^[A-Za-z]+$/.test(text) && (this.sawNumericId || (row > 0 && !(this.idTexts?.[row - 1] ?? null)))) {
-              throw new InputError("input", `line ${this.lineNumber}: the id field ${field + 1} ("${text}") is a word where the ids before it were numbers`);
+              throw new InputError("input", `line ${this.lineNumber}: the id field ${field + 1} ("${text}") is a word where the ids before it were numbers (a summary line of a listing: maximum, minimum, total?)`);
             }
             this.idTexts ??= new Array<string | null>(this.batchRows).fill(null);
             this.idTexts[row] = text;
