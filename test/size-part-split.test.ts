@@ -138,3 +138,33 @@ describe("an element table read in two parts", () => {
     expect(utf16.settled()).toBeNull(); // UTF-16: a later part could not be read on its own
   });
 });
+
+describe("a listing's text at a cut between pieces (common practice, no source: the one-reader read is the reference)", () => {
+  // Invented table: 300 elements, a summary title and its row, then 10 more elements.
+  const rows = Array.from({ length: 300 }, (_, i) => `${i + 1},${100 + (i % 50)},1`);
+  const after = Array.from({ length: 10 }, (_, i) => `${301 + i},120,1`);
+  const text = ["ELEM,S1,VOL", ...rows, "MINIMUM VALUES", "VALUE,-40,1", ...after].join("\n") + "\n";
+  const data = bytes(text);
+  const cut = data.indexOf(0x0a, text.indexOf("MINIMUM VALUES")) + 1;
+
+  it("one reader stops at the text among the elements", () => {
+    const one = new PartTableReader({ shape: 8 });
+    expect(() => {
+      one.push(data);
+      one.finish();
+    }).toThrow(/^line 302 \("MINIMUM VALUES"\) is no element, and rows follow it \(line 304\)/);
+  });
+
+  it("the piece ending on the title and the piece starting with the summary row both fail, so the file is read again by one reader (the title was skipped and VALUE summed as an element)", () => {
+    const first = new PartTableReader({ shape: 8 });
+    first.push(data.subarray(0, cut));
+    const settled = first.settled();
+    expect(settled).not.toBeNull();
+    expect(() => first.finishPiece()).toThrow(/^line 302 \("MINIMUM VALUES"\) is no element/);
+    const second = new PartTableReader({ shape: 8, continueFrom: settled! });
+    expect(() => {
+      second.push(data.subarray(cut));
+      second.finishPiece();
+    }).toThrow(/^line 1: the id field 1 \("VALUE"\) is a word where the ids before it were numbers/);
+  });
+});

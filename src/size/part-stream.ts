@@ -778,7 +778,8 @@ export class PartTableReader {
           } else {
             const text = decodeField(buf, i, e).trim().replace(/^"|"$/g, "");
             // A word where the ids were numbers: MAX, MIN, TOTAL, VALUE... a listing's summary line.
-            if (/^[A-Za-z]+$/.test(text) && (this.sawNumericId || (row > 0 && !(this.idTexts?.[row - 1] ?? null)))) {
+            // A later piece of a table cannot tell (its first row may follow numeric ids): one reader reads the file again.
+            if (/^[A-Za-z]+$/.test(text) && (this.continuing || this.sawNumericId || (row > 0 && !(this.idTexts?.[row - 1] ?? null)))) {
               throw new InputError("input", `line ${this.lineNumber}: the id field ${field + 1} ("${text}") is a word where the ids before it were numbers (a summary line of a listing: maximum, minimum, total?)`);
             }
             this.idTexts ??= new Array<string | null>(this.batchRows).fill(null);
@@ -974,6 +975,8 @@ export class PartTableReader {
 
   /** Ends the stream as finish() does, with what joining it to other parts needs (src/size/part-split.ts). */
   finishPiece(): TablePiece {
+    // Text held at a piece's end may be followed by elements in the next piece: one reader reads the file again.
+    if (this.pageText.length > 0) this.textAmongElements();
     // A later piece may hold no element (a long run of comment lines); the first one may not.
     const result = this.finish(this.continuing);
     return { result, lines: this.lineNumber, terms: this.heldTerms };
