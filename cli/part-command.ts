@@ -277,6 +277,9 @@ export function formatPartReport(file: string, r: PartFileResult): string {
       : `stresses ${stressUnit ?? "(not written)"}, sizes ${sizeUnit ?? "(not written)"}, from the header`) +
       ": a material scale and the strengths must be in the table's units",
   );
+  if (r.zeroSizes > 0) {
+    row("zero sizes", `${r.zeroSizes} element${r.zeroSizes === 1 ? " has size 0 and adds" : "s have size 0 and add"} nothing (sizes printed with too few digits?)`);
+  }
   if (r.integrationPoints) row("rows", "integration points (or nodes), each with its own share of the element's size (--integration-points)");
   row("criterion", `${r.criterion}, Weibull modulus ${fmt(r.shape)}`);
   if (r.peak === 0) {

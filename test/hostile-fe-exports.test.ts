@@ -316,3 +316,22 @@ describe("element tables pasted into the task pane, and selected ranges", () => 
     expect(positionalHeaderProblem(["sigma", "dV"])).toBeNull();
   });
 });
+
+describe("sizes of zero", () => {
+  it("part-sizes-printed-as-zero: every element in tension of size 0 is refused (the effective size 0 and a failure probability 0 were printed as results)", async () => {
+    const { code, io } = await part("part-sizes-printed-as-zero.txt", "--scale", "400");
+    expect(code).toBe(1);
+    expect(io.stderr).toBe(
+      "brittle part: every element in tension has size 0, so the effective size is 0 (and the failure probability would be 0): " +
+        "sizes printed with too few digits (volumes in m^3 in a fixed format?), or the wrong size column? Export the sizes with more digits or in a smaller unit\n",
+    );
+  });
+
+  it("part-zero-size: elements of size 0 are counted and named in the report", async () => {
+    const { code, io, json } = await part("part-zero-size.csv", "--json");
+    expect(code, io.stderr).toBe(0);
+    expect(json.zeroSizes).toBe(1);
+    expect(relativeError(json.effectiveSize, effectiveSize([[2, 100.5], [0.5, 250], [0, 180]]))).toBeLessThan(1e-14);
+    expect((await part("part-zero-size.csv")).io.stdout).toMatch(/\nzero sizes {6}1 element has size 0 and adds nothing \(sizes printed with too few digits\?\)\n/);
+  });
+});

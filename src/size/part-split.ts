@@ -43,10 +43,12 @@ export function joinPieces(pieces: TablePiece[], shape: number, top: number, mat
   const skipped: SkippedLines[] = [];
   let rows = 0;
   let skippedLines = 0;
+  let zeroSizes = 0;
   pieces.forEach((piece, k) => {
     const r = piece.result;
     rows += r.rows;
     skippedLines += r.skippedLines;
+    zeroSizes += r.zeroSizes;
     for (const run of r.skipped) {
       const moved = { from: run.from + offsets[k], to: run.to + offsets[k], reason: run.reason };
       const last = skipped[skipped.length - 1];
@@ -67,5 +69,5 @@ export function joinPieces(pieces: TablePiece[], shape: number, top: number, mat
     .slice(0, top)
     .map(({ term, spot }) => ({ ...spot, share: effectiveSize > 0 ? term / effectiveSize : 0 }));
   const { risk, failureProbability } = riskOfPart(effectiveSize, peak, peakLine, peakId, shape, materialScale);
-  return { ...first, rows, skippedLines, skipped, peak, peakLine, peakId, effectiveSize, risk, failureProbability, hotSpots };
+  return { ...first, rows, skippedLines, skipped, zeroSizes, peak, peakLine, peakId, effectiveSize, risk, failureProbability, hotSpots };
 }

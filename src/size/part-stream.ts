@@ -147,6 +147,8 @@ export interface PartStreamResult {
   hotSpots: HotSpot[];
   /** Rows are integration points or nodes with their own sizes (stated by the caller). */
   integrationPoints: boolean;
+  /** Elements whose size is 0 (they add nothing: sizes printed with too few digits?). */
+  zeroSizes: number;
 }
 
 interface Held {
@@ -230,6 +232,7 @@ export class PartTableReader {
   private lastSize = 0;
   /** Some row so far had a numeric id. */
   private sawNumericId = false;
+  private zeroSizes = 0;
 
   /** Read-ahead until the dialect is settled. */
   private sniffed = false;
@@ -830,6 +833,10 @@ export class PartTableReader {
     const n = this.inBatch;
     if (n === 0) return;
     if (this.columns!.id >= 0) this.checkIds(n);
+    const sizes = this.sizes;
+    let zeros = 0;
+    for (let r = 0; r < n; r++) if (sizes[r] === 0) zeros++;
+    this.zeroSizes += zeros;
     const kind = this.columns!.kind;
     if (kind === 6) {
       const raw = this.raw;
@@ -1019,6 +1026,7 @@ export class PartTableReader {
       failureProbability,
       hotSpots,
       integrationPoints: this.integrationPoints,
+      zeroSizes: this.zeroSizes,
     };
   }
 }
@@ -1062,6 +1070,13 @@ export function riskOfPart(
   shape: number,
   materialScale: number | undefined,
 ): { risk: number | null; failureProbability: number | null } {
+  if (peak > 0 && !(effectiveSize > 0)) {
+    throw new InputError(
+      "input",
+      "every element in tension has size 0, so the effective size is 0 (and the failure probability would be 0): " +
+        "sizes printed with too few digits (volumes in m^3 in a fixed format?), or the wrong size column? Export the sizes with more digits or in a smaller unit",
+    );
+  }
   if (materialScale === undefined) return { risk: null, failureProbability: null };
   const risk = peak > 0 && effectiveSize > 0 ? Math.exp(Math.log(effectiveSize) + shape * Math.log(peak / materialScale)) : 0;
   if (!Number.isFinite(risk)) {
