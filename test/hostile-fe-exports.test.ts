@@ -154,6 +154,15 @@ describe("units in the header", () => {
     expect(io.stderr).toBe("brittle part: the stress columns are in different units (MPa, Pa): export them in one unit\n");
   });
 
+  it("part-comma-unit-in-header: 'EVOL, m^3' split at its comma is named as the reason for the narrower rows (it said only 'expected at least 4 fields')", async () => {
+    const { code, io } = await part("part-comma-unit-in-header.csv");
+    expect(code).toBe(1);
+    expect(io.stderr).toBe(
+      'brittle part: line 3: expected at least 4 fields as on line 2, found 3 (header field 4 is the unit "m^3" alone: a header name with a unit after a comma, ' +
+        'such as "EVOL, m^3", splits into two fields in a comma-delimited file; write the unit in brackets, "EVOL [m^3]")\n',
+    );
+  });
+
   it("a table without units says so beside the numbers", async () => {
     const { io } = await part("part-repeated-header.csv");
     expect(io.stdout).toMatch(/\nunits {11}none written in the header: a material scale and the strengths must be in the table's units\n/);

@@ -75,7 +75,8 @@ function norm(name: string): string {
 const STRESS_UNIT = /^(?:[GMk]?Pa|psi|ksi|bar|MN\/m\^?2|N\/mm\^?2|N\/m\^?2|N\/mm²|N\/m²|MN\/m²)$/i;
 const SIZE_UNIT = /^(?:mm|cm|m|µm|um|in|ft|inch)(?:\^?[23]|[²³])$/i;
 
-function isUnit(text: string): boolean {
+/** Whether a text is a stress or size unit the reader knows ("MPa", "mm^3"). */
+export function isUnit(text: string): boolean {
   return STRESS_UNIT.test(text) || SIZE_UNIT.test(text);
 }
 

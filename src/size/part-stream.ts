@@ -46,7 +46,7 @@ import {
   parseNumber,
   splitFields,
 } from "./csv-bytes";
-import { type ColumnChoice, type ResolvedColumns, resolveColumns } from "./part-columns";
+import { type ColumnChoice, type ResolvedColumns, isUnit, resolveColumns } from "./part-columns";
 import { accumulate } from "./part";
 import { type CompensatedTotal, ScaledPower, newTotal, totalValue } from "./power-kernel";
 import { principalStresses } from "./principal";
@@ -803,7 +803,8 @@ export class PartTableReader {
       throw new InputError(
         "input",
         `line ${this.lineNumber}: expected at least ${this.fieldCount} fields as on line ${this.firstLineNumber}, found ${field}` +
-          touchingHint(splitFields(buf, start, end, delimiter)),
+          touchingHint(splitFields(buf, start, end, delimiter)) +
+          this.unitFieldHint(),
       );
     }
     if (extra) {
@@ -820,6 +821,14 @@ export class PartTableReader {
     this.inBatch++;
     if (this.inBatch === this.batchRows) this.flush();
     return true;
+  }
+
+  /** A note for a row narrower than the header: a header field that is only a unit ("EVOL, m^3" split at its comma) explains it. */
+  private unitFieldHint(): string {
+    const header = this.headerFields;
+    const k = header === null ? -1 : header.findIndex((f) => isUnit(f));
+    if (k < 0) return "";
+    return ` (header field ${k + 1} is the unit "${header![k]}" alone: a header name with a unit after a comma, such as "${header![k - 1] ?? ""}, ${header![k]}", splits into two fields in a comma-delimited file; write the unit in brackets, "${header![k - 1] ?? ""} [${header![k]}]")`;
   }
 
   /** "element 7 (line 9)" or "line 9". */
