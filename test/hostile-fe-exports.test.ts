@@ -148,6 +148,14 @@ describe("units in the header", () => {
     expect(relativeError(json.effectiveSize, effectiveSize([[2e-9, 100.5e6], [0.5e-9, 250e6], [1e-9, -40e6]]))).toBeLessThan(1e-14);
   });
 
+  it("part-units-space-aligned: 'S1 (MPa)' in a space-aligned header is one name with its unit (it was two fields: 'expected at least 5 fields')", async () => {
+    const { code, io, json } = await part("part-units-space-aligned.txt", "--json");
+    expect(code, io.stderr).toBe(0);
+    expect(json.columns.labels).toEqual({ stress: ["S1 (MPa)"], size: "VOL (mm^3)", id: "ELEM" });
+    expect(json.columns.units).toEqual({ stress: "MPa", size: "mm^3" });
+    expect(relativeError(json.effectiveSize, effectiveSize([[2, 100.5], [0.5, 250], [1, -40]]))).toBeLessThan(1e-14);
+  });
+
   it("part-units-mixed: stress columns in different units are refused", async () => {
     const { code, io } = await part("part-units-mixed.csv");
     expect(code).toBe(1);
@@ -306,6 +314,10 @@ describe("element tables pasted into the task pane, and selected ranges", () => 
     );
     expect(() => paste("paste-element-units.txt", { stressUnit: "psi", sizeUnit: "m^3" })).toThrow(/stresses in MPa, but the stress unit of this check is psi/);
     expect(paste("paste-element-units.txt", { stressUnit: "N/mm²", sizeUnit: "m^3" }).table.sizes).toEqual([2e-9, 0.5e-9]);
+  });
+
+  it("part-units-space-aligned pasted: 'S1 (MPa)' between blanks is one name (the header was two fields wider than the rows)", () => {
+    expect(paste("part-units-space-aligned.txt", { stressUnit: "MPa", sizeUnit: "mm^3" }).table).toEqual({ stresses: [[100.5], [250], [-40]], columns: 1, sizes: [2, 0.5, 1] });
   });
 
   it("a header naming no known column is read by position, and the note says so", () => {

@@ -95,6 +95,20 @@ export function splitUnit(header: string): { name: string; unit: string | null }
   return { name: text, unit: null };
 }
 
+/**
+ * Header fields of a table whose columns are separated by blanks, with a unit in brackets that
+ * stands apart ("S1 (MPa)" is two fields there) joined to the name before it.
+ * @example withUnitsJoined(["S1", "(MPa)", "VOL"]) // ["S1 (MPa)", "VOL"]
+ */
+export function withUnitsJoined(fields: string[]): string[] {
+  const joined: string[] = [];
+  for (const f of fields) {
+    if (joined.length > 0 && /^[([{][^()[\]{}]*[)\]}]$/.test(f)) joined[joined.length - 1] += ` ${f}`;
+    else joined.push(f);
+  }
+  return joined;
+}
+
 /** The unit in a form fit to compare ("N/mm²" and "n/mm^2" alike; MPa is N/mm^2). */
 function unitKey(unit: string): string {
   const key = unit.replace(/\s+/g, "").replace("²", "^2").replace("³", "^3").replace(/([A-Za-z])([23])$/, "$1^$2");

@@ -46,7 +46,7 @@ import {
   parseNumber,
   splitFields,
 } from "./csv-bytes";
-import { type ColumnChoice, type ResolvedColumns, isUnit, resolveColumns } from "./part-columns";
+import { type ColumnChoice, type ResolvedColumns, isUnit, resolveColumns, withUnitsJoined } from "./part-columns";
 import { accumulate } from "./part";
 import { type CompensatedTotal, ScaledPower, newTotal, totalValue } from "./power-kernel";
 import { principalStresses } from "./principal";
@@ -621,10 +621,11 @@ export class PartTableReader {
       return;
     }
     const delimiter = this.delimiter as number;
-    const fields = splitFields(buf, start, end, delimiter);
+    const split = splitFields(buf, start, end, delimiter);
     // A data line has numbers in its stress and size fields; a header has none (ids may be text).
-    const anyNumber = fields.some((f) => f !== "" && looksNumeric(withExponentE(f)));
+    const anyNumber = split.some((f) => f !== "" && looksNumeric(withExponentE(f)));
     const isHeader = this.headerMode === "yes" || (this.headerMode === "auto" && !anyNumber);
+    const fields = isHeader && delimiter === WHITESPACE ? withUnitsJoined(split) : split;
     if (!isHeader && this.titleText.length > 0) throw new InputError("input", this.titleText[0].problem);
     let columns: ResolvedColumns;
     try {
@@ -716,7 +717,8 @@ export class PartTableReader {
 
   /** A line that is no element: a repeated header (skipped with the text lines before it) or text, held; false for neither. */
   private heldAsText(buf: Uint8Array, start: number, end: number, error: InputError): boolean {
-    const fields = splitFields(buf, start, end, this.delimiter as number);
+    const split = splitFields(buf, start, end, this.delimiter as number);
+    const fields = this.delimiter === WHITESPACE ? withUnitsJoined(split) : split;
     const header = this.headerFields as string[];
     if (fields.length >= header.length && fields.every((f, k) => (k < header.length ? f === header[k] : f === ""))) {
       for (const t of this.pageText) this.skip("page title", t.line);

@@ -16,7 +16,7 @@
 import { InputError } from "../../src/errors";
 import { contentLines, detectDelimiter, settleDecimalMark, splitRecords } from "../../src/input/delimited-text";
 import { explainNotANumber, isSpreadsheetError, looksNumeric, quoteText, readNumber } from "../../src/input/number-text";
-import { type ResolvedColumns, resolveColumns, sameUnit, splitUnit } from "../../src/size/part-columns";
+import { type ResolvedColumns, resolveColumns, sameUnit, splitUnit, withUnitsJoined } from "../../src/size/part-columns";
 
 export interface ElementTable {
   stresses: number[][];
@@ -74,10 +74,13 @@ function read(text: string, decimalMark: "comma" | "auto", options: TableOptions
   const mark = settleDecimalMark(records, delimiter, choice).decimalMark;
   // A header holds a field that is no number, and every such field is plain text (a name, perhaps with its unit:
   // "S1 (MPa)"): "1,250", "1 250" or "412 MPa" on the first line is a value the rules refuse below, not a header to skip.
-  const readable = records[0].fields.map((f) => readNumber(f.text, mark).ok);
+  // Blank-separated: a unit in brackets after a name ("S1 (MPa)") is a field of its own there.
+  const split = records[0].fields.map((f) => f.text);
+  const names = delimiter.delimiter === "space" ? withUnitsJoined(split) : split;
+  const readable = names.map((t) => readNumber(t, mark).ok);
   let byPosition: string | null = null;
-  if (readable.includes(false) && records[0].fields.every((f, k) => readable[k] || isColumnName(f.text))) {
-    const header = records[0].fields.map((f) => f.text);
+  if (readable.includes(false) && names.every((t, k) => readable[k] || isColumnName(t))) {
+    const header = names;
     // In line order: comments and blank lines may come before the header.
     skipped.splice(skipped.filter((t) => Number(/\d+/.exec(t)![0]) < records[0].line).length, 0, `line ${records[0].line} (header)`);
     records.shift();
