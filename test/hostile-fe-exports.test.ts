@@ -61,6 +61,17 @@ describe("listings in pages, with summaries", () => {
     );
   });
 
+  it("part-listing-title-with-numbers: title lines holding numbers (load step, time) before a header are page titles (the first was read as an element: '\"LOAD\" is not a number')", async () => {
+    const { code, io, json } = await part("part-listing-title-with-numbers.txt", "--json");
+    expect(code, io.stderr).toBe(0);
+    expect(json.rows).toBe(3);
+    expect(relativeError(json.effectiveSize, effectiveSize([[2, 100.5], [0.5, 250], [1, -40]]))).toBeLessThan(1e-14);
+    expect(io.stderr).toBe("brittle part: skipped line 1 (comment), lines 2-3 (page title), line 4 (blank), line 8 (page title), line 9 (blank), line 10 (repeated header)\n");
+    // Without a header after it, such a line stops the read, saying what it holds.
+    const alone = await readPartTable([new TextEncoder().encode(" LOAD STEP 1  TIME 1.0000\n 1  100.5  2.0\n")], { shape: M }).catch((e: Error) => e.message);
+    expect(alone).toBe('line 1 ("LOAD STEP 1 TIME 1.0000") holds words and numbers: no element, and no header line follows it (a listing\'s title?)');
+  });
+
   it("part-repeated-header: a comma export's repeated header is skipped (it stopped the read: 'the stress field 2 (\"S1\") is not a number')", async () => {
     const { code, io, json } = await part("part-repeated-header.csv", "--json");
     expect(code, io.stderr).toBe(0);

@@ -626,6 +626,17 @@ export class PartTableReader {
     const anyNumber = split.some((f) => f !== "" && looksNumeric(withExponentE(f)));
     const isHeader = this.headerMode === "yes" || (this.headerMode === "auto" && !anyNumber);
     const fields = isHeader && delimiter === WHITESPACE ? withUnitsJoined(split) : split;
+    // Words and numbers ("LOAD STEP 1 TIME 1.0"): no element (an element has one word at most, its id), a listing's title if a header follows.
+    const words = isHeader ? 0 : split.filter((f) => f !== "" && !looksNumeric(withExponentE(f))).length;
+    if (this.headerMode === "auto" && words >= 2 && this.choice.stress === undefined && this.titleText.length < MAX_HELD_TEXT) {
+      const text = split.join(" ");
+      this.titleText.push({
+        line: this.lineNumber,
+        text,
+        problem: `line ${this.lineNumber} ("${text.length > 60 ? `${text.slice(0, 57)}...` : text}") holds words and numbers: no element, and no header line follows it (a listing's title?)`,
+      });
+      return;
+    }
     if (!isHeader && this.titleText.length > 0) throw new InputError("input", this.titleText[0].problem);
     let columns: ResolvedColumns;
     try {
