@@ -250,6 +250,20 @@ describe("stress columns: 2-D tensors, shear order, components where principal s
     expect((await part("part-shear-order.csv", "--stress", "S11")).io.stderr).toMatch(/^brittle part: --stress S11: a stress component is not principal stresses/);
   });
 
+  it("part-side-by-side: a header naming S1 twice (two tables side by side) is refused (the second table was left out: S_E from elements 1 and 2 only)", async () => {
+    const { code, io } = await part("part-side-by-side.csv");
+    expect(code).toBe(1);
+    expect(io.stderr).toBe(
+      'brittle part: the header names "S1" twice (columns 2 and 5): two tables side by side? Put every element on a line of its own, or choose the columns with --stress, --size and --id\n',
+    );
+    // Columns chosen by the caller are taken as chosen.
+    const chosen = await part("part-side-by-side.csv", "--stress", "5", "--size", "6", "--id", "4", "--json");
+    expect(relativeError(chosen.json.effectiveSize, effectiveSize([[0.5, 250], [1.5, 120]]))).toBeLessThan(1e-14);
+    expect(() => readElementTable(readFileSync(at("part-side-by-side.csv"), "utf8"))).toThrow(
+      'The header names "S1" twice (columns 2 and 5): two tables side by side? Put every element on a line of its own.',
+    );
+  });
+
   it("von Mises and coordinate columns beside the stresses are ignored, and the full tensor is chosen", () => {
     const c = resolveColumns(["ID", "X", "Y", "Z", "MISES", "S11", "S22", "S33", "S12", "S13", "S23", "VOL"], 12);
     expect(c).toMatchObject({ stress: [5, 6, 7, 8, 10, 9], kind: 6, tensor: "3-D", size: 11, id: 0 });

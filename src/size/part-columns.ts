@@ -288,6 +288,25 @@ export function resolveColumns(header: string[] | null, fieldCount: number, choi
     if (id === -2) id = layout[0];
   }
   if (id === -2) id = -1;
+  if (names) {
+    // A name used twice: two tables side by side (the second would be left out without a word).
+    const found = [
+      ...(choice.stress ? [] : stress.filter((j) => j >= 0)),
+      ...(choice.size !== undefined ? [] : [size]),
+      ...(choice.id !== undefined || id < 0 ? [] : [id]),
+    ];
+    for (const k of found) {
+      const again = names.indexOf(names[k], k + 1);
+      const before = names.indexOf(names[k]);
+      if (again >= 0 || before !== k) {
+        const [a, b] = again >= 0 ? [k, again] : [before, k];
+        throw new InputError(
+          "input",
+          `the header names "${header![k]}" twice (columns ${a + 1} and ${b + 1}): two tables side by side? Put every element on a line of its own, or choose the columns with --stress, --size and --id`,
+        );
+      }
+    }
+  }
   const kind = kindOf(stress.length, tensor);
   const all = [...stress.filter((k) => k >= 0), size, ...(id >= 0 ? [id] : [])];
   if (new Set(all).size !== all.length) throw new InputError("input", "the stress, size and id columns must all differ");

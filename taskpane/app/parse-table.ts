@@ -46,7 +46,8 @@ export function readElementTable(text: string, options: TableOptions = {}): { ta
       // The shared column rules speak of the command line's options; here a header names the columns.
       const message = error.message
         .replace(/; name (them|it) with --\w+/, "; name the columns in the header as docs/files-and-formats.md lists them")
-        .replace(/; if (each row's size|the size column holds each point's own share)[^;]*--integration-points/, "");
+        .replace(/; if (each row's size|the size column holds each point's own share)[^;]*--integration-points/, "")
+        .replace(", or choose the columns with --stress, --size and --id", "");
       throw new TableError(message.charAt(0).toUpperCase() + message.slice(1) + ".");
     }
     throw error;
