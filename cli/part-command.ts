@@ -247,7 +247,9 @@ export function formatPartReport(file: string, r: PartFileResult): string {
       ? "2-D tensor, plane stress: szz = syz = szx = 0; principal stresses computed"
       : tensor === "axisymmetric or plane strain"
         ? `2-D tensor, axisymmetric or plane strain: ${r.columns.labels.stress[2]} the hoop or out-of-plane stress, syz = szx = 0; principal stresses computed`
-        : kinds[r.columns.kind];
+        : r.columns.kind === 3 && r.columns.stress[2] < 0
+          ? "principal, two columns: the third principal stress is 0, as in plane stress"
+          : kinds[r.columns.kind];
   const shownStress = r.columns.labels.stress.filter((_, k) => r.columns.stress[k] >= 0);
   const stressUnit = r.columns.units.stress;
   const sizeUnit = r.columns.units.size;

@@ -29,6 +29,8 @@ async function part(name: string, ...more: string[]) {
   return { code, io, json: code === 0 && more.includes("--json") ? JSON.parse(io.stdout) : null };
 }
 
+const paste = (name: string, options = {}) => readElementTable(readFileSync(at(name), "utf8"), options);
+
 /** S_E at the peak of rows [size, ...principal stresses] (PIA). */
 function effectiveSize(rows: number[][]): number {
   const peak = Math.max(...rows.flatMap((r) => r.slice(1)));
@@ -250,6 +252,24 @@ describe("stress columns: 2-D tensors, shear order, components where principal s
     expect((await part("part-shear-order.csv", "--stress", "S11")).io.stderr).toMatch(/^brittle part: --stress S11: a stress component is not principal stresses/);
   });
 
+  it("part-two-principal: S1 and S2 without S3 are two principal stresses, the third 0 (S2 was left out: only S1 was summed)", async () => {
+    const { code, io, json } = await part("part-two-principal.txt", "--json");
+    expect(code, io.stderr).toBe(0);
+    expect(relativeError(json.effectiveSize, effectiveSize([[2, 100.5, 50, 0], [0.5, 250, 100, 0], [1, -40, -60, 0]]))).toBeLessThan(1e-14);
+    expect((await part("part-two-principal.txt")).io.stdout).toMatch(
+      /\ncolumns {9}stresses S1, S2 \(principal, two columns: the third principal stress is 0, as in plane stress\); size AREA; id ELEM\n/,
+    );
+    expect(paste("part-two-principal.txt").table.stresses).toEqual([[100.5, 50, 0], [250, 100, 0], [-40, -60, 0]]);
+  });
+
+  it("part-max-and-min-principal: the largest and smallest principal stresses without the middle one are refused (only the largest was summed)", async () => {
+    const { code, io } = await part("part-max-and-min-principal.txt");
+    expect(code).toBe(1);
+    expect(io.stderr).toBe(
+      "brittle part: the header has the largest and smallest principal stresses (SMAX, SMIN) but not the middle one: give all three, or choose the largest alone with --stress SMAX\n",
+    );
+  });
+
   it("part-side-by-side: a header naming S1 twice (two tables side by side) is refused (the second table was left out: S_E from elements 1 and 2 only)", async () => {
     const { code, io } = await part("part-side-by-side.csv");
     expect(code).toBe(1);
@@ -300,7 +320,6 @@ describe("Fortran-style fields say what they are (they were 'is not a number')",
 });
 
 describe("element tables pasted into the task pane, and selected ranges", () => {
-  const paste = (name: string, options = {}) => readElementTable(readFileSync(at(name), "utf8"), options);
 
   it("paste-element-size-first: a header naming the size first is read by its names (the sizes were taken as stresses)", () => {
     const { table, notes } = paste("paste-element-size-first.txt");

@@ -15,7 +15,8 @@
  * A full tensor wins over principal stresses, which win over a 2-D tensor
  * (SXX SYY SXY: plane stress; SXX SYY SZZ SXY: axisymmetric or plane strain,
  * SZZ the hoop or out-of-plane stress; the other components are 0), which
- * wins over a single column. A unit written in a header name ("S11 (MPa)",
+ * wins over two principal stresses (S1 S2: the third is 0, as in plane
+ * stress; S1 S3 without S2 is refused), which win over a single column. A unit written in a header name ("S11 (MPa)",
  * "IVOL [mm^3]", "EVOL, m^3", "S1/MPa") is no part of the name: it is kept
  * for the report, and stress columns in different units are refused.
  * Stress components named by --stress are placed by their names (S13 is
@@ -247,6 +248,15 @@ export function resolveColumns(header: string[] | null, fieldCount: number, choi
       else if (form !== null) {
         stress = components;
         tensor = form;
+      } else if (principal[0] >= 0 && principal[1] >= 0) {
+        // Two principal stresses, as plane-stress tables give them: the third is 0.
+        stress = [principal[0], principal[1], -1];
+      } else if (principal[0] >= 0 && principal[2] >= 0) {
+        throw new InputError(
+          "input",
+          `the header has the largest and smallest principal stresses (${header![principal[0]]}, ${header![principal[2]]}) but not the middle one: ` +
+            `give all three, or choose the largest alone with --stress ${header![principal[0]]}`,
+        );
       } else {
         const single = findName(names, SINGLE);
         if (single >= 0) stress = [single];

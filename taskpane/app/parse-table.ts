@@ -183,7 +183,7 @@ function readByHeader(
   }
   const used = [...columns.stress.filter((k) => k >= 0), columns.size, ...(columns.id >= 0 ? [columns.id] : [])];
   const ignored = header.filter((_, k) => !used.includes(k));
-  const form = columns.tensor === "plane stress" ? " (plane stress)" : columns.tensor === "axisymmetric or plane strain" ? ` (axisymmetric or plane strain, ${columns.labels.stress[2]} the hoop stress)` : "";
+  const form = columns.tensor === "plane stress" || (columns.kind === 3 && columns.stress[2] < 0) ? " (plane stress)" : columns.tensor === "axisymmetric or plane strain" ? ` (axisymmetric or plane strain, ${columns.labels.stress[2]} the hoop stress)` : "";
   const notes = [
     ...(skipped.length > 0 ? [`Skipped ${skipped.join(", ")}.`] : []),
     `Read stresses ${columns.stress.filter((k) => k >= 0).map((k) => header[k]).join(", ")}${form} and sizes ${columns.labels.size} by the header` +
