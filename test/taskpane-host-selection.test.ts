@@ -9,7 +9,7 @@ import { describe, expect, it } from "vitest";
 import { OfficeMockObject } from "office-addin-mock";
 import { readSelection, readTableSelection } from "../taskpane/app/host-selection";
 import { parsePasted } from "../taskpane/app/parse-pasted";
-import { parseElementTable } from "../taskpane/app/parse-table";
+import { parseElementTable, readElementTable } from "../taskpane/app/parse-table";
 
 function letter(col: number): string {
   return String.fromCharCode(65 + col);
@@ -83,5 +83,29 @@ describe("element table from the selected range", () => {
     expect(t.source).toEqual({ kind: "range", stressesAddress: "Tests!A2:C3", sizesAddress: "Tests!D2:D3" });
     expect(parseElementTable(t.text)).toEqual({ stresses: [[160, 40, 0], [130, 130, 0]], columns: 3, sizes: [2, 5] });
     await expect(readTableSelection(context([[1, 2, 3]], 0, 0, 1, 3))).rejects.toThrow(/2, 4 or 7 columns/);
+  });
+
+  // Invented sheets (made-up numbers), as test/fixtures/hostile/paste-element-* hold them for pasting.
+  it("a header row whose names contradict reading by position is refused (a size-first range had its sizes read as stresses)", async () => {
+    const sheet = [
+      ["VOL", "S1"],
+      [2, 160],
+      [5, 130],
+    ];
+    await expect(readTableSelection(context(sheet, 0, 0, 3, 2))).rejects.toThrow(
+      "The header names the columns S1, VOL, but a selected range is read by position: 1, 3 or 6 stress columns (sxx, syy, szz, sxy, syz, szx), then the size: " +
+        "select the columns in that order, or paste the table with its header.",
+    );
+  });
+
+  it("the header row's units reach the box and are checked against the form (sizes in m^3 were read as mm^3)", async () => {
+    const sheet = [
+      ["S1 (MPa)", "VOL [m^3]"],
+      [160, 2e-9],
+      [130, 5e-9],
+    ];
+    const t = await readTableSelection(context(sheet, 0, 0, 3, 2));
+    expect(() => readElementTable(t.text, { stressUnit: "MPa", sizeUnit: "mm^3" })).toThrow(/^The header gives the sizes in m\^3, but the size unit of this check is mm\^3/);
+    expect(readElementTable(t.text, { stressUnit: "MPa", sizeUnit: "m^3" }).table).toEqual({ stresses: [[160], [130]], columns: 1, sizes: [2e-9, 5e-9] });
   });
 });

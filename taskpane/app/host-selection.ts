@@ -76,10 +76,10 @@ export async function readTableSelection(context: Excel.RequestContext): Promise
   stresses.load("address");
   sizes.load("address");
   await context.sync();
-  const rows = header ? values.slice(1) : values;
+  // The header row goes into the box with the data: its names and units are checked there against the form.
   return {
-    text: rows.map((row) => row.map(cellText).join("\t")).join("\n"),
+    text: values.map((row) => row.map(cellText).join("\t")).join("\n"),
     source: { kind: "range", stressesAddress: stresses.address, sizesAddress: sizes.address },
-    description: `Taken from ${stresses.address} with sizes in ${sizes.address}${header ? " (header row skipped)" : ""}.`,
+    description: `Taken from ${stresses.address} with sizes in ${sizes.address}${header ? " (the header row names the columns and their units)" : ""}.`,
   };
 }
