@@ -300,6 +300,15 @@ describe("Fortran-style fields say what they are (they were 'is not a number')",
     );
   });
 
+  it("part-touching-in-unread-column: touching coordinates make the row a field short; the message says why (it said only 'found 4')", async () => {
+    const { code, io } = await part("part-touching-in-unread-column.txt");
+    expect(code).toBe(1);
+    expect(io.stderr).toBe(
+      'brittle part: line 3: expected at least 5 fields as on line 2, found 4 ("-1.000E+02-5.000E+01" holds two numbers with nothing between them ' +
+        "(-1.000E+02 and -5.000E+01), as fixed-width columns print a negative number that fills its field: export with a delimiter or wider columns)\n",
+    );
+  });
+
   it("part-exponent-letter-dropped: 1.234+002 could be 1.234E+002 or two numbers: refused, saying both", async () => {
     const { code, io } = await part("part-exponent-letter-dropped.txt");
     expect(code).toBe(1);
@@ -307,6 +316,13 @@ describe("Fortran-style fields say what they are (they were 'is not a number')",
       'brittle part: line 3: the stress field 2 ("1.234+002") is a mantissa and a signed exponent with no exponent letter (1.234E+002, as some Fortran formats write ' +
         "three-digit exponents), or two numbers touching (1.234 and +002): it is not read; export with an exponent letter and blanks or a delimiter between columns\n",
     );
+  });
+
+  it("pasted into the task pane, the same fields say the same (they were 'is not a number')", () => {
+    expect(() => paste("part-asterisks.txt")).toThrow(
+      'Line 4: "*********" is a run of asterisks, which Fortran-style writers print when a number does not fit its field: the value is lost; export with a wider number format.',
+    );
+    expect(() => paste("part-exponent-letter-dropped.txt")).toThrow(/^Line 3: "1\.234\+002" is a mantissa and a signed exponent with no exponent letter/);
   });
 
   it("part-asterisks: a field of asterisks is a number that overflowed its field", async () => {

@@ -29,6 +29,7 @@ import { ensurePositive, InputError } from "../errors";
 import { contentLines, detectDelimiter, settleDecimalMark, type TextRecord } from "../input/delimited-text";
 import { type EncodingGuess, Utf16ToUtf8, detectEncoding } from "../input/encoding";
 import { type DecimalMark, explainNotANumber, isSpreadsheetError, looksNumeric, quoteText, readNumber } from "../input/number-text";
+import { fortranReason } from "../input/fortran-fields";
 import { separatorHint } from "../input/separator-hint";
 import { type Criterion, NsaEvaluator } from "./criteria";
 import {
@@ -1053,30 +1054,13 @@ export class PartTableReader {
   }
 }
 
-/**
- * Why a field Fortran-style writers produce is no number, in words; null for other text:
- * asterisks (the number overflowed its field width) and two numbers touching, or a mantissa
- * with a signed exponent but no exponent letter ("1.234-102"), which could be either.
- */
-export function fortranReason(text: string): string | null {
-  if (/^\*+$/.test(text)) {
-    return "is a run of asterisks, which Fortran-style writers print when a number does not fit its field: the value is lost; export with a wider number format";
-  }
-  const m = /^([+-]?(?:\d+\.?\d*|\.\d+))([EeDd][+-]?\d+)?([+-]\d.*)$/.exec(text);
-  if (!m) return null;
-  if (!m[2] && /^[+-]\d{1,3}$/.test(m[3])) {
-    return (
-      `is a mantissa and a signed exponent with no exponent letter (${m[1]}E${m[3]}, as some Fortran formats write three-digit exponents), ` +
-      `or two numbers touching (${m[1]} and ${m[3]}): it is not read; export with an exponent letter and blanks or a delimiter between columns`
-    );
-  }
-  return `holds two numbers with nothing between them (${m[1]}${m[2] ?? ""} and ${m[3]}), as fixed-width columns print a negative number that fills its field: export with a delimiter or wider columns`;
-}
-
 /** A note for a row with too few fields: a field holding two touching numbers explains it. */
 function touchingHint(fields: string[]): string {
-  const touching = fields.find((f) => /^[+-]?(\d+\.?\d*|\.\d+)([EeDd][+-]?\d+)?[+-]\d/.test(f));
-  return touching === undefined ? "" : ` ("${touching}" ${fortranReason(touching)})`;
+  for (const f of fields) {
+    const reason = /\d[+-][\d.]/.test(f) ? fortranReason(f) : null;
+    if (reason !== null) return ` ("${f}" ${reason})`;
+  }
+  return "";
 }
 
 /**

@@ -17,6 +17,7 @@ import { InputError } from "../../src/errors";
 import { contentLines, detectDelimiter, settleDecimalMark, splitRecords } from "../../src/input/delimited-text";
 import { explainNotANumber, isSpreadsheetError, looksNumeric, quoteText, readNumber } from "../../src/input/number-text";
 import { type ResolvedColumns, resolveColumns, sameUnit, splitUnit, withUnitsJoined } from "../../src/size/part-columns";
+import { fortranReason } from "../../src/input/fortran-fields";
 
 export interface ElementTable {
   stresses: number[][];
@@ -103,7 +104,7 @@ function read(text: string, decimalMark: "comma" | "auto", options: TableOptions
     if (fields.length !== width) throw new TableError(`Line ${r.line}: expected ${width} values like the first row, found ${fields.length}.`);
     const values = fields.map((f) => {
       const v = readNumber(f.text, mark);
-      if (!v.ok) throw new TableError(`Line ${r.line}: ${quoteText(f.text)} ${(v.reason === "is not a number" && explainNotANumber(f.text)) || v.reason}.`);
+      if (!v.ok) throw new TableError(`Line ${r.line}: ${quoteText(f.text)} ${whyNot(f.text, v.reason)}.`);
       return v.value;
     });
     const size = values[width - 1];
@@ -116,6 +117,11 @@ function read(text: string, decimalMark: "comma" | "auto", options: TableOptions
 }
 
 type Records = ReturnType<typeof splitRecords>;
+
+/** Why a field is no number, in the words the shared rules and the Fortran-style fields give. */
+function whyNot(text: string, reason: string): string {
+  return reason === "is not a number" ? (fortranReason(text) ?? explainNotANumber(text) ?? reason) : reason;
+}
 
 /** Plain text, or plain text with a unit after it ("S1 (MPa)", "IVOL [mm^3]"): a column name, not a value. */
 function isColumnName(text: string): boolean {
@@ -159,7 +165,7 @@ function readByHeader(
   const value = (r: Records[number], k: number): number => {
     const f = r.fields[k];
     const v = readNumber(f.text, mark);
-    if (!v.ok) throw new TableError(`Line ${r.line}: "${f.text}" ${v.reason}.`);
+    if (!v.ok) throw new TableError(`Line ${r.line}: ${quoteText(f.text)} ${whyNot(f.text, v.reason)}.`);
     return v.value;
   };
   for (const r of records) {
