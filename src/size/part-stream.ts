@@ -739,7 +739,8 @@ export class PartTableReader {
       return true;
     }
     const first = fields.find((f) => f !== "") ?? "";
-    if (looksNumeric(withExponentE(first)) || this.pageText.length >= MAX_HELD_TEXT) return false;
+    // A number, or a spreadsheet's error value where a number was ("#DIV/0!"): a bad element, refused as it is.
+    if (looksNumeric(withExponentE(first)) || isSpreadsheetError(first) || this.pageText.length >= MAX_HELD_TEXT) return false;
     this.pageText.push({ line: this.lineNumber, text: fields.join(" "), problem: error.message });
     return true;
   }
