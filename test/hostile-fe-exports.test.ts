@@ -380,6 +380,12 @@ describe("element tables pasted into the task pane, and selected ranges", () => 
     expect(paste("part-units-space-aligned.txt", { stressUnit: "MPa", sizeUnit: "mm^3" }).table).toEqual({ stresses: [[100.5], [250], [-40]], columns: 1, sizes: [2, 0.5, 1] });
   });
 
+  it("part-repeated-header pasted: the header repeated after a blank line is skipped and named (it was refused: '\"ELEM\" is not a number')", () => {
+    const { table, notes } = paste("part-repeated-header.csv");
+    expect(table).toEqual({ stresses: [[100.5], [-40], [250], [120]], columns: 1, sizes: [2, 1, 0.5, 1.5] });
+    expect(notes).toEqual(["Skipped line 1 (comment), line 2 (header), line 5 (blank), line 6 (repeated header).", "Read stresses S1 and sizes VOL by the header."]);
+  });
+
   it("a header naming no known column is read by position, and the note says so", () => {
     const { table, notes } = readElementTable("sigma\tdV\n100.5\t2\n");
     expect(table).toEqual({ stresses: [[100.5]], columns: 1, sizes: [2] });

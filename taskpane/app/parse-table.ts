@@ -88,7 +88,7 @@ function read(text: string, decimalMark: "comma" | "auto", options: TableOptions
     records.shift();
     if (records.length === 0) throw new TableError("The element table has a header but no rows.");
     const columns = byNames(header);
-    if (columns !== null) return readByHeader(header, columns, records, mark, skipped, options);
+    if (columns !== null) return readByHeader(header, columns, records, mark, skipped, options, delimiter.delimiter === "space");
     byPosition = `No column names recognised in the header (${header.join(", ")}): read by position, stresses first, size last.`;
   }
   const first = records[0];
@@ -149,6 +149,7 @@ function readByHeader(
   mark: ReturnType<typeof settleDecimalMark>["decimalMark"],
   skipped: string[],
   options: TableOptions,
+  blankSeparated: boolean,
 ): { table: ElementTable; notes: string[] } {
   const { stress: stressUnit, size: sizeUnit } = columns.units;
   if (stressUnit !== null && options.stressUnit !== undefined && !sameUnit(stressUnit, options.stressUnit)) {
@@ -169,6 +170,12 @@ function readByHeader(
     return v.value;
   };
   for (const r of records) {
+    // A listing's header repeated on each page: skipped and named.
+    const texts = blankSeparated ? withUnitsJoined(r.fields.map((f) => f.text)) : r.fields.map((f) => f.text);
+    if (texts.length >= width && texts.every((t, k) => (k < width ? t === header[k] : t === ""))) {
+      skipped.push(`line ${r.line} (repeated header)`);
+      continue;
+    }
     const fields = r.fields.length > width && r.fields.slice(width).every((f) => f.text === "") ? r.fields.slice(0, width) : r.fields;
     if (fields.length !== width) throw new TableError(`Line ${r.line}: expected ${width} values like the header, found ${fields.length}.`);
     if (columns.id >= 0) {
@@ -190,6 +197,7 @@ function readByHeader(
   const used = [...columns.stress.filter((k) => k >= 0), columns.size, ...(columns.id >= 0 ? [columns.id] : [])];
   const ignored = header.filter((_, k) => !used.includes(k));
   const form = columns.tensor === "plane stress" || (columns.kind === 3 && columns.stress[2] < 0) ? " (plane stress)" : columns.tensor === "axisymmetric or plane strain" ? ` (axisymmetric or plane strain, ${columns.labels.stress[2]} the hoop stress)` : "";
+  skipped.sort((a, b) => Number(/\d+/.exec(a)![0]) - Number(/\d+/.exec(b)![0]));
   const notes = [
     ...(skipped.length > 0 ? [`Skipped ${skipped.join(", ")}.`] : []),
     `Read stresses ${columns.stress.filter((k) => k >= 0).map((k) => header[k]).join(", ")}${form} and sizes ${columns.labels.size} by the header` +
