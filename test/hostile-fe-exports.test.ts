@@ -130,6 +130,15 @@ describe("several rows per element (integration-point or nodal output)", () => {
     expect(report.io.stdout).toMatch(/\nrows {12}integration points \(or nodes\), each with its own share of the element's size \(--integration-points\)\n/);
   });
 
+  it("part-repeated-element-ids with --integration-points: a size column named as the element's volume (EVOL) is still refused (stated, it was summed 4 times over)", async () => {
+    const { code, io } = await part("part-repeated-element-ids.txt", "--integration-points");
+    expect(code).toBe(1);
+    expect(io.stderr).toBe(
+      'brittle part: integration points were stated, but the size column "EVOL" is named as the element\'s volume or area: summed over its points, ' +
+        "each element would count once per point; export each point's own volume (or area), or one row per element\n",
+    );
+  });
+
   it("part-nodal-stresses: a node table with no volume says what it is (it said only 'no size column recognised')", async () => {
     const { code, io } = await part("part-nodal-stresses.txt");
     expect(code).toBe(1);

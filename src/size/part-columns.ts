@@ -140,6 +140,8 @@ const PRINCIPAL: string[][] = [
 ];
 const SINGLE = ["S", "STRESS", "SMAX", "MAXPRINCIPAL", "SMAXPRINCIPAL", "S1", "SP1"];
 const SIZE = ["SIZE", "VOLUME", "VOL", "IVOL", "EVOL", "AREA", "IAREA", "EAREA", "V", "A", "DV", "DA"];
+/** Size columns named as the whole element's: wrong beside integration-point rows. */
+const ELEMENT_SIZE = ["EVOL", "EAREA", "ELEMENTVOLUME", "ELEMENTAREA", "ELEMVOL", "ELEMAREA"];
 const ID = ["ID", "ELEMENT", "ELEM", "ELEMENTID", "ELEMID", "EID", "LABEL"];
 /** Columns that number nodes or integration points: several rows per element. */
 const POINT = ["NODE", "NODEID", "NODELABEL", "NID", "NODENUMBER", "IP", "INTPT", "INTEGRATIONPOINT", "GAUSSPOINT", "GP", "NP", "POINT", "SECTIONPOINT", "SECPT"];
@@ -327,6 +329,13 @@ export function resolveColumns(header: string[] | null, fieldCount: number, choi
         "With the element's volume or area on every row the sum would count each element once per row: " +
         "export one row per element (element-averaged or centroid stresses) with the element volume or area instead; " +
         "if the size column holds each point's own share of the element, state --integration-points",
+    );
+  }
+  if (pointSizes && names && ELEMENT_SIZE.includes(names[size])) {
+    throw new InputError(
+      "input",
+      `integration points were stated, but the size column "${header![size]}" is named as the element's volume or area: ` +
+        "summed over its points, each element would count once per point; export each point's own volume (or area), or one row per element",
     );
   }
   const label = (k: number) => (k < 0 ? "0" : header ? header[k] : `column ${k + 1}`);
