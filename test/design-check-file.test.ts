@@ -109,7 +109,8 @@ describe("hostile check files (test/fixtures/hostile/check-*)", () => {
   it("covers every check file in the corpus", () => {
     // Read and checked: check-fail-within-last-figure in test/design-verdict-digits.test.ts,
     // check-bound-above-estimate in test/design-bound-above-estimate.test.ts,
-    // check-fail-probability-prints-as-allowed in test/design-verdict-digits.test.ts.
+    // check-fail-probability-prints-as-allowed in test/design-verdict-digits.test.ts,
+    // check-part-sizes-all-zero below (it parses; the check refuses it).
     const accepted = [
       "check-utf8-bom.check.json",
       "check-utf16le-bom.check.json",
@@ -117,6 +118,7 @@ describe("hostile check files (test/fixtures/hostile/check-*)", () => {
       "check-fail-within-last-figure.check.json",
       "check-bound-above-estimate.check.json",
       "check-fail-probability-prints-as-allowed.check.json",
+      "check-part-sizes-all-zero.check.json",
     ];
     expect(files.sort()).toEqual([...Object.keys(expected), ...accepted].sort());
   });
@@ -140,5 +142,13 @@ describe("hostile check files (test/fixtures/hostile/check-*)", () => {
   it("keeps a formula-looking title as text (guards against a title that a spreadsheet export would run)", () => {
     const d = parseCheckFileBytes(bytes("check-formula-title.check.json"));
     expect(d.title).toBe('=HYPERLINK("http://example.invalid","click")');
+  });
+});
+
+describe("a part table whose every element in tension has size 0 (volumes rounded to 0.000 on export)", () => {
+  it("is refused naming part.sizes and the likely cause, not run as a part of size 0 (a PASS at any stress)", () => {
+    const d = parseCheckFile(readFileSync(join(HOSTILE, "check-part-sizes-all-zero.check.json"), "utf8"));
+    expect(d.part.kind).toBe("table");
+    expect(() => runDesignCheck(d)).toThrow(/^part\.sizes: every element in tension has size 0.*too few digits/);
   });
 });

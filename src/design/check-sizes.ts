@@ -7,7 +7,7 @@
  */
 import { InputError } from "../errors";
 import { barFlexureArea, barFlexureVolume } from "../size/flexure";
-import { partRisk } from "../size/part";
+import { NO_SIZE_IN_TENSION, partRisk } from "../size/part";
 import { findSpecimen, specimenEffectiveSize } from "../size/presets";
 import type { CheckDescription } from "./check-description";
 import { parseSizeUnit, type SizeUnit } from "./check-units";
@@ -65,6 +65,7 @@ export function resolveSizes(input: CheckDescription, shape: number): ResolvedSi
     criterion: input.criterion,
   });
   if (!(risk.peak > 0)) throw new InputError("notApplicable", "part.stresses: no element of the part's table carries tensile stress");
+  if (!(risk.effectiveSize > 0)) throw new InputError("input", `part.sizes: ${NO_SIZE_IN_TENSION}`);
   const columns = p.columns === 1 ? "maximum principal stress" : p.columns === 3 ? "principal stresses" : "stress tensors";
   return {
     unit,

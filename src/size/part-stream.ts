@@ -48,7 +48,7 @@ import {
   splitFields,
 } from "./csv-bytes";
 import { type ColumnChoice, type ResolvedColumns, isUnit, resolveColumns, withUnitsJoined } from "./part-columns";
-import { accumulate } from "./part";
+import { accumulate, NO_SIZE_IN_TENSION } from "./part";
 import { type CompensatedTotal, ScaledPower, newTotal, totalValue } from "./power-kernel";
 import { principalStresses } from "./principal";
 
@@ -1078,11 +1078,7 @@ export function riskOfPart(
   materialScale: number | undefined,
 ): { risk: number | null; failureProbability: number | null } {
   if (peak > 0 && !(effectiveSize > 0)) {
-    throw new InputError(
-      "input",
-      "every element in tension has size 0, so the effective size is 0 (and the failure probability would be 0): " +
-        "sizes printed with too few digits (volumes in m^3 in a fixed format?), or the wrong size column? Export the sizes with more digits or in a smaller unit",
-    );
+    throw new InputError("input", NO_SIZE_IN_TENSION);
   }
   if (materialScale === undefined) return { risk: null, failureProbability: null };
   const risk = peak > 0 && effectiveSize > 0 ? Math.exp(Math.log(effectiveSize) + shape * Math.log(peak / materialScale)) : 0;

@@ -209,6 +209,15 @@ function asPrincipal(table: PartTable): { principal: Float64Array; stride: 1 | 3
   }
 }
 
+/**
+ * Why a table whose tensile elements all have size 0 is refused: its effective size and failure
+ * probability would come out 0, a pass for any stress, while the cause is nearly always the export
+ * (sizes rounded to 0 by too few digits, or the wrong column).
+ */
+export const NO_SIZE_IN_TENSION =
+  "every element in tension has size 0, so the effective size is 0 (and the failure probability would be 0): " +
+  "sizes printed with too few digits (volumes in m^3 in a fixed format?), or the wrong size column? Export the sizes with more digits or in a smaller unit";
+
 /** The risk sum of a table given as 1, 3 or 6 stress columns. */
 export function partRisk(table: PartTable): PartRiskSum {
   const { principal, stride } = asPrincipal(table);
