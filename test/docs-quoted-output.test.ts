@@ -9,6 +9,7 @@ import { tmpdir } from "node:os";
 import { dirname, join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
 import { main, summaryLine } from "../cli/cli";
+import { generateMetadata, type FunctionMetadata } from "../functions/metadata";
 import { guarded } from "../functions/registry";
 import { PLANNING_SIZES } from "../src/design/specimens-needed";
 
@@ -278,5 +279,57 @@ describe("docs/material-fit-and-planning.md: worked numbers", () => {
     expect([...Array.from({ length: 29 }, (_, i) => i + 2), ...sizes.slice(2)]).toEqual(PLANNING_SIZES);
     const table = guarded.BOUNDRATIOTABLE(10, 0.999) as unknown[][];
     expect(table.slice(1).map((r) => r[0])).toEqual(PLANNING_SIZES);
+  });
+});
+
+describe("function signatures the documents write out", () => {
+  const signature = (f: FunctionMetadata) => `(${f.parameters.map((p) => (p.optional ? `[${p.name}]` : p.name)).join(", ")})`;
+
+  it("every `NAME(arguments)` written out in full is the function's signature", async () => {
+    const byName = new Map((await generateMetadata()).functions.map((f) => [f.id, signature(f)]));
+    let checked = 0;
+    for (const doc of DOCS) {
+      for (const [, name, args] of read(doc).matchAll(/`(?:BRITTLE\.)?([A-Z]{3,})(\([\w, [\]]*\))`/g)) {
+        expect(byName.get(name), `${doc}: ${name}${args}`).toBe(args);
+        checked++;
+      }
+    }
+    expect(checked).toBeGreaterThan(5);
+  });
+
+  it("docs/signatures.md: each signature in its tables is the function's, for every function its row names", async () => {
+    const byName = new Map((await generateMetadata()).functions.map((f) => [f.id, signature(f)]));
+    let checked = 0;
+    for (const line of read("docs/signatures.md").split("\n").filter((l) => l.startsWith("| `"))) {
+      const cells = line.split(" | ");
+      const names = [...cells[0].matchAll(/`([A-Z]+)`/g)].map((m) => m[1]);
+      // The changed table's third column is the new signature; the reviewed table's second is the signature.
+      const written = (cells.length >= 4 ? cells[2] : cells[1]).match(/^`(\([\w, [\]]*\))`/);
+      if (!written) continue;
+      // "(stress or survival, ...)" in a row of two functions: the first takes stress, the second survival.
+      names.forEach((name, i) => {
+        const own = written[1].replace(/(\w+) or (\w+)/, (_, a, b) => (i === 0 ? a : b));
+        expect(byName.get(name), `${name}${own}`).toBe(own);
+        checked++;
+      });
+    }
+    expect(checked).toBeGreaterThan(15);
+  });
+});
+
+describe("shapes and packages the documents state", () => {
+  it("FIT spills the 21 rows README.md and docs/signatures.md give it", () => {
+    expect(read("README.md")).toContain("mixture-check row (21 rows)");
+    expect(read("docs/signatures.md")).toContain("(21 x 2 since the mixture-check row)");
+    // Invented strengths (made-up numbers).
+    const table = guarded.FIT([[412], [398], [455], [430], [387], [441], [402], [419], [366], [425]]) as unknown[][];
+    expect(table).toHaveLength(21);
+  });
+
+  it("docs/deploy.md names every production dependency of the package", () => {
+    const listed = between(read("docs/deploy.md"), "Installed with production dependencies only (", ")");
+    const names = listed.split(/, | and /).map((n) => n.toLowerCase());
+    const dependencies = Object.keys(JSON.parse(read("package.json")).dependencies);
+    expect(names.sort()).toEqual(dependencies.sort());
   });
 });
