@@ -9,9 +9,16 @@ import { tmpdir } from "node:os";
 import { dirname, join } from "node:path";
 import { afterAll, describe, expect, it } from "vitest";
 import { main, summaryLine } from "../cli/cli";
+import { SAFE_BUILTINS } from "../cli/formula-safety";
+import { PARALLEL_MIN_BYTES } from "../cli/part-parallel";
+import { MAX_RANGE_CELLS } from "../cli/range-budget";
+import { MAX_COLUMNS, MAX_CONTENT_CELLS, MAX_ROWS } from "../cli/workbook-limits";
+import { MAX_PACKAGE_BYTES, MAX_PART_BYTES } from "../cli/xlsx-parts";
 import { generateMetadata, type FunctionMetadata } from "../functions/metadata";
 import { guarded } from "../functions/registry";
+import { parseCheckFile } from "../src/design/check-file";
 import { PLANNING_SIZES } from "../src/design/specimens-needed";
+import { MAX_LINE_BYTES } from "../src/size/part-stream";
 
 const DOCS = [
   "README.md",
@@ -112,6 +119,12 @@ describe("docs/check-file.md", () => {
     const { code, err } = await run(["check", invented("comma.check.json", JSON.stringify(example, null, 1))]);
     expect(code).toBe(2);
     expect(flat(err)).toContain(quoted);
+  });
+
+  it("its example is a check file the reader accepts", () => {
+    const example = text.match(/## Example \(invented\)\s+```json\n([\s\S]*?)```/);
+    expect(example).not.toBeNull();
+    expect(parseCheckFile(example![1]).material).toMatchObject({ kind: "data", method: "MLE" });
   });
 
   it("names every top-level field of `brittle check --json`, and the error object's fields", async () => {
@@ -331,5 +344,34 @@ describe("shapes and packages the documents state", () => {
     const names = listed.split(/, | and /).map((n) => n.toLowerCase());
     const dependencies = Object.keys(JSON.parse(read("package.json")).dependencies);
     expect(names.sort()).toEqual(dependencies.sort());
+  });
+});
+
+describe("docs/files-and-formats.md: the limits and lists it states", () => {
+  const text = read("docs/files-and-formats.md");
+  const number = (s: string) => Number(s.replace(/,/g, ""));
+  const limit = (label: string) => {
+    const row = text.split("\n").find((l) => l.startsWith(`| ${label}`));
+    expect(row, label).toBeDefined();
+    return row!.split("|")[2].trim();
+  };
+
+  it("the workbook size limits are the code's", () => {
+    expect(number(limit("cells holding a value"))).toBe(MAX_CONTENT_CELLS);
+    expect(limit("rows and columns of a sheet")).toMatch(new RegExp(`^${MAX_ROWS.toLocaleString("en-US")} and ${MAX_COLUMNS.toLocaleString("en-US")}`));
+    expect(limit("one part of the `.xlsx` package")).toBe(`${MAX_PART_BYTES / 2 ** 20} MB`);
+    expect(limit("the whole package")).toBe(`${MAX_PACKAGE_BYTES / 2 ** 20} MB`);
+    expect(number(limit("cells spanned by the ranges"))).toBe(MAX_RANGE_CELLS);
+  });
+
+  it("the element table's longest line and the size read on two threads are the code's", () => {
+    expect(flat(text)).toContain(`A line may be at most 1 MiB (${MAX_LINE_BYTES.toLocaleString("en-US")} bytes) long`);
+    expect(MAX_LINE_BYTES).toBe(2 ** 20);
+    expect(flat(text)).toContain(`A file of ${PARALLEL_MIN_BYTES / 2 ** 20} MiB or more is read on two threads`);
+  });
+
+  it("the built-ins that stay formulas in a written copy are the code's list", () => {
+    const listed = between(text, "these built-ins, each of which computes from its arguments alone:", "; with cell");
+    expect([...listed.matchAll(/`(\w+)`/g)].map((m) => m[1])).toEqual([...SAFE_BUILTINS]);
   });
 });
