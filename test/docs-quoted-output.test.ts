@@ -345,6 +345,13 @@ describe("shapes and packages the documents state", () => {
     const dependencies = Object.keys(JSON.parse(read("package.json")).dependencies);
     expect(names.sort()).toEqual(dependencies.sort());
   });
+
+  it("docs/deploy.md names every example file the package ships, and the package file name", () => {
+    const text = read("docs/deploy.md");
+    const pkg = JSON.parse(read("package.json"));
+    for (const file of pkg.files.filter((f: string) => f.startsWith("examples/"))) expect(text).toContain(`\`${file}\``);
+    expect(text).toContain(`\`${pkg.name}-${pkg.version}.tgz\``);
+  });
 });
 
 describe("docs/files-and-formats.md: the limits and lists it states", () => {
