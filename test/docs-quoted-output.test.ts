@@ -382,3 +382,15 @@ describe("docs/files-and-formats.md: the limits and lists it states", () => {
     expect([...listed.matchAll(/`(\w+)`/g)].map((m) => m[1])).toEqual([...SAFE_BUILTINS]);
   });
 });
+
+describe("docs/design-check.md: the formula it offers to type", () => {
+  it("the Explain example evaluates to a strength with `brittle calc` too", async () => {
+    const formula = quoteAfter(read("docs/design-check.md"), "type a formula with numbers and array constants, for example");
+    expect(formula).toMatch(/^=BRITTLE\.CHARSTRENGTH\(\{/);
+    const { code, out } = await run(["calc", invented("explain.csv", `Formula\n"${formula.replace(/"/g, '""')}"\n`), "--json"]);
+    expect(code).toBe(0);
+    // Censored maximum likelihood for failures 412.5 and 455 with 398.1 censored (ASTM C1239 sec. 7 equations,
+    // solved by bisection in Python): 444.804369376139.
+    expect((Object.values(JSON.parse(out))[0] as unknown[][])[1][0]).toBeCloseTo(444.804369376139, 9);
+  });
+});
