@@ -394,3 +394,34 @@ describe("docs/design-check.md: the formula it offers to type", () => {
     expect((Object.values(JSON.parse(out))[0] as unknown[][])[1][0]).toBeCloseTo(444.804369376139, 9);
   });
 });
+
+describe("docs/check-file.md: fields it marks required", () => {
+  const text = read("docs/check-file.md");
+  /** The fields marked "yes" in the table that follows `heading`. */
+  const required = (heading: string) => {
+    const from = text.indexOf(heading);
+    expect(from).toBeGreaterThanOrEqual(0);
+    const table = text.slice(from).split("\n\n").find((block) => block.startsWith("| field | required |"))!;
+    return [...table.matchAll(/^\| `(\w+)` \| yes \|/gm)].map((m) => m[1]);
+  };
+
+  for (const [heading, example, path] of [
+    ["## Fields", "examples/check-fail.check.json", []],
+    ["### `lifetime`", "examples/check-lifetime-proof.check.json", ["lifetime"]],
+  ] as const) {
+    it(`${heading}: a file without a required field is refused, naming it in plain words`, async () => {
+      const names = required(heading);
+      expect(names.length).toBeGreaterThan(3);
+      for (const name of names) {
+        const file = JSON.parse(read(example));
+        const holder = path.reduce((o, key) => o[key], file);
+        delete holder[name];
+        const { code, out } = await run(["check", invented("missing.check.json", JSON.stringify(file)), "--json"]);
+        expect(code, name).toBe(2);
+        const refusal = JSON.parse(out).error;
+        expect(refusal.field, name).toBe([...path, name].join("."));
+        expect(refusal.message, name).not.toMatch(/undefined|NaN|Infinity/);
+      }
+    });
+  }
+});
