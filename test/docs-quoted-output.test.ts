@@ -1,6 +1,7 @@
-// What the user documentation quotes, checked against what the code says now: links, the printed
-// `brittle check` verdict, messages and report lines of the file readers, the JSON fields named for
-// `brittle check --json`, the measured tables of docs/uncertainty.md against the committed records they
+// What the user documentation quotes, checked against what the code says now: links and headings, the
+// printed `brittle check` verdict, messages and report lines of the file readers, the JSON fields named for
+// `brittle check --json`, the check file's required fields, function signatures written out in full, limits
+// and lists the pages state, the measured tables of docs/uncertainty.md against the committed records they
 // come from, and the worked numbers of docs/material-fit-and-planning.md. Each quote is read from the
 // document itself, so a changed message fails here instead of going stale on the page. The inputs are
 // invented (made-up numbers), written to a temporary folder.
