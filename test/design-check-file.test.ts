@@ -103,6 +103,8 @@ describe("hostile check files (test/fixtures/hostile/check-*)", () => {
     "check-two-sided-zero.check.json": { field: "confidence.level", message: /must lie above 0 and at most 0\.99 \(got 0\)/, guards: "a refusal whose stated range includes the refused value" },
     "check-survival-rounds-to-one.check.json": { field: "requirement.survival", message: /strictly between 0 and 1 \(got 1\)/, guards: "a survival with more nines than a double holds, read as certain survival" },
     "check-ragged-table.check.json": { field: "part.stresses[1]", message: /needs at least 3 entries \(got 2\)/, guards: "a ragged element table shifting stresses between elements" },
+    "check-without-lifetime.check.json": { field: "lifetime", message: /missing: write null when slow crack growth is not part of the check/, guards: "a file without its lifetime checked without slow crack growth (PASS where the lifetime gives FAIL)" },
+    "check-disk-without-poisson.check.json": { field: "specimen.poisson", message: /expected a number, got nothing \(the field is missing\)$/, guards: "a missing field named \"undefined\"" },
   };
   const files = readdirSync(HOSTILE).filter((f) => f.startsWith("check-"));
 

@@ -161,6 +161,13 @@ describe("formula text the engine could not read as a spreadsheet does", () => {
     );
     expect(normaliseFormula("=LOG10(A1)*E3")).toBe("=LOG10(A1)*E3");
   });
+
+  it("writes TRUE and FALSE in an array constant as the functions, leaving text, calls and names outside arrays alone", () => {
+    expect(normaliseFormula('=BRITTLE.FIT({412;398},{FALSE;true},"MLE")')).toBe('=BRITTLE.FIT({412;398},{FALSE();TRUE()},"MLE")');
+    expect(normaliseFormula('=AND({"TRUE",TRUE ;FALSE()})+IF(TRUE,1,0)')).toBe('=AND({"TRUE",TRUE() ;FALSE()})+IF(TRUE,1,0)');
+    expect(normaliseFormula('={"a}",TRUE}')).toBe('={"a}",TRUE()}');
+    expect(normaliseFormula("={1;TRUEX}")).toBe("={1;TRUEX}");
+  });
 });
 
 describe("CSV reading", () => {

@@ -180,6 +180,16 @@ describe("cells the reader reports differently from a spreadsheet", () => {
     const csv = await calcJson(corpus("calc-logical-literals.csv"));
     expect(csv.grids["calc-logical-literals"].slice(1).map((row) => row[1])).toEqual([1, 2, 3]);
   });
+
+  it("calc-logical-in-array: TRUE and FALSE inside an array constant are logical values (the whole run stopped with \"Value of the formula cell is not computed\" before)", async () => {
+    const { grids } = await calcJson(corpus("calc-logical-in-array.csv"));
+    const results = grids["calc-logical-in-array"].slice(1).map((row) => row[1]);
+    // Censored maximum likelihood (ASTM C1239 sec. 7 equations) solved by bisection in Python for failures 412.5 and
+    // 455 with 398.1 censored: m = 26.0285, characteristic strength 444.80436937613933.
+    expect(results[0]).toBeCloseTo(444.80436937613933, 9);
+    expect(results[1]).toBe(results[0]);
+    expect(results.slice(2)).toEqual([true, "TRUE"]);
+  });
 });
 
 describe("formulas that evaluate to errors", () => {

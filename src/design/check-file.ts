@@ -88,8 +88,22 @@ export function parseCheckFile(text: string): CheckDescription {
   if (o.version > CHECK_FORMAT_VERSION) {
     throw new CheckFieldError("version", `the file is format version ${o.version}, newer than the version ${CHECK_FORMAT_VERSION} this program reads: update the add-in`);
   }
-  return validateCheckDescription(o);
+  const description = validateCheckDescription(o);
+  // A file must write these even when they do not apply (null): a file without them would be checked as if there were
+  // no slow crack growth, no proof test or no applied stress, which check-file.md marks required for that reason.
+  // (After the validation, so that a misspelt name is reported as the unknown field it is.)
+  for (const [field, write] of MEANINGFUL_NULLS) {
+    if (!(field in o)) throw new CheckFieldError(field, `missing: ${write}`);
+  }
+  return description;
 }
+
+/** Required fields whose null means "none": what to write instead of leaving them out. */
+const MEANINGFUL_NULLS: readonly [string, string][] = [
+  ["appliedStress", "give the applied peak stress, or null to use the peak of the part's element table"],
+  ["lifetime", "write null when slow crack growth is not part of the check, else the lifetime, n and B"],
+  ["proof", "write null when the parts are not proof-tested, else { \"proofStress\": P }"],
+];
 
 /**
  * Reads a check file from its bytes (decoding, then parseCheckFile).

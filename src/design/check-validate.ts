@@ -52,6 +52,7 @@ function show(value: unknown): string {
   if (typeof value === "string") return `text "${value.length > 40 ? value.slice(0, 40) + "..." : value}"`;
   if (typeof value === "number") return Number.isNaN(value) ? "not a number" : Number.isFinite(value) ? String(value) : "a number too large to represent";
   if (value === null) return "null";
+  if (value === undefined) return "nothing (the field is missing)";
   if (Array.isArray(value)) return "a list";
   return typeof value === "object" ? "an object" : String(value);
 }
