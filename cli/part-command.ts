@@ -261,7 +261,7 @@ export function formatPartReport(file: string, r: PartFileResult): string {
   const listing = r.skipped.some((s) => s.reason === "repeated header" || s.reason === "page title" || s.reason === "text after the last element");
   row(
     "element table",
-    `${file}: ${r.rows} elements` +
+    `${file}: ${r.rows} element${r.rows === 1 ? "" : "s"}` +
       (header ? `, header on line ${header.from}` : ", no header") +
       (others > 0 ? `; ${others} ${listing ? "other" : "blank or comment"} line${others === 1 ? "" : "s"} skipped (listed on stderr)` : ""),
   );

@@ -63,6 +63,14 @@ describe("brittle part", () => {
     expect(r.peakId).toBe("7");
   });
 
+  it("a table of one element is counted in the singular", async () => {
+    const one = join(dir, "one.csv");
+    writeFileSync(one, "elem,s1,ivol\n1,100,2\n");
+    const { io, text } = capture();
+    expect(await runPartCommand([one, "--modulus", "10"], io)).toBe(0);
+    expect(text.out).toMatch(/one\.csv: 1 element, header on line 1/);
+  });
+
   it("usage errors exit 2 with the usage text", async () => {
     for (const args of [[table], ["--modulus", "10"], [table, "--modulus", "-1"], [table, "--modulus", "10", "--criterion", "X"], [table, "--modulus", "10", "--bogus"]]) {
       const { io, text } = capture();
