@@ -103,7 +103,15 @@ export function createPlugin(metadata: FunctionMetadata[]) {
       vectorizationForbidden: true,
       ...(spill ? { sizeOfResultArrayMethod: `size_${fn.id}` } : {}),
     };
+    const required = fn.parameters.filter((p) => !p.optional).length;
+    const counts = required === fn.parameters.length ? `${required}` : `${required} to ${fn.parameters.length}`;
+    const names = fn.parameters.map((p) => (p.optional ? `[${p.name}]` : p.name)).join(", ");
     proto[method] = function (this: FunctionPlugin, ast: any, state: any) {
+      // The engine's own message ("Wrong number of arguments.") names neither the function nor what it takes.
+      const given: number = ast.args.length;
+      if (given < required || given > fn.parameters.length) {
+        return new CellError(ErrorType.NA, `${engineName} takes ${counts} ${counts === "1" ? "argument" : "arguments"} (${names}); this call gives ${given}`);
+      }
       return this.runFunction(ast.args, state, this.metadata(engineName), ((...args: unknown[]) => {
         try {
           // An empty argument (",,") means "not given", as a spreadsheet host passes null.

@@ -11,7 +11,7 @@
  */
 import { loadExcelJs, type ExcelJS } from "./exceljs-loader";
 import { writeAtomically } from "./atomic-write";
-import { shownCell, columnName, spillExtent, type Evaluation } from "./evaluate-workbook";
+import { readCell, columnName, spillExtent, type Evaluation, type ShownCell } from "./evaluate-workbook";
 import { judgeFormula, writtenText } from "./formula-safety";
 import { restoreDefinedNames } from "./xlsx-parts";
 import type { Contents, LoadedWorkbook } from "./workbook-io";
@@ -30,7 +30,7 @@ export async function writeEvaluated(workbook: LoadedWorkbook, evaluation: Evalu
   for (const [name, contents] of Object.entries(workbook.sheets)) {
     const ws = book.getWorksheet(name) ?? book.addWorksheet(name);
     const sheet = engine.getSheetId(name)!;
-    const resultAt = (row: number, col: number) => fileValue(engine.getCellValue({ sheet, row, col }));
+    const resultAt = (row: number, col: number) => fileValue(readCell(engine, { sheet, row, col }));
     contents.forEach((row, r) =>
       row.forEach((cellContents, c) => {
         const cell = ws.getCell(r + 1, c + 1);
@@ -72,8 +72,7 @@ export async function writeEvaluated(workbook: LoadedWorkbook, evaluation: Evalu
 }
 
 /** A computed value as the file stores it: errors and non-finite numbers as standard error values. */
-function fileValue(v: unknown): unknown {
-  const shown = shownCell(v);
+function fileValue(shown: ShownCell): unknown {
   return shown.error ? { error: shown.error } : (shown.value ?? "");
 }
 

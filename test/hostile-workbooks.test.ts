@@ -209,7 +209,7 @@ describe("formulas that evaluate to errors", () => {
     expect(lines).toEqual([
       expect.stringMatching(/^Data!B2: #REF!: circular reference: the formula depends on its own result \(engine: #CYCLE!\)$/),
       expect.stringMatching(/^Data!C2: #REF!: circular reference/),
-      expect.stringMatching(/^Data!B3: #VALUE!: the formula cannot be read \(engine: #ERROR! Parsing error/),
+      expect.stringMatching(/^Data!B3: #VALUE!: the formula cannot be read: ";" where a closing parenthesis \) or a comma was expected \(arguments are separated by commas\) \(engine: #ERROR!\)$/),
       "Data!B4: #DIV/0!",
       expect.stringMatching(/^Data!B5: #(NUM!|VALUE!): stress must be zero or positive/),
       "brittle: --strict: 5 of 6 formulas evaluate to errors",
@@ -239,6 +239,66 @@ describe("formulas that evaluate to errors", () => {
     // The standard values of the file format: ECMA-376 Part 1, 18.17.2.6.
     for (const v of written) expect(STANDARD_ERRORS).toContain(v);
     expect(sheet).not.toMatch(/Infinity|NaN|#CYCLE!|#ERROR!/);
+  });
+
+  it("calc-formula-too-deep: a formula that exhausts the engine's stack is that cell's error; every other cell is evaluated (the whole run stopped with \"Maximum call stack size exceeded\")", async () => {
+    const file = corpus("calc-formula-too-deep.csv");
+    const io = capture();
+    expect(await main(["calc", file], io)).toBe(0);
+    expect(io.stdout).toMatch(/\n5 formulas evaluated, 3 errors\n$/);
+    const { code, grids, stderr } = await calcJson(file, "--strict");
+    expect(code).toBe(EXIT_FORMULA_ERRORS);
+    const results = grids["calc-formula-too-deep"].slice(1).map((row) => row[1]);
+    // Plain arithmetic: 500 ones sum to 500; MEANSTRENGTH(10, 400) = 400 Gamma(1.1) (jstat gammafn).
+    expect(results.slice(0, 4)).toEqual(["#VALUE!", "#VALUE!", "#VALUE!", 500]);
+    expect(relativeError(results[4], 400 * jStat.gammafn(1.1))).toBeLessThan(1e-12);
+    const lines = stderr.trim().split("\n").filter((l) => !l.startsWith("brittle: read "));
+    const tooDeep = /: #VALUE!: the formula is too long or too deeply nested for the formula engine: split it over several cells/;
+    expect(lines[0]).toMatch(/^'calc-formula-too-deep'!B2/);
+    expect(lines[0]).toMatch(tooDeep);
+    expect(lines[1]).toBe("'calc-formula-too-deep'!B3: #VALUE!"); // =B2*2 passes the error on, as a spreadsheet does
+    expect(lines[2]).toMatch(/^'calc-formula-too-deep'!B4/);
+    expect(lines[2]).toMatch(tooDeep);
+    expect(lines.at(-1)).toBe("brittle: --strict: 3 of 5 formulas evaluate to errors");
+  });
+
+  it("calc-unreadable-formulas: each unreadable or unsupported formula says what is wrong in a spreadsheet's terms, not the parser's", async () => {
+    const { code, grids, stderr } = await calcJson(corpus("calc-unreadable-formulas.csv"), "--strict");
+    expect(code).toBe(EXIT_FORMULA_ERRORS);
+    const message: Record<string, string> = {};
+    for (const line of stderr.trim().split("\n")) {
+      const m = /^'calc-unreadable-formulas'!B(\d+): (.*)$/.exec(line);
+      if (m) message[m[1]] = m[2];
+    }
+    // The parser's wording: token names, arrows, offsets (e.g. "Expecting token of type --> RParen <-- but found --> '' <--").
+    for (const text of Object.values(message)) expect(text).not.toMatch(/Token|-->|<--|->|offset|Parsing error|not recognized|Wrong number/);
+    expect(message[2]).toBe("#VALUE!: the formula cannot be read: a closing parenthesis ) is missing at the end (engine: #ERROR!)");
+    expect(message[3]).toMatch(/a closing parenthesis \) has no opening one/);
+    expect(message[4]).toMatch(/a text in quotes is not closed \(the quote at character 8\)/);
+    expect(message[5]).toMatch(/two operators in a row such as ==/);
+    expect(message[6]).toMatch(/the formula is empty/);
+    expect(message[7]).toMatch(/arguments are separated by commas/);
+    expect(message[8]).toMatch(/refers to another workbook, which brittle calc does not open/);
+    expect(message[9]).toMatch(/table references such as Table1\[Column\] are not supported/);
+    expect(message[10]).toMatch(/R1C1-style references are not supported/);
+    expect(message[11]).toMatch(/implicit intersection operator @ is not supported/);
+    expect(message[12]).toMatch(/spilled range \(A1#\) is not supported/);
+    expect(message[13]).toMatch(/LAMBDA called in place is not supported/);
+    expect(message[14]).toMatch(/#NULL! is not an error value the formula engine knows/);
+    expect(message[15]).toMatch(/^#NAME\?: unknown function LET/);
+    expect(message[16]).toMatch(/^#NAME\?: BRITTLE\.NOSUCH is not one of the add-in's functions/);
+    expect(message[17]).toMatch(/^#NAME\?: NoSuchName is neither a function, a cell reference nor a defined name/);
+    expect(message[18]).toBe("#REF!: the formula refers to a sheet that is not in this workbook");
+    expect(message[19]).toMatch(/^#REF!: it refers to another workbook/);
+    expect(message[20]).toBe("#N/A: BRITTLE.MEANSTRENGTH takes 2 arguments (modulus, charStrength); this call gives 1");
+    expect(message[21]).toBe("#N/A: BRITTLE.MODULUS takes 1 to 3 arguments (strengths, [censored], [method]); this call gives 0");
+    expect(message[23]).toMatch(/^#NAME\?: a reference to a spilled range \(A1#\) is not supported/);
+    expect(message[24]).toMatch(/^#NAME\?: the implicit intersection operator @ is not supported/);
+    expect(message[25]).toMatch(/^#NAME\?: Survival is neither .* \(or it stands inside an array constant \{ \}, which holds only numbers, text, TRUE, FALSE and error values\)$/);
+    expect(message[26]).toMatch(/^#VALUE!: the formula cannot be read: a link to another program \(DDE/);
+    expect(Object.keys(message)).toHaveLength(24);
+    // The one formula that works is still evaluated: 400 Gamma(1.1) (jstat gammafn).
+    expect(relativeError(grids["calc-unreadable-formulas"][21][1], 400 * jStat.gammafn(1.1))).toBeLessThan(1e-12);
   });
 
   it("calc-nonfinite: a value beyond double precision is never written as Infinity", async () => {
