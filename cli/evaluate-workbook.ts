@@ -12,6 +12,7 @@ import { fitsRangeBudget } from "./range-budget";
 import { columnName, ShownGrid, type Shown } from "./shown-grid";
 import type { FunctionMetadata } from "../functions/metadata";
 import { WorkbookError } from "./workbook-errors";
+import { MAX_COLUMNS, MAX_ROWS } from "./workbook-limits";
 import type { Contents, LoadedWorkbook } from "./workbook-io";
 
 export type { Shown };
@@ -53,7 +54,7 @@ export function evaluateWorkbook(workbook: LoadedWorkbook, metadata: FunctionMet
       row.forEach((contents, c) => {
         const isFormula = typeof contents === "string" && contents.startsWith("=");
         const why = isFormula ? refused.get(refusedKey(name, r, c)) : undefined;
-        const cell: ShownCell = why ? { value: "#VALUE!", error: "#VALUE!", message: why } : readCell(engine, { sheet, row: r, col: c }, isFormula ? contents : undefined);
+        const cell: ShownCell = why ? { value: why.error, error: why.error, message: why.message } : readCell(engine, { sheet, row: r, col: c }, isFormula ? contents : undefined);
         put(r, c, cell.value);
         if (isFormula) {
           formulas.push({ sheet: name, address: columnName(c) + (r + 1), formula: contents, ...cell });
@@ -69,12 +70,9 @@ export function evaluateWorkbook(workbook: LoadedWorkbook, metadata: FunctionMet
   return { engine, grids, formulas, addInNames: new Set(metadata.map((f) => f.id)), refusedNames };
 }
 
-/** A formula the engine could not take, by sheet, row and column: why, in words. */
-type Refused = Map<string, string>;
+/** A formula not given to the engine, by sheet, row and column: the error it shows, and why in words. */
+type Refused = Map<string, { error: StandardError; message: string }>;
 const refusedKey = (sheet: string, row: number, col: number) => `${sheet}\u0000${row}\u0000${col}`;
-
-/** What the engine gets in place of a formula it cannot take: an error, which formulas reading the cell pass on. */
-const REFUSED_FORMULA = "=#VALUE!";
 
 /**
  * The engine with the workbook and its defined names. Building evaluates every formula, and a throw inside
@@ -85,33 +83,64 @@ const REFUSED_FORMULA = "=#VALUE!";
  */
 function buildGuarded(workbook: LoadedWorkbook, metadata: FunctionMetadata[]): { engine: HyperFormula; refusedNames: string[]; refused: Refused } {
   const refused: Refused = new Map();
-  const first = attempt(() => buildWithNames(workbook, workbook.sheets, metadata));
+  for (const [name, rows] of Object.entries(workbook.sheets)) {
+    rows.forEach((row, r) =>
+      row.forEach((contents, c) => {
+        const beyond = typeof contents === "string" && contents.startsWith("=") ? referenceBeyondSheet(contents) : undefined;
+        if (beyond) refused.set(refusedKey(name, r, c), { error: "#NAME?", message: beyond });
+      }),
+    );
+  }
+  const first = attempt(() => buildWithNames(workbook, withoutRefused(workbook, refused), metadata));
   if (!(first instanceof Error)) return { ...first, refused };
   const names = Object.keys(workbook.sheets);
   for (const [name, rows] of Object.entries(workbook.sheets)) {
     rows.forEach((row, r) =>
       row.forEach((contents, c) => {
-        if (typeof contents !== "string" || !contents.startsWith("=")) return;
+        if (typeof contents !== "string" || !contents.startsWith("=") || refused.has(refusedKey(name, r, c))) return;
         const alone: Record<string, Contents[][]> = Object.fromEntries(names.map((n) => [n, []]));
         // Every row up to the formula's must be an array (the engine refuses a hole among rows; within a row it takes one).
         for (let k = 0; k <= r; k++) alone[name].push([]);
         alone[name][r][c] = contents;
         const result = attempt(() => buildWithNames(workbook, alone, metadata));
-        if (result instanceof Error) refused.set(refusedKey(name, r, c), refusal(contents, result));
+        if (result instanceof Error) refused.set(refusedKey(name, r, c), { error: "#VALUE!", message: refusal(contents, result) });
       }),
     );
   }
   const stopped = `the formula engine stopped before evaluating any formula (${firstLine(first)})`;
   if (refused.size === 0) throw new WorkbookError(stopped);
-  const without = Object.fromEntries(
-    Object.entries(workbook.sheets).map(([name, rows]) => [
-      name,
-      rows.map((row, r) => (row.length === 0 ? row : row.map((v, c) => (refused.has(refusedKey(name, r, c)) ? REFUSED_FORMULA : v)))),
-    ]),
-  );
-  const second = attempt(() => buildWithNames(workbook, without, metadata));
+  const second = attempt(() => buildWithNames(workbook, withoutRefused(workbook, refused), metadata));
   if (second instanceof Error) throw new WorkbookError(stopped);
   return { ...second, refused };
+}
+
+/** The sheets with each refused formula replaced by its error value, which formulas reading the cell pass on. */
+function withoutRefused(workbook: LoadedWorkbook, refused: Refused): Record<string, Contents[][]> {
+  if (refused.size === 0) return workbook.sheets;
+  return Object.fromEntries(
+    Object.entries(workbook.sheets).map(([name, rows]) => [
+      name,
+      rows.map((row, r) => (row.length === 0 ? row : row.map((v, c) => (refused.has(refusedKey(name, r, c)) ? `=${refused.get(refusedKey(name, r, c))!.error}` : v)))),
+    ]),
+  );
+}
+
+/**
+ * A reference past the sheet's last row or column, named in a message; undefined when there is none. The
+ * engine checks a relative reference's distance from its own cell against the sheet's size, not where it
+ * lands, so =A1048577 in B2 was a blank cell (0 in a sum) instead of an error; a spreadsheet has no such cell.
+ */
+export function referenceBeyondSheet(formula: string): string | undefined {
+  // Only a reference with seven digits, or three letters before a digit, can reach past the sheet: most formulas skip the scan.
+  if (!/\d{7}|[A-Za-z]{3}\$?\d/.test(formula)) return undefined;
+  const code = formula.replace(/"(?:[^"]|"")*"/g, '""').replace(/'(?:[^']|'')*'/g, "''");
+  for (const m of code.matchAll(/(?<![A-Za-z0-9_.$])\$?([A-Za-z]{1,3})\$?(\d{1,7})(?![A-Za-z0-9_.(])/g)) {
+    const column = [...m[1].toUpperCase()].reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0);
+    if (Number(m[2]) > MAX_ROWS || column > MAX_COLUMNS) {
+      return `${m[0]} is beyond the sheet, whose last row is ${MAX_ROWS.toLocaleString("en-US")} and last column XFD (nor can a defined name look like a cell)`;
+    }
+  }
+  return undefined;
 }
 
 function buildWithNames(workbook: LoadedWorkbook, sheets: Record<string, Contents[][]>, metadata: FunctionMetadata[]): { engine: HyperFormula; refusedNames: string[] } {

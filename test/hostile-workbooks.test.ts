@@ -301,6 +301,16 @@ describe("formulas that evaluate to errors", () => {
     expect(relativeError(grids["calc-unreadable-formulas"][21][1], 400 * jStat.gammafn(1.1))).toBeLessThan(1e-12);
   });
 
+  it("calc-reference-beyond-sheet: a reference past the last row or column is #NAME? with its reason (it read as a blank cell: 0 in a sum, and --strict passed)", async () => {
+    const { code, grids, stderr } = await calcJson(corpus("calc-reference-beyond-sheet.csv"), "--strict");
+    expect(code).toBe(EXIT_FORMULA_ERRORS);
+    // A sheet has 1,048,576 rows and 16,384 columns (A to XFD), a spreadsheet's own limits (from memory; workbook-limits.ts).
+    expect(grids["calc-reference-beyond-sheet"].slice(1).map((row) => row[1])).toEqual(["#NAME?", "#NAME?", "#NAME?", 1, "A1048577", "#NAME?"]);
+    expect(stderr).toMatch(/^'calc-reference-beyond-sheet'!B2: #NAME\?: A1048577 is beyond the sheet, whose last row is 1,048,576 and last column XFD/m);
+    expect(stderr).toMatch(/^'calc-reference-beyond-sheet'!B4: #NAME\?: XFE1 is beyond the sheet/m);
+    expect(stderr).toMatch(/brittle: --strict: 4 of 6 formulas evaluate to errors/);
+  });
+
   it("calc-nonfinite: a value beyond double precision is never written as Infinity", async () => {
     const out = join(dir, "nonfinite.xlsx");
     const io = capture();
