@@ -77,9 +77,9 @@ const refusedKey = (sheet: string, row: number, col: number) => `${sheet}\u0000$
 /**
  * The engine with the workbook and its defined names. Building evaluates every formula, and a throw inside
  * the engine (the stack exhausted by a formula chaining two thousand +, a reference or a name inside an
- * array constant: "Value of the formula cell is not computed") stopped the whole run. Then each formula is
- * built alone (its sheet's other cells empty, the names defined): those that throw alone are refused, each
- * with its reason, and the workbook is built again without them. Only the failing path pays for this.
+ * array constant: "Value of the formula cell is not computed") stopped the whole run. Then the formulas that
+ * make it throw are found by halving (the workbook built with only some of its formulas), refused, each with
+ * its reason, and the workbook is built again without them. Only the failing path pays for this.
  */
 function buildGuarded(workbook: LoadedWorkbook, metadata: FunctionMetadata[]): { engine: HyperFormula; refusedNames: string[]; refused: Refused } {
   const refused: Refused = new Map();
@@ -93,25 +93,58 @@ function buildGuarded(workbook: LoadedWorkbook, metadata: FunctionMetadata[]): {
   }
   const first = attempt(() => buildWithNames(workbook, withoutRefused(workbook, refused), metadata));
   if (!(first instanceof Error)) return { ...first, refused };
-  const names = Object.keys(workbook.sheets);
-  for (const [name, rows] of Object.entries(workbook.sheets)) {
+  // Halving: the workbook with only some of its formulas (the others blank) is built; a half that throws is halved
+  // again down to one formula. A few offenders among many formulas cost about two builds of the whole workbook.
+  const cells: FormulaCell[] = [];
+  for (const [sheet, rows] of Object.entries(workbook.sheets)) {
     rows.forEach((row, r) =>
       row.forEach((contents, c) => {
-        if (typeof contents !== "string" || !contents.startsWith("=") || refused.has(refusedKey(name, r, c))) return;
-        const alone: Record<string, Contents[][]> = Object.fromEntries(names.map((n) => [n, []]));
-        // Every row up to the formula's must be an array (the engine refuses a hole among rows; within a row it takes one).
-        for (let k = 0; k <= r; k++) alone[name].push([]);
-        alone[name][r][c] = contents;
-        const result = attempt(() => buildWithNames(workbook, alone, metadata));
-        if (result instanceof Error) refused.set(refusedKey(name, r, c), { error: "#VALUE!", message: refusal(contents, result) });
+        if (typeof contents === "string" && contents.startsWith("=") && !refused.has(refusedKey(sheet, r, c))) cells.push({ sheet, r, c, contents });
       }),
     );
   }
+  const search = (subset: FormulaCell[], error: Error): void => {
+    if (subset.length === 1) {
+      const { sheet, r, c, contents } = subset[0];
+      refused.set(refusedKey(sheet, r, c), { error: "#VALUE!", message: refusal(contents, error) });
+      return;
+    }
+    const middle = Math.ceil(subset.length / 2);
+    for (const part of [subset.slice(0, middle), subset.slice(middle)]) {
+      const result = attempt(() => buildWithNames(workbook, withFormulas(workbook, refused, part), metadata));
+      if (result instanceof Error) search(part, result);
+    }
+  };
+  const before = refused.size;
+  search(cells, first);
   const stopped = `the formula engine stopped before evaluating any formula (${firstLine(first)})`;
-  if (refused.size === 0) throw new WorkbookError(stopped);
+  if (refused.size === before) throw new WorkbookError(stopped);
   const second = attempt(() => buildWithNames(workbook, withoutRefused(workbook, refused), metadata));
   if (second instanceof Error) throw new WorkbookError(stopped);
   return { ...second, refused };
+}
+
+interface FormulaCell {
+  sheet: string;
+  r: number;
+  c: number;
+  contents: string;
+}
+
+/** The sheets with their values, refused formulas as their errors, and of the other formulas only those given. */
+function withFormulas(workbook: LoadedWorkbook, refused: Refused, keep: FormulaCell[]): Record<string, Contents[][]> {
+  const kept = new Set(keep.map((f) => refusedKey(f.sheet, f.r, f.c)));
+  const sheets = withoutRefused(workbook, refused);
+  return Object.fromEntries(
+    Object.entries(sheets).map(([name, rows]) => [
+      name,
+      rows.map((row, r) =>
+        row.length === 0
+          ? row
+          : row.map((v, c) => (typeof v === "string" && v.startsWith("=") && !refused.has(refusedKey(name, r, c)) && !kept.has(refusedKey(name, r, c)) ? null : v)),
+      ),
+    ]),
+  );
 }
 
 /** The sheets with each refused formula replaced by its error value, which formulas reading the cell pass on. */

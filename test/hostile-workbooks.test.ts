@@ -260,6 +260,12 @@ describe("formulas that evaluate to errors", () => {
     expect(lines[2]).toMatch(/^'calc-formula-too-deep'!B4/);
     expect(lines[2]).toMatch(tooDeep);
     expect(lines.at(-1)).toBe("brittle: --strict: 3 of 5 formulas evaluate to errors");
+    // A written copy is made too, the refused cells holding #VALUE! (ECMA-376 Part 1, 18.17.2.6).
+    const out = join(dir, "too-deep.xlsx");
+    expect(await main(["calc", file, "--out", out], capture())).toBe(0);
+    const ws = (await readBack(out)).worksheets[0];
+    expect(ws.getCell("B2").result).toEqual({ error: "#VALUE!" });
+    expect(ws.getCell("B5").result).toBe(500);
   });
 
   it("calc-unreadable-formulas: each unreadable or unsupported formula says what is wrong in a spreadsheet's terms, not the parser's", async () => {
