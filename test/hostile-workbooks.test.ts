@@ -13,6 +13,7 @@ import { describe, expect, it } from "vitest";
 import { EXIT_FORMULA_ERRORS, main, type Io } from "../cli/cli";
 import { writeAtomically } from "../cli/atomic-write";
 import { STANDARD_ERRORS } from "../cli/error-values";
+import { readCell } from "../cli/evaluate-workbook";
 import { judgeFormula, SAFE_BUILTINS } from "../cli/formula-safety";
 import { checkWorkbookSize } from "../cli/workbook-limits";
 import { loadXlsx } from "../cli/xlsx-read";
@@ -266,6 +267,16 @@ describe("formulas that evaluate to errors", () => {
     const ws = (await readBack(out)).worksheets[0];
     expect(ws.getCell("B2").result).toEqual({ error: "#VALUE!" });
     expect(ws.getCell("B5").result).toBe(500);
+  });
+
+  it("a cell whose value the engine throws on reading is that cell's #VALUE!, so the other cells are still read", () => {
+    // The throw the engine gave for TRUE inside an array constant before normaliseFormula rewrote it.
+    const engine = { getCellValue: () => { throw new Error("Value of the formula cell is not computed."); } };
+    expect(readCell(engine as never, { sheet: 0, row: 0, col: 0 }, "={TRUE}")).toEqual({
+      value: "#VALUE!",
+      error: "#VALUE!",
+      message: "the formula engine could not evaluate this cell (Value of the formula cell is not computed.)",
+    });
   });
 
   it("calc-unreadable-formulas: each unreadable or unsupported formula says what is wrong in a spreadsheet's terms, not the parser's", async () => {
