@@ -88,7 +88,10 @@ function parseProblem(said: string, formula: string): string {
   for (const { test, say } of UNSUPPORTED) if (test.test(code)) return say;
   const unexpected = /unexpected character: ->(.+?)<- at offset: (\d+)/.exec(said);
   if (unexpected) {
-    const [, ch, offset] = unexpected;
+    const [, said1, offset] = unexpected;
+    // The parser names one UTF-16 unit: half of a character beyond the first plane (an emoji), which prints as "?".
+    const at = formula.codePointAt(Number(offset));
+    const ch = at !== undefined && formula.charAt(Number(offset)) === said1.charAt(0) ? String.fromCodePoint(at) : said1;
     if (ch === '"') return `a text in quotes is not closed (the quote at character ${Number(offset) + 1})`;
     if (ch === "#") return `"#" at character ${Number(offset) + 1} is not understood (an error value such as #N/A is written whole, and A1# is not supported)`;
     return `"${ch}" at character ${Number(offset) + 1} is not understood there`;
