@@ -42,7 +42,7 @@ export function readDelimited(text: string, choice: DialectChoice & { comments?:
 }
 
 /** A '#' comment line; a spreadsheet error value ("#N/A", "#DIV/0!") also begins with '#' but is a value, read (and refused) as one. */
-function isComment(r: TextRecord): boolean {
+export function isComment(r: TextRecord): boolean {
   return r.fields.length > 0 && !r.fields[0].quoted && r.fields[0].text.startsWith("#") && !isSpreadsheetError(r.fields[0].text);
 }
 

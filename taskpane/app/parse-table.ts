@@ -15,7 +15,8 @@
  */
 import { InputError } from "../../src/errors";
 import { contentLines, detectDelimiter, settleDecimalMark, splitRecords } from "../../src/input/delimited-text";
-import { explainNotANumber, isSpreadsheetError, looksNumeric, quoteText, readNumber } from "../../src/input/number-text";
+import { explainNotANumber, looksNumeric, quoteText, readNumber } from "../../src/input/number-text";
+import { isComment } from "../../src/input/read-table";
 import { type ResolvedColumns, resolveColumns, sameUnit, splitUnit, withUnitsJoined } from "../../src/size/part-columns";
 import { fortranReason } from "../../src/input/fortran-fields";
 
@@ -65,8 +66,8 @@ function read(text: string, decimalMark: "comma" | "auto", options: TableOptions
       if (r.line <= all[all.length - 1].line) skipped.push(`line ${r.line} (blank)`);
       return false;
     }
-    // "#N/A", "#DIV/0!": a spreadsheet's error value where a stress was, not a comment; refused below with its line.
-    if (!r.fields[0].quoted && r.fields[0].text.startsWith("#") && !isSpreadsheetError(r.fields[0].text)) {
+    // "#N/A", "#DIV/0!" are no comment (isComment): a spreadsheet's error value where a stress was, refused below with its line.
+    if (isComment(r)) {
       skipped.push(`line ${r.line} (comment)`);
       return false;
     }
